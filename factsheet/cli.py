@@ -1,0 +1,133 @@
+"""Command line: ``factsheet build``, ``check`` and ``new``.
+
+Problems in the input are printed one per line as ``FILE:LINE: key: message`` and the command
+exits with status 1; a traceback is shown only with ``--debug``.
+"""
+
+from __future__ import annotations
+
+import argparse
+import sys
+from pathlib import Path
+
+from factsheet import __version__
+from factsheet.errors import FactsheetError
+from factsheet.resources import demo_dir
+
+DEFAULT_OUT = Path("site")
+
+
+def main(argv: list[str] | None = None) -> int:
+    parser = make_parser()
+    args = parser.parse_args(argv)
+    try:
+        return args.run(args)
+    except FactsheetError as exc:
+        if args.debug:
+            raise
+        _print_problems(exc)
+        return 1
+    except KeyboardInterrupt:
+        print("interrupted; the earlier site is untouched", file=sys.stderr)
+        return 130
+
+
+def _print_problems(exc: FactsheetError) -> None:
+    lines = [str(p) for p in exc.problems] or [str(exc)]
+    for line in lines:
+        print(f"error: {line}", file=sys.stderr)
+    if len(lines) > 1:
+        print(f"{len(lines)} problems found", file=sys.stderr)
+
+
+def make_parser() -> argparse.ArgumentParser:
+    parser = argparse.ArgumentParser(
+        prog="factsheet",
+        description="Fact sheets for gravitational-wave merger detections, as a static website.",
+    )
+    parser.add_argument("--version", action="version", version=f"factsheet {__version__}")
+    parser.add_argument("--debug", action="store_true", help="show tracebacks")
+    sub = parser.add_subparsers(dest="command", required=True, metavar="COMMAND")
+
+    b = sub.add_parser(
+        "build",
+        help="build the site (the packaged demo when no catalogue is given)",
+        description="Check, derive and render a catalogue into a static site.",
+    )
+    _catalogue_arg(b)
+    b.add_argument(
+        "-o", "--out", type=Path, default=DEFAULT_OUT, help="output folder (default: site/)"
+    )
+    b.add_argument(
+        "--audience",
+        choices=("public", "internal"),
+        default="public",
+        help="public leaves out internal and embargoed items (default: public)",
+    )
+    b.add_argument(
+        "--force",
+        action="store_true",
+        help="replace the output folder even if factsheet did not make it",
+    )
+    b.set_defaults(run=run_build)
+
+    c = sub.add_parser(
+        "check",
+        help="validate a catalogue without building",
+        description="Validate every file; exit 1 and list each problem if any.",
+    )
+    _catalogue_arg(c)
+    c.set_defaults(run=run_check)
+
+    n = sub.add_parser(
+        "new",
+        help="write a commented event file to fill in",
+        description="Write ID.yaml, a commented event file to fill in.",
+    )
+    n.add_argument("id", help="designation of the new event (letters, digits, . _ -)")
+    n.add_argument("-d", "--dir", type=Path, default=Path("."), help="catalogue folder")
+    n.set_defaults(run=run_new)
+    return parser
+
+
+def _catalogue_arg(parser: argparse.ArgumentParser) -> None:
+    parser.add_argument(
+        "catalogue",
+        nargs="?",
+        type=Path,
+        help="catalogue folder (default: the packaged demo catalogue)",
+    )
+
+
+def run_build(args: argparse.Namespace) -> int:
+    from factsheet.build import build
+
+    report = build(args.catalogue or demo_dir(), args.out, args.audience, args.force)
+    withheld = report.withheld_internal + report.withheld_embargo
+    note = (
+        f"; withheld {report.withheld_internal} internal and {report.withheld_embargo} embargoed"
+        if withheld
+        else ""
+    )
+    print(f"built {report.built} fact sheets into {report.out}/ in {report.seconds:.1f} s{note}")
+    return 0
+
+
+def run_check(args: argparse.Namespace) -> int:
+    from factsheet.load import load_catalogue
+
+    catalogue = load_catalogue(args.catalogue or demo_dir())
+    print(f"{catalogue.root}: {len(catalogue.events)} events, no problems found")
+    return 0
+
+
+def run_new(args: argparse.Namespace) -> int:
+    from factsheet.template_event import write_new_event
+
+    path = write_new_event(args.id, args.dir)
+    print(f"wrote {path}: fill in the values, then run `factsheet check {args.dir}`")
+    return 0
+
+
+if __name__ == "__main__":
+    sys.exit(main())

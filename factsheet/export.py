@@ -1,0 +1,128 @@
+"""Shape derived events for the outside world: the JSON contract and the page contexts.
+
+``event_json`` follows DESIGN.md section 6 (a contract other tools read); the page contexts are
+documented in DEVELOPERS.md.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+
+from factsheet.derive import Derived, Summary
+from factsheet.model import Event
+
+# Quantities shown on a sheet, in order: key -> (label, group). Keys absent for an event
+# (for example remnant numbers of a neutron-star pair) are skipped.
+QUANTITY_LABELS: dict[str, tuple[str, str]] = {
+    "mass_1": ("Primary mass m₁", "measured"),
+    "mass_2": ("Secondary mass m₂", "measured"),
+    "luminosity_distance": ("Luminosity distance", "measured"),
+    "chi_eff": ("Effective spin χ_eff", "measured"),
+    "spin_1z": ("Aligned spin of body 1", "measured"),
+    "spin_2z": ("Aligned spin of body 2", "measured"),
+    "redshift": ("Redshift z", "derived"),
+    "total_mass": ("Total mass", "derived"),
+    "chirp_mass": ("Chirp mass", "derived"),
+    "mass_ratio": ("Mass ratio q = m₂/m₁", "derived"),
+    "mass_1_detector": ("Primary mass (detector frame)", "derived"),
+    "mass_2_detector": ("Secondary mass (detector frame)", "derived"),
+    "chirp_mass_detector": ("Chirp mass (detector frame)", "derived"),
+}
+
+# Keys the JSON export carries (DESIGN.md section 6) when the event has them.
+JSON_KEYS = (
+    "mass_1",
+    "mass_2",
+    "total_mass",
+    "chirp_mass",
+    "mass_ratio",
+    "chi_eff",
+    "luminosity_distance",
+    "redshift",
+    "final_mass",
+    "final_spin",
+    "radiated_mass",
+    "radiated_energy",
+    "peak_luminosity",
+    "kick_velocity",
+    "ringdown_frequency",
+    "ringdown_damping_time",
+    "isco_frequency",
+    "time_in_band",
+    "spin_1z",
+    "spin_2z",
+    "mass_1_detector",
+    "mass_2_detector",
+    "total_mass_detector",
+    "chirp_mass_detector",
+)
+
+
+@dataclass(frozen=True)
+class QuantityRow:
+    key: str
+    label: str
+    group: str
+    summary: Summary
+
+
+def time_utc(event: Event) -> str:
+    return event.time.utc.isot
+
+
+def event_json(item: Derived) -> dict:
+    """The ``data/<id>.json`` document of one event (DESIGN.md section 6)."""
+    q = item.quantities
+    return {
+        "id": item.event.id,
+        "title": item.event.title,
+        "status": item.event.status,
+        "time_utc": time_utc(item.event),
+        "source_class": item.source_class,
+        "credible_level": item.credible_level,
+        "cosmology": item.settings.cosmology,
+        "quantities": {k: q[k].as_dict() for k in JSON_KEYS if k in q},
+        "mass_bands": item.mass_bands,
+        "counterpart_windows": [w.as_dict() for w in item.windows],
+        "caveats": [c.as_dict() for c in item.caveats],
+    }
+
+
+def quantity_rows(item: Derived) -> list[QuantityRow]:
+    return [
+        QuantityRow(k, label, group, item.quantities[k])
+        for k, (label, group) in QUANTITY_LABELS.items()
+        if k in item.quantities
+    ]
+
+
+def event_row(item: Derived) -> dict:
+    """One row of the index table."""
+    q = item.quantities
+    return {
+        "id": item.event.id,
+        "title": item.event.title,
+        "page": f"events/{item.event.id}.html",
+        "date": item.event.time.utc.isot[:10],
+        "status": item.event.status,
+        "source_class": item.source_class,
+        "mass_1": q["mass_1"],
+        "mass_2": q["mass_2"],
+        "distance": q["luminosity_distance"],
+    }
+
+
+def event_context(item: Derived, previous: Derived | None, following: Derived | None) -> dict:
+    """The template context of one event page."""
+    return {
+        "event": item.event,
+        "item": item,
+        "time_utc": time_utc(item.event),
+        "rows": quantity_rows(item),
+        "caveats": item.caveats,
+        "previous": previous
+        and {"id": previous.event.id, "page": f"events/{previous.event.id}.html"},
+        "next": following
+        and {"id": following.event.id, "page": f"events/{following.event.id}.html"},
+        "json_path": f"data/{item.event.id}.json",
+    }

@@ -1,0 +1,115 @@
+"""Load stage: a catalogue folder of YAML files in, validated typed objects out.
+
+Every problem is collected as ``FILE:LINE: key: what is wrong (what was expected)``; the whole
+catalogue is checked before :class:`~factsheet.errors.InputError` is raised with all of them.
+"""
+
+from __future__ import annotations
+
+from pathlib import Path
+
+from factsheet import fields
+from factsheet.errors import InputError, Problem
+from factsheet.model import Catalogue, Event, Settings
+from factsheet.schema import CATALOGUE_KEYS, EVENT_KEYS
+from factsheet.yamlread import Limits, LineMap, YamlProblem, read_yaml
+
+CATALOGUE_FILE = "catalogue.yaml"
+EVENT_SUFFIXES = (".yaml", ".yml")
+
+
+def load_catalogue(folder: str | Path) -> Catalogue:
+    """Read and validate a catalogue folder; raise :class:`InputError` listing every problem."""
+    root = Path(folder)
+    if not root.is_dir():
+        raise InputError(problems=[Problem(root, None, "", "catalogue folder not found")])
+    problems: list[Problem] = []
+    settings = load_settings(root / CATALOGUE_FILE, problems)
+    events = [
+        e
+        for path in event_files(root, problems)
+        if (e := load_event(path, root, settings, problems))
+    ]
+    _check_unique_ids(events, problems)
+    if not events and not problems:
+        problems.append(Problem(root, None, "", "no event files (*.yaml) in the catalogue"))
+    if problems:
+        raise InputError(problems=problems)
+    events.sort(key=lambda e: (e.time.unix, e.id))
+    return Catalogue(root=root, settings=settings, events=tuple(events))
+
+
+def event_files(root: Path, problems: list[Problem]) -> list[Path]:
+    """Every event file under ``root``, sorted; links leading outside the folder are refused."""
+    base = root.resolve()
+    found = []
+    for path in sorted(root.rglob("*")):
+        if path.suffix not in EVENT_SUFFIXES or path == root / CATALOGUE_FILE:
+            continue
+        if not path.resolve().is_relative_to(base):
+            problems.append(Problem(path, None, "", "link points outside the catalogue folder"))
+        elif path.is_file():
+            found.append(path)
+    return found
+
+
+def _read_mapping(path: Path, problems: list[Problem], limits: Limits) -> LineMap | None:
+    try:
+        data = read_yaml(path.read_bytes(), limits)
+    except YamlProblem as exc:
+        problems.append(Problem(path, exc.line, exc.key, str(exc)))
+        return None
+    except OSError as exc:
+        problems.append(Problem(path, None, "", f"cannot read file ({exc.strerror})"))
+        return None
+    if data is None:
+        problems.append(Problem(path, 1, "", "file is empty (expected a mapping of keys)"))
+        return None
+    if not isinstance(data, LineMap):
+        problems.append(
+            Problem(path, getattr(data, "line", 1), "", "expected a mapping of keys at the top")
+        )
+        return None
+    return data
+
+
+def load_settings(path: Path, problems: list[Problem]) -> Settings:
+    """Read ``catalogue.yaml`` if present; defaults otherwise."""
+    if not path.exists():
+        return Settings()
+    data = _read_mapping(path, problems, Limits())
+    if data is None:
+        return Settings()
+    check = fields.Checker(path, problems)
+    return Settings(**check.mapping(data, CATALOGUE_KEYS, prefix=""))
+
+
+def load_event(path: Path, root: Path, settings: Settings, problems: list[Problem]) -> Event | None:
+    """Read and validate one event file; None (with problems recorded) when it is invalid."""
+    data = _read_mapping(path, problems, settings.limits)
+    if data is None:
+        return None
+    before = len(problems)
+    check = fields.Checker(path, problems, base=path.parent, root=root)
+    values = check.mapping(data, EVENT_KEYS, prefix="")
+    if len(problems) > before:
+        return None
+    values.setdefault("title", values["id"])
+    return Event(source=path, line=data.line_of("id") or 1, **values)
+
+
+def _check_unique_ids(events: list[Event], problems: list[Problem]) -> None:
+    seen: dict[str, Event] = {}
+    for event in events:
+        if event.id in seen:
+            first = seen[event.id]
+            problems.append(
+                Problem(
+                    event.source,
+                    event.line,
+                    "id",
+                    f"duplicate id {event.id!r} (also used in {first.source})",
+                )
+            )
+        else:
+            seen[event.id] = event

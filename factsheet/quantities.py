@@ -1,0 +1,143 @@
+"""Parse the value syntax of the input format into estimates with units.
+
+Accepted forms (DESIGN.md section 4):
+
+* ``"42 +7 -5 Msun"`` — a median with the distances to the bounds of the catalogue's credible
+  interval;
+* ``"4 km"`` or ``14.3`` — an exact value (no interval);
+* ``"1 / 80 yr"`` or ``"2 / yr"`` — an exact rate, one count per so much time;
+* a mapping ``{median: 42, plus: 7, minus: 5, unit: Msun}`` (``plus``/``minus`` optional).
+
+Units are astropy unit strings plus the aliases ``Msun``, ``Mpc``, ``Gpc`` and ``deg2``.
+Parsing problems raise :class:`ValueParseError` with a message that says what was expected;
+the loader adds the file, line and key.
+"""
+
+from __future__ import annotations
+
+import math
+import re
+from dataclasses import dataclass
+
+import astropy.units as u
+
+UNIT_ALIASES = {"Msun": "solMass", "Mpc": "Mpc", "Gpc": "Gpc", "deg2": "deg2"}
+
+_NUMBER = r"[-+]?(?:\d+\.?\d*|\.\d+)(?:[eE][-+]?\d+)?"
+_INTERVAL = re.compile(rf"^\s*({_NUMBER})\s*\+\s*({_NUMBER})\s*-\s*({_NUMBER})\s*(.*?)\s*$")
+_RATE = re.compile(rf"^\s*({_NUMBER})\s*/\s*({_NUMBER})?\s*([A-Za-z].*?)\s*$")
+_EXACT = re.compile(rf"^\s*({_NUMBER})\s*(.*?)\s*$")
+
+
+class ValueParseError(ValueError):
+    """A value that does not follow the input syntax; the message says what was expected."""
+
+
+@dataclass(frozen=True)
+class Estimate:
+    """A median with the offsets to the bounds of the credible interval, in one unit."""
+
+    median: float
+    plus: float
+    minus: float
+    unit: u.UnitBase
+
+    @property
+    def exact(self) -> bool:
+        return self.plus == 0 and self.minus == 0
+
+    @property
+    def quantity(self) -> u.Quantity:
+        return self.median * self.unit
+
+    @property
+    def low(self) -> float:
+        return self.median - self.minus
+
+    @property
+    def high(self) -> float:
+        return self.median + self.plus
+
+    def to(self, unit: u.UnitBase | str) -> Estimate:
+        factor = self.unit.to(unit)
+        return Estimate(self.median * factor, self.plus * factor, self.minus * factor, u.Unit(unit))
+
+    def canonical(self) -> str:
+        """A stable text form, used to seed the random draws from the content."""
+        return f"{self.median!r} +{self.plus!r} -{self.minus!r} {self.unit.to_string()}"
+
+
+def parse_unit(text: str) -> u.UnitBase:
+    """Parse a unit string with astropy, after applying the project's aliases."""
+    text = (text or "").strip()
+    if not text:
+        return u.dimensionless_unscaled
+    try:
+        return u.Unit(UNIT_ALIASES.get(text, text))
+    except ValueError:
+        raise ValueParseError(f"unknown unit {text!r}") from None
+
+
+def _finite(x: float, what: str) -> float:
+    if not math.isfinite(x):
+        raise ValueParseError(f"{what} must be a finite number, got {x}")
+    return x
+
+
+def parse_estimate(value: object) -> Estimate:
+    """Parse any accepted value form into an :class:`Estimate`."""
+    if isinstance(value, bool):
+        raise ValueParseError("expected a number or 'MEDIAN +PLUS -MINUS UNIT', got a boolean")
+    if isinstance(value, int | float):
+        return Estimate(_finite(float(value), "value"), 0.0, 0.0, u.dimensionless_unscaled)
+    if isinstance(value, dict):
+        return _parse_mapping(value)
+    if not isinstance(value, str):
+        raise ValueParseError(f"expected 'MEDIAN +PLUS -MINUS UNIT', got {type(value).__name__}")
+    return _parse_text(value)
+
+
+def _parse_text(text: str) -> Estimate:
+    if m := _INTERVAL.match(text):
+        median, plus, minus = (_finite(float(g), "value") for g in m.groups()[:3])
+        if plus < 0 or minus < 0:
+            raise ValueParseError(f"interval offsets must be non-negative in {text!r}")
+        return Estimate(median, plus, minus, parse_unit(m.group(4)))
+    if "+" in text or re.search(rf"{_NUMBER}\s+-", text):
+        raise ValueParseError(
+            f"malformed interval {text!r} (expected 'MEDIAN +PLUS -MINUS UNIT', e.g. '42 +7 -5 Msun')"
+        )
+    if m := _RATE.match(text):
+        count = _finite(float(m.group(1)), "count")
+        per = _finite(float(m.group(2) or 1.0), "time")
+        if per == 0:
+            raise ValueParseError(f"division by zero in {text!r}")
+        return Estimate(count / per, 0.0, 0.0, parse_unit(m.group(3)) ** -1)
+    if m := _EXACT.match(text):
+        return Estimate(_finite(float(m.group(1)), "value"), 0.0, 0.0, parse_unit(m.group(2)))
+    raise ValueParseError(
+        f"cannot read {text!r} (expected 'MEDIAN +PLUS -MINUS UNIT' or 'VALUE UNIT')"
+    )
+
+
+def _parse_mapping(value: dict) -> Estimate:
+    allowed = {"median", "plus", "minus", "unit"}
+    unknown = set(map(str, value)) - allowed
+    if unknown:
+        raise ValueParseError(
+            f"unknown field(s) {', '.join(sorted(unknown))} (expected median, plus, minus, unit)"
+        )
+    if "median" not in value:
+        raise ValueParseError("missing 'median' (expected {median, plus, minus, unit})")
+    numbers = []
+    for name in ("median", "plus", "minus"):
+        x = value.get(name, 0.0)
+        if isinstance(x, bool) or not isinstance(x, int | float):
+            raise ValueParseError(f"'{name}' must be a number, got {x!r}")
+        numbers.append(_finite(float(x), name))
+    if numbers[1] < 0 or numbers[2] < 0:
+        raise ValueParseError("'plus' and 'minus' must be non-negative")
+    unit = value.get("unit", "")
+    if not isinstance(unit, str):
+        raise ValueParseError(f"'unit' must be a unit string, got {unit!r}")
+    return Estimate(*numbers, parse_unit(unit))

@@ -1,0 +1,34 @@
+"""Shared test helpers: a valid event and small catalogues in temporary folders."""
+
+from __future__ import annotations
+
+import textwrap
+from pathlib import Path
+
+VALID_EVENT = """\
+id: TEST-1
+title: A test pair
+time: "2034-04-12T07:26:41.2"
+status: confirmed
+parameters:
+  mass_1: 36 +5 -4 Msun
+  mass_2: 29 +4 -5 Msun
+  spin_1z: 0.1 +0.2 -0.2
+  spin_2z: 0.0 +0.3 -0.3
+  luminosity_distance: 440 +180 -170 Mpc
+false_alarm_rate: 1 / 80 yr
+snr: 14.3
+detectors: [A1, B1]
+sky_area: 580 deg2
+summary: A *test* event.
+"""
+
+
+def write_catalogue(folder: Path, files: dict[str, str]) -> Path:
+    """Write ``files`` (name -> text) into ``folder`` and return it."""
+    folder.mkdir(parents=True, exist_ok=True)
+    for name, text in files.items():
+        path = folder / name
+        path.parent.mkdir(parents=True, exist_ok=True)
+        path.write_text(textwrap.dedent(text), encoding="utf-8")
+    return folder

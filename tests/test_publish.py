@@ -1,0 +1,53 @@
+"""Publishing swaps a complete site in, and never harms a folder it did not make."""
+
+import pytest
+
+from factsheet.errors import BuildError
+from factsheet.publish import MARKER, PLACEHOLDER, PLACEHOLDER_TEXT, publish, replaceable
+from factsheet.render import Site
+
+
+def site(**files):
+    s = Site()
+    for name, text in files.items():
+        s.add(name.replace("__", "/"), text)
+    return s
+
+
+def test_publish_replaces_an_earlier_site(tmp_path):
+    out = tmp_path / "site"
+    publish(site(index_html="one", events__a_html="a"), out)
+    publish(site(index_html="two"), out)
+    assert (out / "index_html").read_text() == "two"
+    assert not (out / "events").exists()
+    assert (out / MARKER).exists()
+    assert [p.name for p in tmp_path.iterdir()] == ["site"]  # nothing left beside it
+
+
+def test_placeholder_folder_is_replaceable_and_kept_identical(tmp_path):
+    out = tmp_path / "site"
+    out.mkdir()
+    (out / PLACEHOLDER).write_text(PLACEHOLDER_TEXT)
+    publish(site(index_html="x"), out)
+    assert (out / PLACEHOLDER).read_text() == PLACEHOLDER_TEXT  # the tracked file stays unchanged
+
+
+def test_refuses_foreign_folder(tmp_path):
+    out = tmp_path / "docs"
+    out.mkdir()
+    (out / "thesis.tex").write_text("precious")
+    with pytest.raises(BuildError, match="did not make"):
+        publish(site(index_html="x"), out)
+    assert (out / "thesis.tex").read_text() == "precious"
+    assert not replaceable(out)
+    publish(site(index_html="x"), out, force=True)
+    assert not (out / "thesis.tex").exists()
+
+
+def test_failed_write_leaves_earlier_site(tmp_path):
+    out = tmp_path / "site"
+    publish(site(index_html="good"), out)
+    with pytest.raises(BuildError, match="outside the output folder"):
+        publish(site(**{"../evil": "x"}), out)
+    assert (out / "index_html").read_text() == "good"
+    assert sorted(p.name for p in tmp_path.iterdir()) == ["site"]
