@@ -1,0 +1,111 @@
+"""Write the demo catalogue's posterior-samples file, deterministically.
+
+The demo event MER34-001 (``events_demo/mer34-001.yaml``) names ``mer34-001.csv`` under its
+``samples`` key. The samples are invented: they are drawn here from a fixed-seed generator so
+that a rerun rewrites the identical file. Run from anywhere:
+
+    python tools/make_demo_samples.py
+
+File layout (read by the loader, see DESIGN.md section 4):
+
+* lines starting with ``#`` are comments;
+* the first other line is the header: one cell per parameter, written ``name [unit]`` with an
+  astropy unit string (``Msun`` and ``Mpc`` are the input-format aliases); a dimensionless
+  column has no bracket, e.g. ``spin_1z``;
+* every further line is one sample, values rounded to 5 significant digits.
+
+How the samples are drawn (a toy model of how a compact-binary measurement looks, not a fit):
+the source-frame chirp mass is tightly measured (normal, 2.5 % standard deviation), the mass
+ratio q = m2/m1 is loose (beta distribution), and the components follow from
+m1 = Mc (1 + q)^(1/5) / q^(3/5), m2 = q m1, so m1 >= m2 always. The aligned spins are broad
+and tilted against the mass ratio (the mass-ratio--effective-spin degeneracy of the inspiral
+phase, Cutler & Flanagan 1994, PRD 49, 2658 [recalled from memory]), kept within [-1, 1] by
+redrawing. The luminosity distance is log-normal and independent of the rest.
+"""
+
+from __future__ import annotations
+
+import csv
+from pathlib import Path
+
+import numpy as np
+
+SEED = 3401  # fixed: the file must not change between runs
+N_SAMPLES = 2000
+SIGNIFICANT_DIGITS = 5
+OUT = Path(__file__).resolve().parent.parent / "events_demo" / "mer34-001.csv"
+
+CHIRP_MASS = 26.5  # Msun, source frame, median of the invented measurement
+CHIRP_MASS_REL_SD = 0.025
+Q_BETA = (9.0, 2.6)  # beta-distribution shape parameters of q (mean ~0.78)
+SPIN_1Z = (0.05, 0.20)  # mean, standard deviation before the q tilt
+SPIN_2Z = (0.00, 0.33)
+SPIN_Q_TILT = -0.35  # spin_1z shift per unit of q above its mean
+DISTANCE_MEDIAN = 1290.0  # Mpc
+DISTANCE_LOG_SD = 0.25
+
+HEADER = ["mass_1 [Msun]", "mass_2 [Msun]", "spin_1z", "spin_2z", "luminosity_distance [Mpc]"]
+COMMENT = (  # no commas, so that a plain CSV reader sees one cell if it does not skip comments
+    "# MER34-001 posterior samples invented for the factsheet demo (not a real measurement);"
+    " header cells read: name [astropy unit]; a cell without a bracket is dimensionless"
+)
+
+
+def components_from_chirp(chirp_mass: np.ndarray, q: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
+    """Component masses from chirp mass and q = m2/m1 <= 1 (definition of the chirp mass)."""
+    m1 = chirp_mass * (1.0 + q) ** 0.2 / q**0.6
+    return m1, q * m1
+
+
+def bounded_normal(rng: np.random.Generator, mean: np.ndarray, sd: float) -> np.ndarray:
+    """Normal draws redrawn until inside [-1, 1] (rejection sampling of a truncated normal)."""
+    mean = np.asarray(mean, dtype=float)
+    out = rng.normal(mean, sd)
+    bad = np.abs(out) > 1.0
+    while bad.any():
+        out[bad] = rng.normal(mean[bad], sd)
+        bad = np.abs(out) > 1.0
+    return out
+
+
+def draw(rng: np.random.Generator, n: int) -> dict[str, np.ndarray]:
+    """Draw n correlated samples of the toy model described in the module docstring."""
+    chirp = CHIRP_MASS * (1.0 + CHIRP_MASS_REL_SD * rng.standard_normal(n))
+    q = rng.beta(*Q_BETA, size=n)
+    m1, m2 = components_from_chirp(chirp, q)
+    spin1_mean = SPIN_1Z[0] + SPIN_Q_TILT * (q - q.mean())
+    spin1 = bounded_normal(rng, spin1_mean, SPIN_1Z[1])
+    spin2 = bounded_normal(rng, np.full(n, SPIN_2Z[0]), SPIN_2Z[1])
+    distance = DISTANCE_MEDIAN * np.exp(DISTANCE_LOG_SD * rng.standard_normal(n))
+    return dict(zip(HEADER, (m1, m2, spin1, spin2, distance), strict=True))
+
+
+def write_csv(columns: dict[str, np.ndarray], path: Path) -> None:
+    """Write the comment line, the header and the rounded rows (general format, 5 digits)."""
+    rows = zip(*columns.values(), strict=True)
+    with path.open("w", newline="", encoding="utf-8") as handle:
+        handle.write(COMMENT + "\n")
+        writer = csv.writer(handle, lineterminator="\n")
+        writer.writerow(columns.keys())
+        for row in rows:
+            writer.writerow(f"{value:.{SIGNIFICANT_DIGITS}g}" for value in row)
+
+
+def summarise(columns: dict[str, np.ndarray], level: float = 0.9) -> None:
+    """Print median and equal-tailed credible offsets, to copy into the event's parameters."""
+    tail = 50.0 * (1.0 - level)
+    for name, values in columns.items():
+        low, mid, high = np.percentile(values, [tail, 50.0, 100.0 - tail])
+        print(f"{name:28s} {mid:9.4g} +{high - mid:.3g} -{mid - low:.3g}")
+
+
+def main() -> None:
+    """Draw the samples with the fixed seed, write the CSV and print its summary."""
+    columns = draw(np.random.default_rng(SEED), N_SAMPLES)
+    write_csv(columns, OUT)
+    summarise(columns)
+    print(f"wrote {OUT} ({OUT.stat().st_size / 1024:.0f} kB)")
+
+
+if __name__ == "__main__":
+    main()
