@@ -14,8 +14,11 @@ import astropy.units as u
 import numpy as np
 
 from factsheet import caveats as cv
+from factsheet import derive_context as ctx
+from factsheet.derive_remnant import Computed, inspiral_quantities, remnant_quantities
 from factsheet.model import Event, Settings
 from factsheet.physics import cosmology, inspiral
+from factsheet.reference import Reference, load_reference
 from factsheet.samples import LIMITS, draw, draw_parameters, read_samples_csv
 
 SOURCE = "source"
@@ -54,8 +57,13 @@ class Derived:
     quantities: dict[str, Summary] = field(default_factory=dict)
     caveats: list[cv.Caveat] = field(default_factory=list)
     source_class: str = ""
+    class_probabilities: dict[str, float] = field(default_factory=dict)
+    disruption_probability: float | None = None
     mass_bands: dict[str, dict[str, float]] = field(default_factory=dict)
     windows: list = field(default_factory=list)
+    no_window_reason: str = ""
+    comparisons: dict = field(default_factory=dict)
+    reference: Reference | None = None
 
     @property
     def credible_level(self) -> float:
@@ -100,9 +108,22 @@ def _aligned_spins(values: dict[str, np.ndarray]) -> dict[str, np.ndarray]:
     return values
 
 
-def derive_event(event: Event, settings: Settings) -> Derived:
+def reference_for(settings: Settings) -> Reference:
+    """The packaged reference data with the catalogue's overrides."""
+    return load_reference({"mass_bands": settings.mass_bands,
+                           "comparisons": settings.comparisons})
+
+
+def derive_event(event: Event, settings: Settings, reference: Reference | None = None) -> Derived:
     """Derive every quantity of one event from its estimate and the catalogue settings."""
-    result = Derived(event, settings)
+    result = Derived(event, settings, reference=reference or reference_for(settings))
+    _derive_base(result)
+    _derive_physics(result)
+    return result
+
+
+def _derive_base(result: Derived) -> None:
+    event, settings = result.event, result.settings
     values = base_samples(event, settings)
     distance = values["luminosity_distance"] * u.Mpc
     if "redshift" in values:
@@ -132,7 +153,34 @@ def derive_event(event: Event, settings: Settings) -> Derived:
         s[f"{name}_detector"] = cosmology.to_detector_frame(s[name], z)
     _summarise_base(result)
     result.caveats.extend(cv.input_caveats(event, settings.cosmology))
-    return result
+
+
+def _derive_physics(result: Derived) -> None:
+    s, ref, settings = result.samples, result.reference, result.settings
+    level = settings.credible_level
+    c = ctx.classify(s, ref)
+    result.source_class, result.class_probabilities = c.source_class, c.probabilities
+    result.disruption_probability = c.disruption_probability
+    computed = Computed()
+    allowed, note = ctx.remnant_allowed(c)
+    if allowed:
+        remnant_quantities(s, computed)
+    inspiral_quantities(s, settings.low_frequency, settings.arm_length, computed)
+    s.update(computed.samples)
+    for name, values in computed.samples.items():
+        result.quantities[name] = summarise(values, level, computed.frames.get(name),
+                                            computed.methods[name], computed.spreads.get(name))
+    result.mass_bands, band_notes = ctx.mass_bands(s, ref)
+    z = float(np.median(s["redshift"].value))
+    total = float(np.median(s["total_mass"].to_value(u.Msun)))
+    result.windows, result.no_window_reason, window_notes = ctx.windows(
+        result.event, z, c, s.get("kick_velocity"), total, ref, level)
+    medians = {k: np.median(s[k]) for k in ("radiated_energy", "peak_luminosity") if k in s}
+    result.comparisons = ctx.comparison_values(medians.get("radiated_energy"),
+                                               medians.get("peak_luminosity"), ref,
+                                               settings.energy_units)
+    result.caveats.extend([*([note] if note else []), *computed.caveats, *band_notes,
+                           *window_notes, *ctx.significance_caveats(result.event)])
 
 
 BASE_FRAMES = {

@@ -83,9 +83,16 @@ def event_json(item: Derived) -> dict:
         "cosmology": item.settings.cosmology,
         "quantities": {k: q[k].as_dict() for k in JSON_KEYS if k in q},
         "mass_bands": item.mass_bands,
-        "counterpart_windows": [w.as_dict() for w in item.windows],
+        "counterpart_windows": [window_json(w) for w in item.windows],
         "caveats": [c.as_dict() for c in item.caveats],
     }
+
+
+def window_json(window) -> dict:
+    """One counterpart window: UTC bounds as ISO 8601 strings."""
+    return {"name": window.name, "start_utc": window.start.utc.isot,
+            "end_utc": window.end.utc.isot, "band": window.band, "scenario": window.scenario,
+            "basis": window.basis, "text": window.plain}
 
 
 def quantity_rows(item: Derived) -> list[QuantityRow]:
