@@ -69,6 +69,10 @@ class Derived:
     def credible_level(self) -> float:
         return self.settings.credible_level
 
+    def summary(self, name: str) -> Summary:
+        """The summary of one quantity (KeyError if this event has none)."""
+        return self.quantities[name]
+
 
 def summarise(
     values: u.Quantity,

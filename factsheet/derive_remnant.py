@@ -85,6 +85,16 @@ def inspiral_quantities(s: dict[str, u.Quantity], low_frequency: u.Quantity,
     out.put("strain_amplitude", u.Quantity(strain, u.one), order, None)
     out.put("arm_length_change", inspiral.arm_length_change(strain, arm_length).to(u.m), order,
             None)
+    if np.median(f_isco) < low_frequency:
+        out.caveats.append(Caveat(
+            "inspiral-below-band", "notice", f"The inspiral ends (ISCO frequency "
+            f"{np.median(f_isco).to_value(u.Hz):.0f} Hz, observed) below the band edge of "
+            f"{low_frequency.to_value(u.Hz):g} Hz: what the detectors saw is mostly the merger "
+            "and ringdown, and the time and cycles in band are lower limits of little meaning."))
+
+
+def _percent(fraction: float) -> str:
+    return f"{fraction:.0%}" if fraction >= 0.01 else f"{fraction:.1%}" if fraction >= 0.001 else "<0.1%"
 
 
 def _calibration_caveats(s: dict[str, u.Quantity], spin: np.ndarray, out: Computed) -> None:
@@ -98,5 +108,5 @@ def _calibration_caveats(s: dict[str, u.Quantity], spin: np.ndarray, out: Comput
             names = ", ".join(sorted(outside))
             out.caveats.append(Caveat(
                 "fit-outside-calibration", "warning" if worst > 0.5 else "notice",
-                f"{METHODS[method_id].title}: {worst:.0%} of the samples lie outside the range "
+                f"{METHODS[method_id].title}: {_percent(worst)} of the samples lie outside the range "
                 f"the fit was calibrated on ({names}); its numbers there are extrapolated."))

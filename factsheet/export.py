@@ -6,7 +6,7 @@ documented in DEVELOPERS.md.
 
 from __future__ import annotations
 
-from dataclasses import dataclass
+from dataclasses import dataclass, replace
 
 from factsheet.derive import Derived, Summary
 from factsheet.model import Event
@@ -27,6 +27,19 @@ QUANTITY_LABELS: dict[str, tuple[str, str]] = {
     "mass_1_detector": ("Primary mass (detector frame)", "derived"),
     "mass_2_detector": ("Secondary mass (detector frame)", "derived"),
     "chirp_mass_detector": ("Chirp mass (detector frame)", "derived"),
+    "final_mass": ("Remnant mass", "remnant"),
+    "final_spin": ("Remnant spin", "remnant"),
+    "radiated_mass": ("Mass-energy radiated", "remnant"),
+    "radiated_energy": ("Energy radiated", "remnant"),
+    "peak_luminosity": ("Peak luminosity", "remnant"),
+    "kick_velocity": ("Recoil kick", "remnant"),
+    "ringdown_frequency": ("Ringdown frequency (observed)", "signal"),
+    "ringdown_damping_time": ("Ringdown damping time (observed)", "signal"),
+    "isco_frequency": ("ISCO frequency, end of inspiral (observed)", "signal"),
+    "time_in_band": ("Time in band (leading order)", "signal"),
+    "cycles_in_band": ("Cycles in band (leading order)", "signal"),
+    "strain_amplitude": ("Peak strain, optimally oriented (leading order)", "signal"),
+    "arm_length_change": ("Arm-length change per arm (leading order)", "signal"),
 }
 
 # Keys the JSON export carries (DESIGN.md section 6) when the event has them.
@@ -119,9 +132,39 @@ def event_row(item: Derived) -> dict:
     }
 
 
+BAND_LABELS = {"neutron_star": "neutron star", "lower_gap": "lower mass gap",
+               "black_hole": "black hole", "pair_instability_gap": "pair-instability gap",
+               "above_gap": "above the gap", "intermediate_mass": "intermediate mass (≥ 100 M⊙)"}
+BAND_SUBJECTS = {"mass_1": "Primary (m₁)", "mass_2": "Secondary (m₂)", "final_mass": "Remnant"}
+
+
+def band_rows(item: Derived) -> list[dict]:
+    """Mass-band probabilities as table rows: subject, then one cell per band."""
+    return [{"subject": BAND_SUBJECTS[name],
+             "cells": [(BAND_LABELS[b], p) for b, p in probs.items()]}
+            for name, probs in item.mass_bands.items()]
+
+
+def comparison_rows(item: Derived) -> list[dict]:
+    """Energy and luminosity against the comparison objects, largest ratio first."""
+    ref = item.reference
+    labels = {c.key: c.label for c in ref.comparisons} if ref else {}
+    rows = []
+    for kind in ("energy", "luminosity"):
+        for key, ratio in sorted(item.comparisons.get(kind, {}).items(), key=lambda kv: -kv[1]):
+            rows.append({"kind": kind, "label": labels.get(key, key), "ratio": ratio})
+    return rows
+
+
 def event_context(item: Derived, previous: Derived | None, following: Derived | None) -> dict:
     """The template context of one event page."""
     return {
+        "bands": band_rows(item),
+        "band_edges": item.reference.mass_bands.edges() if item.reference else (),
+        "windows": [window_json(w) for w in item.windows],
+        "no_window_reason": item.no_window_reason,
+        "comparison_rows": comparison_rows(item),
+        "sun_years": item.comparisons.get("sun_years"),
         "event": item.event,
         "item": item,
         "time_utc": time_utc(item.event),

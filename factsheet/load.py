@@ -81,7 +81,22 @@ def load_settings(path: Path, problems: list[Problem]) -> Settings:
     if data is None:
         return Settings()
     check = fields.Checker(path, problems)
-    return Settings(**check.mapping(data, CATALOGUE_KEYS, prefix=""))
+    settings = Settings(**check.mapping(data, CATALOGUE_KEYS, prefix=""))
+    _check_reference_overrides(path, data, settings, problems)
+    return settings
+
+
+def _check_reference_overrides(path: Path, data: LineMap, settings: Settings,
+                               problems: list[Problem]) -> None:
+    """Report bad ``mass_bands``/``comparisons`` overrides at check time, with their line."""
+    from factsheet.derive import reference_for
+
+    try:
+        reference_for(settings)
+    except InputError as exc:
+        for p in exc.problems:
+            top = p.key.split(".")[0]
+            problems.append(Problem(path, data.line_of(top), p.key, p.message))
 
 
 def load_event(path: Path, root: Path, settings: Settings, problems: list[Problem]) -> Event | None:

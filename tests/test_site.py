@@ -22,16 +22,13 @@ CONTRACT_KEYS = {
     "counterpart_windows",
     "caveats",
 }
-QUANTITY_KEYS = {
-    "mass_1",
-    "mass_2",
-    "total_mass",
-    "chirp_mass",
-    "mass_ratio",
-    "chi_eff",
-    "luminosity_distance",
-    "redshift",
-}
+QUANTITY_KEYS = {"mass_1", "mass_2", "total_mass", "chirp_mass", "mass_ratio", "chi_eff",
+                 "luminosity_distance", "redshift", "isco_frequency", "time_in_band"}
+REMNANT_KEYS = {"final_mass", "final_spin", "radiated_mass", "radiated_energy", "peak_luminosity",
+                "kick_velocity", "ringdown_frequency", "ringdown_damping_time"}
+UNITS = {"mass_1": "solMass", "luminosity_distance": "Mpc", "radiated_energy": "J",
+         "peak_luminosity": "W", "kick_velocity": "km / s", "ringdown_frequency": "Hz",
+         "ringdown_damping_time": "s", "isco_frequency": "Hz", "time_in_band": "s"}
 
 
 class Links(HTMLParser):
@@ -65,8 +62,15 @@ def test_every_public_event_has_a_page_and_json(demo_site):
         for name, q in data["quantities"].items():
             assert q["low"] <= q["median"] <= q["high"], name
             u.Unit(q["unit"])  # astropy unit strings (DESIGN.md section 6)
-        assert data["quantities"]["mass_1"]["unit"] == "solMass"
-        assert data["quantities"]["luminosity_distance"]["unit"] == "Mpc"
+        if data["source_class"] == "BBH":
+            assert REMNANT_KEYS <= data["quantities"].keys()
+            assert data["quantities"]["final_spin"]["fit_spread"] >= 0
+        for name, unit in UNITS.items():
+            if name in data["quantities"]:
+                assert data["quantities"][name]["unit"] == unit
+        assert set(data["mass_bands"]) >= {"mass_1", "mass_2"}
+        for bands in data["mass_bands"].values():
+            assert sum(p for k, p in bands.items() if k != "intermediate_mass") == pytest.approx(1)
 
 
 def test_every_relative_link_resolves(demo_site):

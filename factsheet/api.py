@@ -1,0 +1,52 @@
+"""Derive one event without building a site (for notebooks and scripts).
+
+>>> from factsheet.api import derive
+>>> result = derive({"id": "X-1", "time": "2034-01-01T00:00:00",
+...                  "parameters": {"mass_1": "36 +5 -4 Msun", "mass_2": "29 +4 -5 Msun",
+...                                 "luminosity_distance": "440 +180 -170 Mpc"}})
+>>> result.source_class
+'BBH'
+>>> result.summary("final_mass").unit
+'solMass'
+
+``result.samples`` holds every per-sample Quantity, ``result.quantities`` the summaries (median
+and credible bounds, fit spread, methods) and ``result.caveats`` the caveats.
+"""
+
+from __future__ import annotations
+
+import tempfile
+from pathlib import Path
+from typing import Any
+
+import yaml
+
+from factsheet.derive import Derived, derive_event
+from factsheet.errors import InputError
+from factsheet.load import load_event, load_settings
+from factsheet.model import Settings
+
+
+def derive(event: str | Path | dict[str, Any], settings: Settings | str | Path | None = None
+           ) -> Derived:
+    """Derive one event from a YAML file path or a mapping with the event keys.
+
+    ``settings`` is a :class:`~factsheet.model.Settings`, a path to a ``catalogue.yaml``, or
+    None for the defaults. Invalid input raises :class:`~factsheet.errors.InputError` listing
+    every problem.
+    """
+    problems: list = []
+    if isinstance(settings, str | Path):
+        settings = load_settings(Path(settings), problems)
+    settings = settings or Settings()
+    if isinstance(event, dict):
+        with tempfile.TemporaryDirectory() as folder:
+            path = Path(folder) / "event.yaml"
+            path.write_text(yaml.safe_dump(event, sort_keys=False), encoding="utf-8")
+            loaded = load_event(path, path.parent, settings, problems)
+    else:
+        path = Path(event)
+        loaded = load_event(path, path.parent, settings, problems)
+    if problems or loaded is None:
+        raise InputError(problems=problems)
+    return derive_event(loaded, settings)
