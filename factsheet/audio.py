@@ -47,17 +47,23 @@ def chirp_wav(
     chirp_mass_detector: u.Quantity,
     f_low: u.Quantity,
     f_merger: u.Quantity,
-    f_ringdown: u.Quantity,
-    tau_ringdown: u.Quantity,
+    f_ringdown: u.Quantity | None,
+    tau_ringdown: u.Quantity | None,
     *,
     sample_rate: int = 22050,
     max_seconds: float = 6.0,
 ) -> Chirp:
-    """Chirp WAV from the leading-order inspiral f(tau) (Peters 1964) and a damped ringdown tone."""
+    """Chirp WAV from the leading-order inspiral f(tau) (Peters 1964) and a damped ringdown tone.
+
+    With no ringdown (``f_ringdown`` None, e.g. a neutron-star pair with no black-hole fit), the
+    sound ends with a short fade at the merger frequency and the description says so.
+    """
     mc = _scalar(chirp_mass_detector, "mass", "chirp_mass_detector")
     f0, fm = _scalar(f_low, "frequency", "f_low"), _scalar(f_merger, "frequency", "f_merger")
-    frd = _scalar(f_ringdown, "frequency", "f_ringdown")
-    taurd = _scalar(tau_ringdown, "time", "tau_ringdown")
+    has_ringdown = f_ringdown is not None and tau_ringdown is not None
+    frd = _scalar(f_ringdown, "frequency", "f_ringdown") if has_ringdown else fm
+    taurd = (_scalar(tau_ringdown, "time", "tau_ringdown") if has_ringdown
+             else MIN_RINGDOWN_DAMPING.to_value(u.s) / 3)
     if f0 >= fm:
         raise ValueError(f"f_low ({f0:g} Hz) must lie below f_merger ({fm:g} Hz)")
     if int(sample_rate) != sample_rate or sample_rate < 8000:
@@ -76,6 +82,10 @@ def chirp_wav(
         np.concatenate([f_in, f_rd]) * pitch, np.concatenate([a_in, a_rd]), sample_rate
     )
     text = _describe(pitch, speed, (max_seconds, taurd, damping), (f0, fm, frd), ceiling)
+    if not has_ringdown:
+        text = text.split("; the inspiral")[0] + (
+            f"; the inspiral rises from {_num(f0)} Hz to {_num(fm)} Hz (observed) and the sound "
+            "then fades: no ringdown tone is given for this event.")
     return Chirp(_encode(signal, int(sample_rate)), signal.size / sample_rate, pitch, speed, text)
 
 

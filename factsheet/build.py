@@ -61,6 +61,6 @@ def build(
     catalogue = load_catalogue(catalogue_dir)
     events, internal, embargoed = select_events(catalogue, audience, build_time())
     derived: list[Derived] = [derive_event(e, catalogue.settings) for e in events]
-    site = render_site(derived, catalogue.settings)
+    site = render_site(derived, catalogue.settings, audience)
     publish(site, Path(out), force=force)
     return BuildReport(len(derived), internal, embargoed, clock.perf_counter() - start, Path(out))

@@ -108,9 +108,19 @@ def window_json(window) -> dict:
             "basis": window.basis, "text": window.plain}
 
 
+def display_summary(summary: Summary) -> Summary:
+    """A summary in the unit a reader expects: milliseconds for short times."""
+    if summary.unit == "s" and abs(summary.median) < 1:
+        factor = 1000.0
+        spread = None if summary.fit_spread is None else summary.fit_spread * factor
+        return replace(summary, median=summary.median * factor, low=summary.low * factor,
+                       high=summary.high * factor, unit="ms", fit_spread=spread)
+    return summary
+
+
 def quantity_rows(item: Derived) -> list[QuantityRow]:
     return [
-        QuantityRow(k, label, group, item.quantities[k])
+        QuantityRow(k, label, group, display_summary(item.quantities[k]))
         for k, (label, group) in QUANTITY_LABELS.items()
         if k in item.quantities
     ]
@@ -128,8 +138,25 @@ def event_row(item: Derived) -> dict:
         "source_class": item.source_class,
         "mass_1": q["mass_1"],
         "mass_2": q["mass_2"],
+        "final_mass": q.get("final_mass"),
+        "radiated_energy": q.get("radiated_energy"),
         "distance": q["luminosity_distance"],
+        "band_flags": band_flags(item),
+        "visibility": item.event.visibility,
     }
+
+
+FLAG_BANDS = {"lower_gap": "lower gap", "pair_instability_gap": "pair-instability gap",
+              "neutron_star": "neutron star", "intermediate_mass": "intermediate mass"}
+
+
+def band_flags(item: Derived, threshold: float = 0.5) -> list[str]:
+    """Short labels for notable bands any body is more likely than not to be in."""
+    flags = []
+    for band, label in FLAG_BANDS.items():
+        if any(p.get(band, 0) > threshold for p in item.mass_bands.values()) and label not in flags:
+            flags.append(label)
+    return flags
 
 
 BAND_LABELS = {"neutron_star": "neutron star", "lower_gap": "lower mass gap",

@@ -12,13 +12,15 @@ import json
 import posixpath
 from dataclasses import dataclass, field
 
+import astropy.units as u
 import jinja2
 import markdown as md
 import nh3
 from markupsafe import Markup
 
-from factsheet import export
-from factsheet.derive import Derived
+from factsheet import export, pages, site_figures
+from factsheet.audio import chirp_wav
+from factsheet.derive import Derived, reference_for
 from factsheet.formatting import format_interval, format_value, unit_text
 from factsheet.model import Settings
 from factsheet.resources import templates_dir
@@ -97,30 +99,63 @@ def make_environment() -> jinja2.Environment:
     return env
 
 
-def render_site(derived: list[Derived], settings: Settings) -> Site:
-    """Every page and export of the catalogue, in memory."""
+def plane_edges(item_or_settings: Settings) -> dict[str, float]:
+    """Mass-band edges in solar masses, in the form the mass-plane figure takes."""
+    bands = reference_for(item_or_settings).mass_bands
+    return {"neutron_star_max": bands.neutron_star_max.value.to_value("solMass"),
+            "lower_gap_max": bands.lower_gap_top.value.to_value("solMass"),
+            "pair_instability_min": bands.pair_instability_lower.value.to_value("solMass"),
+            "pair_instability_max": bands.pair_instability_upper.value.to_value("solMass")}
+
+
+def render_site(derived: list[Derived], settings: Settings, audience: str = "public") -> Site:
+    """Every page, figure and export of the catalogue, in memory."""
     env = make_environment()
     site = Site()
+    common = {"settings": settings, "catalogue_title": settings.title, "audience": audience}
+    figures = site_figures.index_figures(derived, plane_edges(settings))
+    for fig in figures:
+        site.add(fig.path, fig.svg)
     rows = [export.event_row(d) for d in derived]
-    common = {"settings": settings, "catalogue_title": settings.title}
-    site.add(
-        "index.html",
-        env.get_template("index.html").render(
-            page_path="index.html", rows=rows, description=settings.description, **common
-        ),
-    )
+    site.add("index.html", env.get_template("index.html").render(
+        page_path="index.html", rows=rows, description=settings.description,
+        index_figures=figures, **common))
     for i, item in enumerate(derived):
-        page = f"events/{item.event.id}.html"
-        context = export.event_context(
-            item, derived[i - 1] if i else None, derived[i + 1] if i + 1 < len(derived) else None
-        )
-        site.add(page, env.get_template("event.html").render(page_path=page, **context, **common))
-        site.add(
-            f"data/{item.event.id}.json",
-            json.dumps(export.event_json(item), indent=2, sort_keys=False) + "\n",
-        )
+        neighbours = (derived[i - 1] if i else None,
+                      derived[i + 1] if i + 1 < len(derived) else None)
+        render_event(env, site, item, *neighbours, common)
+    site.add("methods.html", env.get_template("methods.html").render(
+        page_path="methods.html", **pages.methods_context(derived, reference_for(settings)),
+        **common))
     for path in sorted(p for p in (templates_dir() / "static").rglob("*") if p.is_file()):
-        site.add(
-            f"static/{path.relative_to(templates_dir() / 'static').as_posix()}", path.read_bytes()
-        )
+        site.add(f"static/{path.relative_to(templates_dir() / 'static').as_posix()}",
+                 path.read_bytes())
     return site
+
+
+def render_event(env: jinja2.Environment, site: Site, item: Derived, previous: Derived | None,
+                 following: Derived | None, common: dict) -> None:
+    """The sheet of one event, its figures, its sound and its JSON."""
+    page = f"events/{item.event.id}.html"
+    figures = site_figures.event_figures(item)
+    for fig in figures:
+        site.add(fig.path, fig.svg)
+    chirp = _chirp(item)
+    site.add(f"events/{item.event.id}.wav", chirp.wav)
+    context = export.event_context(item, previous, following)
+    site.add(page, env.get_template("event.html").render(
+        page_path=page, figures=figures, headline=pages.headline(item),
+        history=pages.history_steps(item), audio={"path": f"events/{item.event.id}.wav",
+                                                  "description": chirp.description},
+        **context, **common))
+    site.add(f"data/{item.event.id}.json",
+             json.dumps(export.event_json(item), indent=2, sort_keys=False) + "\n")
+
+
+def _chirp(item: Derived):
+    q = item.quantities
+    ring, damp = q.get("ringdown_frequency"), q.get("ringdown_damping_time")
+    f_low = item.settings.low_frequency
+    f_merger = max(q["isco_frequency"].median * u.Hz, f_low * 1.5)
+    return chirp_wav(q["chirp_mass_detector"].median * u.Msun, f_low, f_merger,
+                     ring.median * u.Hz if ring else None, damp.median * u.s if damp else None)
