@@ -1,0 +1,91 @@
+"""Plain inputs of the figure functions: numbers already computed elsewhere, nothing derived here.
+
+Masses given as floats are in solar masses and distances in megaparsecs; an astropy Quantity is
+accepted wherever a float is and converted to those units before drawing.
+"""
+
+from __future__ import annotations
+
+from typing import NamedTuple
+
+import astropy.units as u
+import numpy as np
+from matplotlib.figure import Figure
+
+Number = float | u.Quantity
+
+
+class Drawing(NamedTuple):
+    """A finished figure and the alt text that states its content in words."""
+
+    figure: Figure
+    alt: str
+
+
+class IntervalItem(NamedTuple):
+    """One quantity with its median and credible-interval bounds (not offsets)."""
+
+    label: str
+    median: float
+    low: float
+    high: float
+    unit_str: str
+
+
+class Track(NamedTuple):
+    """A gravitational-wave frequency track, sampled by the caller, and its marked frequencies."""
+
+    time_to_merger_s: np.ndarray
+    frequency_hz: np.ndarray
+    f_low_hz: float
+    f_isco_hz: float
+    f_ringdown_hz: float | None = None
+    tau_ringdown_s: float | None = None
+
+
+class WindowItem(NamedTuple):
+    """A counterpart window in one band, in days relative to the merger (negative = before)."""
+
+    name: str
+    band: str
+    start_days: float
+    end_days: float
+
+
+class HistoryItem(NamedTuple):
+    """One quantity of one dated estimate, with its median and interval bounds."""
+
+    label: str
+    date_iso: str
+    quantity_label: str
+    median: float
+    low: float
+    high: float
+    unit: str | u.UnitBase
+
+
+class PlaneItem(NamedTuple):
+    """One event on the component-mass plane: medians and interval bounds of m1 and m2."""
+
+    id: str
+    m1_median: Number
+    m1_low: Number
+    m1_high: Number
+    m2_median: Number
+    m2_low: Number
+    m2_high: Number
+    status: str
+    source_class: str
+
+
+class DistanceItem(NamedTuple):
+    """One event on the distance–mass view: luminosity distance and total source-frame mass."""
+
+    id: str
+    distance_median: Number
+    distance_low: Number
+    distance_high: Number
+    total_mass_median: Number
+    total_mass_low: Number
+    total_mass_high: Number
+    status: str

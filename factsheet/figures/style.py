@@ -1,0 +1,129 @@
+"""The figures' one palette, fonts and axes look, defined once.
+
+Palette: our own assignment of the Okabe & Ito hues ("Color Universal Design", 2008), which stay
+distinct under the common forms of colour-vision deficiency; the reddish purple is darkened so
+lines keep at least 3:1 contrast on the panel. Every colour-coded thing is also named in text, so
+colour is never the only carrier.
+
+Dark mode: each figure is drawn on its own opaque light panel (figure and axes faces below), so
+the dark text and mid-tone lines read the same whether the page around it is light or dark.
+"""
+
+from __future__ import annotations
+
+import textwrap
+from collections.abc import Callable
+from functools import wraps
+
+import astropy.units as u
+import matplotlib
+from matplotlib.axes import Axes
+from matplotlib.figure import Figure
+
+from factsheet.formatting import unit_text
+
+PANEL = "#FAFAF7"  # figure face: the light panel every figure sits on
+AXES_FACE = "#FFFFFF"
+INK = "#1F1F1F"  # text, axes edges
+MUTED = "#6E6E6E"  # secondary text, earlier estimates, comparison bars
+GRID = "#DADAD4"
+RETRACTED = "#9A9A9A"
+COMPARISON = "#B9B9B2"  # bars of the comparison objects, behind the event's own bar
+
+ROLE = {
+    "primary": "#0072B2",  # blue: the heavier component, the event itself
+    "secondary": "#D55E00",  # vermillion: the lighter component
+    "remnant": "#A8487F",  # darkened reddish purple: the final object
+    "track": "#0072B2",
+    "band_edge": "#6E6E6E",
+    "isco": "#D55E00",
+    "ringdown": "#009E73",  # bluish green
+}
+
+BAND_SHADE = {  # pale tints, only ever behind labelled regions
+    "neutron_star": "#CDE6F5",
+    "lower_gap": "#F4EDB0",
+    "black_hole": "#DCEFE7",
+    "pair_instability_gap": "#F5D9AE",
+    "above_gap": "#EAD3E2",
+}
+
+WINDOW = {
+    "gamma": "#A8487F",
+    "xray_radio": "#0072B2",
+    "optical": "#009E73",
+    "infrared": "#D55E00",
+    "neutrino": "#56B4E9",
+    "flare": "#E69F00",
+}
+
+RC = {
+    "font.family": "sans-serif",
+    "font.sans-serif": ["DejaVu Sans"],
+    "font.size": 9.0,
+    "mathtext.fontset": "dejavusans",
+    "axes.unicode_minus": True,
+    "svg.fonttype": "path",
+    "svg.hashsalt": "factsheet-figures",
+    "text.color": INK,
+}
+
+
+def styled(draw: Callable) -> Callable:
+    """Run a drawing function under our rc settings only (rc_context, restored after)."""
+
+    @wraps(draw)
+    def wrapper(*args, **kwargs):
+        with matplotlib.rc_context(RC):
+            return draw(*args, **kwargs)
+
+    return wrapper
+
+
+def new_figure(width: float, height: float, margins: tuple[float, float, float, float]) -> Figure:
+    """A Figure (not pyplot) on the light panel with fixed margins (left, right, bottom, top)."""
+    fig = Figure(figsize=(width, height), facecolor=PANEL)
+    left, right, bottom, top = margins
+    fig.subplots_adjust(left=left, right=right, bottom=bottom, top=top)
+    return fig
+
+
+def wrapped(label: str, width: int = 26) -> str:
+    """A long row label broken onto lines of at most ``width`` characters."""
+    return textwrap.fill(label, width) if len(label) > width else label
+
+
+def row_height(labels: list[str], single: float) -> float:
+    """Height in inches of one labelled row: more when a label runs onto a second line."""
+    return single * 1.3 if any("\n" in text for text in labels) else single
+
+
+def label_margin(labels: list[str], fig_width: float, fontsize: float = 8.0) -> float:
+    """Left margin (figure fraction) that fits the longest y label; DejaVu Sans ≈ 0.6 em a glyph."""
+    longest = max((len(line) for text in labels for line in text.splitlines()), default=0)
+    inches = 0.2 + longest * 0.6 * fontsize / 72
+    return min(0.5, max(0.1, inches / fig_width))
+
+
+def finish_axes(ax: Axes, grid_axis: str = "both") -> None:
+    """Our axes look: thin dark frame, outward ticks, major-only light grid below the data."""
+    ax.set_facecolor(AXES_FACE)
+    for spine in ax.spines.values():
+        spine.set_color(INK)
+        spine.set_linewidth(0.7)
+    ax.tick_params(which="both", colors=INK, labelsize=8, direction="out", width=0.6)
+    ax.tick_params(which="minor", length=2)
+    if grid_axis:
+        ax.grid(True, which="major", axis=grid_axis, color=GRID, linewidth=0.6)
+    ax.set_axisbelow(True)
+
+
+def unit_label(name: str, unit: str | u.UnitBase) -> str:
+    """An axis label with its unit written as readers write it: ``Mass (M⊙)``."""
+    text = unit_text(unit)
+    return f"{name} ({text})" if text else name
+
+
+def as_value(x: float | u.Quantity, unit: u.UnitBase) -> float:
+    """A plain float in ``unit``; a float is taken to be in ``unit`` already."""
+    return float(x.to_value(unit)) if isinstance(x, u.Quantity) else float(x)

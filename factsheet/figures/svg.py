@@ -1,0 +1,30 @@
+"""SVG output that is byte-identical across runs and processes, and carries no links or dates."""
+
+from __future__ import annotations
+
+import io
+import re
+
+import matplotlib
+from matplotlib.figure import Figure
+
+from factsheet.figures.style import RC
+
+# What matplotlib writes before the drawing that we do not want: the DTD reference (a URL) and
+# the RDF metadata block (namespace URLs and, unless suppressed, a date and a version).
+_DOCTYPE = re.compile(rb"<!DOCTYPE svg[^>]*>\s*")
+_METADATA = re.compile(rb"\s*<metadata>.*?</metadata>", re.S)
+_NO_METADATA = {"Date": None, "Creator": None, "Type": None, "Format": None}
+
+
+def to_svg(figure: Figure, close: bool = True) -> bytes:
+    """The figure as SVG bytes (fixed hash salt, no date or creator); clears it when ``close``."""
+    buffer = io.BytesIO()
+    with matplotlib.rc_context(RC):
+        figure.savefig(
+            buffer, format="svg", facecolor=figure.get_facecolor(), metadata=_NO_METADATA
+        )
+    if close:
+        figure.clear()
+    data = _DOCTYPE.sub(b"", buffer.getvalue(), count=1)
+    return _METADATA.sub(b"", data, count=1)
