@@ -1,23 +1,34 @@
-"""The build, stage by stage: load, select, derive, render, publish.
+"""The build, stage by stage: load, select, derive and draw (per event, cached, in parallel),
+render, publish.
 
-Everything is loaded, checked, derived and rendered in memory before anything is written, and
-the site is swapped in whole at the end.
+Everything is loaded and checked before any work starts; each event's bundle (derived numbers,
+figures, sound) comes from the cache when its inputs are unchanged, else from a worker; pages
+are rendered from the bundles and the new site is swapped in whole at the end.
 """
 
 from __future__ import annotations
 
+import json
+import multiprocessing
 import os
+import sys
 import time as clock
+from concurrent.futures import ProcessPoolExecutor
 from dataclasses import dataclass
 from pathlib import Path
 
 from astropy.time import Time
 
-from factsheet.derive import Derived, derive_event
+from factsheet import site_figures
+from factsheet.assets import EventBundle, event_bundle
+from factsheet.cache import Cache, cached_files, content_key, event_key
+from factsheet.derive import reference_for
+from factsheet.errors import BuildError, Problem
 from factsheet.load import load_catalogue
-from factsheet.model import Catalogue, Event
-from factsheet.publish import publish
-from factsheet.render import render_site
+from factsheet.model import Catalogue, Event, Settings
+from factsheet.publish import Staging
+from factsheet.reference import Reference
+from factsheet.render import plane_edges, render_site
 
 AUDIENCES = ("public", "internal")
 
@@ -27,9 +38,11 @@ class BuildReport:
     """What a build did, for the one-line summary."""
 
     built: int
+    reused: int
     withheld_internal: int
     withheld_embargo: int
     seconds: float
+    figure_seconds: float
     out: Path
 
 
@@ -44,23 +57,95 @@ def select_events(catalogue: Catalogue, audience: str, now: Time) -> tuple[list[
     if audience == "internal":
         return list(catalogue.events), 0, 0
     internal = [e for e in catalogue.events if e.visibility == "internal"]
-    embargoed = [
-        e
-        for e in catalogue.events
-        if e.visibility != "internal" and e.embargo_until is not None and e.embargo_until > now
-    ]
+    embargoed = [e for e in catalogue.events if e.visibility != "internal"
+                 and e.embargo_until is not None and e.embargo_until > now]
     hidden = {e.id for e in internal + embargoed}
     return [e for e in catalogue.events if e.id not in hidden], len(internal), len(embargoed)
 
 
-def build(
-    catalogue_dir: str | Path, out: str | Path, audience: str = "public", force: bool = False
-) -> BuildReport:
+def build(catalogue_dir: str | Path, out: str | Path, audience: str = "public",
+          force: bool = False, jobs: int | None = None, progress: bool = False) -> BuildReport:
     """Build the site for ``catalogue_dir`` into ``out``."""
-    start = clock.perf_counter()
+    start, out = clock.perf_counter(), Path(out)
     catalogue = load_catalogue(catalogue_dir)
     events, internal, embargoed = select_events(catalogue, audience, build_time())
-    derived: list[Derived] = [derive_event(e, catalogue.settings) for e in events]
-    site = render_site(derived, catalogue.settings, audience)
-    publish(site, Path(out), force=force)
-    return BuildReport(len(derived), internal, embargoed, clock.perf_counter() - start, Path(out))
+    settings, cache = catalogue.settings, Cache(out)
+    with Staging(out, force) as staging:
+        bundles, made = make_bundles(events, settings, cache, jobs or os.cpu_count() or 1,
+                                     progress)
+        for bundle, event in zip(bundles, events, strict=True):
+            for name, path in cache.files(event_key(event, settings)):
+                staging.link(name, path)
+        index = _index_figures(bundles, settings, cache)
+        for name, content in render_site(bundles, settings, audience, index).files.items():
+            staging.write(name, content)
+        staging.commit()
+    cache.prune()
+    figure_seconds = sum(b.figure_seconds for b in made) + sum(f.seconds for f in index)
+    return BuildReport(len(bundles), len(bundles) - len(made), internal, embargoed,
+                       clock.perf_counter() - start, figure_seconds, out)
+
+
+def make_bundles(events: list[Event], settings: Settings, cache: Cache, jobs: int,
+                 progress: bool) -> tuple[list[EventBundle], list[EventBundle]]:
+    """Every event's bundle, from the cache or made afresh; also the freshly made ones."""
+    keys = [event_key(e, settings) for e in events]
+    bundles: list[EventBundle | None] = [cache.load(k) for k in keys]
+    todo = [i for i, b in enumerate(bundles) if b is None]
+    reference = reference_for(settings)
+    made, failures = [], []
+    for done, (i, result) in enumerate(_run(todo, events, settings, reference, jobs), 1):
+        if isinstance(result, BaseException):
+            failures.append(Problem(events[i].source, events[i].line, events[i].id,
+                                    f"could not derive this event: {result}"))
+            continue
+        bundles[i] = cache.store(keys[i], result)  # drops the file bytes from memory
+        made.append(bundles[i])
+        if progress:
+            print(f"\r  {done}/{len(todo)} events derived and drawn", end="", file=sys.stderr)
+    if progress and todo:
+        print(file=sys.stderr)
+    if failures:
+        raise BuildError(problems=failures)
+    return [b for b in bundles if b is not None], made
+
+
+def _work(args: tuple[Event, Settings, Reference]) -> EventBundle | BaseException:
+    try:
+        return event_bundle(*args)
+    except Exception as exc:  # reported per event by the caller, nothing is published
+        return exc
+
+
+def _run(todo: list[int], events: list[Event], settings: Settings, reference: Reference,
+         jobs: int):
+    """Yield (index, bundle or exception) for each event to make, in input order."""
+    tasks = [(events[i], settings, reference) for i in todo]
+    if jobs <= 1 or len(todo) <= 1:
+        yield from zip(todo, map(_work, tasks), strict=True)
+        return
+    context = multiprocessing.get_context("fork" if sys.platform == "linux" else "spawn")
+    with ProcessPoolExecutor(max_workers=min(jobs, len(todo)), mp_context=context) as pool:
+        yield from zip(todo, pool.map(_work, tasks, chunksize=1), strict=True)
+
+
+def _index_figures(bundles: list[EventBundle], settings: Settings, cache: Cache):
+    derived = [b.derived for b in bundles]
+    edges = plane_edges(settings)
+    key = content_key("index", edges, [(d.event.id, d.event.status, d.source_class,
+                                        d.quantities["mass_1"], d.quantities["mass_2"],
+                                        d.quantities["luminosity_distance"],
+                                        d.quantities["total_mass"]) for d in derived])
+    stored: dict[str, site_figures.SiteFigure] = {}
+
+    def make() -> dict[str, bytes]:
+        for fig in site_figures.index_figures(derived, edges):
+            stored[fig.path] = fig
+        meta = [[f.path, f.alt, f.caption] for f in stored.values()]
+        return {**{f.path: f.svg for f in stored.values()}, "index.json": json.dumps(meta).encode()}
+
+    files = cached_files(cache, key, make)
+    if stored:
+        return list(stored.values())
+    rows = json.loads(files["index.json"])
+    return [site_figures.SiteFigure(p, files[p], alt, cap) for p, alt, cap in rows]

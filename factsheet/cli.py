@@ -64,12 +64,24 @@ def make_parser() -> argparse.ArgumentParser:
         default="public",
         help="public leaves out internal and embargoed items (default: public)",
     )
+    b.add_argument("-j", "--jobs", type=_positive, default=None,
+                   help="worker processes (default: the number of CPUs)")
     b.add_argument(
         "--force",
         action="store_true",
         help="replace the output folder even if factsheet did not make it",
     )
     b.set_defaults(run=run_build)
+
+    v = sub.add_parser("serve", help="preview the site on 127.0.0.1, rebuilding on change",
+                       description="Build, serve on 127.0.0.1 and rebuild when the catalogue "
+                       "changes; the page reloads itself after each rebuild.")
+    _catalogue_arg(v)
+    v.add_argument("-o", "--out", type=Path, default=DEFAULT_OUT, help="output folder")
+    v.add_argument("-p", "--port", type=int, default=8000, help="port (default 8000; 0: any)")
+    v.add_argument("--audience", choices=("public", "internal"), default="internal",
+                   help="audience of the preview (default: internal)")
+    v.set_defaults(run=run_serve)
 
     c = sub.add_parser(
         "check",
@@ -90,6 +102,13 @@ def make_parser() -> argparse.ArgumentParser:
     return parser
 
 
+def _positive(text: str) -> int:
+    value = int(text)
+    if value < 1:
+        raise argparse.ArgumentTypeError("must be at least 1")
+    return value
+
+
 def _catalogue_arg(parser: argparse.ArgumentParser) -> None:
     parser.add_argument(
         "catalogue",
@@ -102,14 +121,26 @@ def _catalogue_arg(parser: argparse.ArgumentParser) -> None:
 def run_build(args: argparse.Namespace) -> int:
     from factsheet.build import build
 
-    report = build(args.catalogue or demo_dir(), args.out, args.audience, args.force)
-    withheld = report.withheld_internal + report.withheld_embargo
-    note = (
-        f"; withheld {report.withheld_internal} internal and {report.withheld_embargo} embargoed"
-        if withheld
-        else ""
-    )
-    print(f"built {report.built} fact sheets into {report.out}/ in {report.seconds:.1f} s{note}")
+    report = build(args.catalogue or demo_dir(), args.out, args.audience, args.force,
+                   jobs=args.jobs, progress=sys.stderr.isatty())
+    print(summary_line(report))
+    return 0
+
+
+def summary_line(report) -> str:
+    """One line: events built and reused, what was withheld, where and how long."""
+    line = (f"built {report.built} fact sheets ({report.built - report.reused} derived, "
+            f"{report.reused} reused) into {report.out}/ in {report.seconds:.1f} s")
+    if report.withheld_internal or report.withheld_embargo:
+        line += (f"; withheld {report.withheld_internal} internal and "
+                 f"{report.withheld_embargo} embargoed")
+    return line
+
+
+def run_serve(args: argparse.Namespace) -> int:
+    from factsheet.serve import serve
+
+    serve(args.catalogue or demo_dir(), args.out, args.port, args.audience)
     return 0
 
 

@@ -151,10 +151,12 @@ FLAG_BANDS = {"lower_gap": "lower gap", "pair_instability_gap": "pair-instabilit
 
 
 def band_flags(item: Derived, threshold: float = 0.5) -> list[str]:
-    """Short labels for notable bands any body is more likely than not to be in."""
+    """Short labels for notable bands a component (or, for intermediate mass, the remnant) is
+    more likely than not to be in."""
     flags = []
     for band, label in FLAG_BANDS.items():
-        if any(p.get(band, 0) > threshold for p in item.mass_bands.values()) and label not in flags:
+        bodies = ("final_mass",) if band == "intermediate_mass" else ("mass_1", "mass_2")
+        if any(item.mass_bands.get(b, {}).get(band, 0) > threshold for b in bodies):
             flags.append(label)
     return flags
 

@@ -1,9 +1,9 @@
-"""Publish stage: write the rendered site into a temporary folder, then swap it in.
+"""Publish stage: write the new site into a staging folder beside the output, then swap it in.
 
-The new site is written beside the output folder and exchanged with the old one in a single
-``renameat2(RENAME_EXCHANGE)`` call on Linux (two renames elsewhere, with recovery on the next
-run), so an interrupted or failed build never leaves a half-written site. A folder that factsheet
-did not make is never replaced unless the caller forces it.
+The staging folder is exchanged with the old output in a single ``renameat2(RENAME_EXCHANGE)``
+call on Linux (two renames elsewhere, with recovery on the next run), so an interrupted or
+failed build never leaves a half-written site. A folder that factsheet did not make is never
+replaced unless the caller forces it.
 """
 
 from __future__ import annotations
@@ -15,7 +15,6 @@ import tempfile
 from pathlib import Path, PurePosixPath
 
 from factsheet.errors import BuildError
-from factsheet.render import Site
 
 MARKER = ".factsheet-site"
 PLACEHOLDER = "README.txt"
@@ -26,35 +25,62 @@ PLACEHOLDER_TEXT = (
 _RENAME_EXCHANGE = 2
 
 
-def publish(site: Site, out: Path, force: bool = False) -> None:
-    """Write ``site`` to ``out`` atomically; refuse to replace a folder we did not make."""
-    out = Path(out)
-    out.parent.mkdir(parents=True, exist_ok=True)
-    recover(out)
-    if not force and not replaceable(out):
-        raise BuildError(
-            f"{out}: refusing to replace a folder that factsheet did not make "
-            "(choose another output folder, or pass --force)"
-        )
-    staging = Path(tempfile.mkdtemp(prefix=".factsheet-new-", dir=out.parent))
-    try:
-        write_tree(site, staging)
-        _swap_in(staging, out)
-    except BaseException:
-        shutil.rmtree(staging, ignore_errors=True)
-        raise
+class Staging:
+    """A new site being written beside ``out``; :meth:`commit` swaps it in whole.
 
+    Used as a context manager, an exception (or interruption) before the commit removes the
+    staging folder and leaves ``out`` untouched.
+    """
 
-def write_tree(site: Site, folder: Path) -> None:
-    """Write every file of ``site`` under ``folder``, refusing paths that would leave it."""
-    files = dict(site.files)
-    files.setdefault(PLACEHOLDER, PLACEHOLDER_TEXT.encode())
-    files[MARKER] = b"made by factsheet\n"
-    for name, content in sorted(files.items()):
-        target = folder / _safe_relative(name)
+    def __init__(self, out: Path, force: bool = False):
+        self.out = Path(out)
+        self.out.parent.mkdir(parents=True, exist_ok=True)
+        recover(self.out)
+        if not force and not replaceable(self.out):
+            raise BuildError(f"{self.out}: refusing to replace a folder that factsheet did not "
+                             "make (choose another output folder, or pass --force)")
+        self.folder = Path(tempfile.mkdtemp(prefix=".factsheet-new-", dir=self.out.parent))
+        self.committed = False
+
+    def write(self, name: str, content: bytes) -> None:
+        target = self.folder / _safe_relative(name)
         target.parent.mkdir(parents=True, exist_ok=True)
         target.write_bytes(content)
-    folder.chmod(0o755)
+
+    def link(self, name: str, source: Path) -> None:
+        """Place an existing file (from the build cache) at ``name``: hard link, else copy."""
+        target = self.folder / _safe_relative(name)
+        target.parent.mkdir(parents=True, exist_ok=True)
+        try:
+            os.link(source, target)
+        except OSError:
+            shutil.copyfile(source, target)
+
+    def commit(self) -> None:
+        if not (self.folder / PLACEHOLDER).exists():
+            self.write(PLACEHOLDER, PLACEHOLDER_TEXT.encode())
+        self.write(MARKER, b"made by factsheet\n")
+        self.folder.chmod(0o755)
+        _swap_in(self.folder, self.out)
+        self.committed = True
+
+    def abort(self) -> None:
+        if not self.committed:
+            shutil.rmtree(self.folder, ignore_errors=True)
+
+    def __enter__(self) -> Staging:
+        return self
+
+    def __exit__(self, *exc) -> None:
+        self.abort()
+
+
+def publish(files: dict[str, bytes], out: Path, force: bool = False) -> None:
+    """Write ``files`` (site path to bytes) to ``out`` atomically."""
+    with Staging(out, force) as staging:
+        for name, content in sorted(files.items()):
+            staging.write(name, content)
+        staging.commit()
 
 
 def _safe_relative(name: str) -> PurePosixPath:

@@ -12,15 +12,15 @@ import json
 import posixpath
 from dataclasses import dataclass, field
 
-import astropy.units as u
 import jinja2
 import markdown as md
 import nh3
 from markupsafe import Markup
 
-from factsheet import export, pages, site_figures
-from factsheet.audio import chirp_wav
+from factsheet import export, feed, pages, tables
+from factsheet.assets import EventBundle
 from factsheet.derive import Derived, reference_for
+from factsheet.site_figures import SiteFigure
 from factsheet.formatting import format_interval, format_value, unit_text
 from factsheet.model import Settings
 from factsheet.resources import templates_dir
@@ -108,54 +108,49 @@ def plane_edges(item_or_settings: Settings) -> dict[str, float]:
             "pair_instability_max": bands.pair_instability_upper.value.to_value("solMass")}
 
 
-def render_site(derived: list[Derived], settings: Settings, audience: str = "public") -> Site:
-    """Every page, figure and export of the catalogue, in memory."""
+def render_site(bundles: list[EventBundle], settings: Settings, audience: str = "public",
+                index_figures: list[SiteFigure] = ()) -> Site:
+    """Every page and export of the catalogue, in memory (event assets are placed separately)."""
     env = make_environment()
     site = Site()
+    derived = [b.derived for b in bundles]
     common = {"settings": settings, "catalogue_title": settings.title, "audience": audience}
-    figures = site_figures.index_figures(derived, plane_edges(settings))
-    for fig in figures:
+    for fig in index_figures:
         site.add(fig.path, fig.svg)
     rows = [export.event_row(d) for d in derived]
     site.add("index.html", env.get_template("index.html").render(
         page_path="index.html", rows=rows, description=settings.description,
-        index_figures=figures, **common))
-    for i, item in enumerate(derived):
+        index_figures=index_figures, **common))
+    for i, bundle in enumerate(bundles):
         neighbours = (derived[i - 1] if i else None,
                       derived[i + 1] if i + 1 < len(derived) else None)
-        render_event(env, site, item, *neighbours, common)
+        render_event(env, site, bundle, *neighbours, common)
     site.add("methods.html", env.get_template("methods.html").render(
         page_path="methods.html", **pages.methods_context(derived, reference_for(settings)),
         **common))
+    entries = feed.change_entries(derived)
+    site.add("changes.html", env.get_template("changes.html").render(
+        page_path="changes.html", entries=entries, **common))
+    site.add("feed.xml", feed.atom_feed(entries, settings))
+    table = tables.catalogue_table(derived)
+    site.add("data/catalogue.ecsv", tables.write_ecsv(table))
+    site.add("data/catalogue.csv", tables.write_csv(table))
     for path in sorted(p for p in (templates_dir() / "static").rglob("*") if p.is_file()):
         site.add(f"static/{path.relative_to(templates_dir() / 'static').as_posix()}",
                  path.read_bytes())
     return site
 
 
-def render_event(env: jinja2.Environment, site: Site, item: Derived, previous: Derived | None,
-                 following: Derived | None, common: dict) -> None:
-    """The sheet of one event, its figures, its sound and its JSON."""
+def render_event(env: jinja2.Environment, site: Site, bundle: EventBundle,
+                 previous: Derived | None, following: Derived | None, common: dict) -> None:
+    """The sheet of one event and its JSON (its figures and sound are made in assets)."""
+    item = bundle.derived
     page = f"events/{item.event.id}.html"
-    figures = site_figures.event_figures(item)
-    for fig in figures:
-        site.add(fig.path, fig.svg)
-    chirp = _chirp(item)
-    site.add(f"events/{item.event.id}.wav", chirp.wav)
     context = export.event_context(item, previous, following)
     site.add(page, env.get_template("event.html").render(
-        page_path=page, figures=figures, headline=pages.headline(item),
-        history=pages.history_steps(item), audio={"path": f"events/{item.event.id}.wav",
-                                                  "description": chirp.description},
+        page_path=page, figures=bundle.figures, headline=pages.headline(item),
+        history=pages.history_steps(item),
+        audio={"path": bundle.audio_path, "description": bundle.audio_description},
         **context, **common))
     site.add(f"data/{item.event.id}.json",
              json.dumps(export.event_json(item), indent=2, sort_keys=False) + "\n")
-
-
-def _chirp(item: Derived):
-    q = item.quantities
-    ring, damp = q.get("ringdown_frequency"), q.get("ringdown_damping_time")
-    f_low = item.settings.low_frequency
-    f_merger = max(q["isco_frequency"].median * u.Hz, f_low * 1.5)
-    return chirp_wav(q["chirp_mass_detector"].median * u.Msun, f_low, f_merger,
-                     ring.median * u.Hz if ring else None, damp.median * u.s if damp else None)

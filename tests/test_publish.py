@@ -4,14 +4,11 @@ import pytest
 
 from factsheet.errors import BuildError
 from factsheet.publish import MARKER, PLACEHOLDER, PLACEHOLDER_TEXT, publish, replaceable
-from factsheet.render import Site
 
 
 def site(**files):
-    s = Site()
-    for name, text in files.items():
-        s.add(name.replace("__", "/"), text)
-    return s
+    """Site files from keyword arguments; a double underscore stands for a slash."""
+    return {name.replace("__", "/"): text.encode() for name, text in files.items()}
 
 
 def test_publish_replaces_an_earlier_site(tmp_path):

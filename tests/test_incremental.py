@@ -1,0 +1,94 @@
+"""Incremental, parallel and reproducible builds (the build cache and --jobs)."""
+
+import hashlib
+import shutil
+from pathlib import Path
+
+import pytest
+from helpers import VALID_EVENT, write_catalogue
+
+from factsheet import render
+from factsheet.build import build
+
+
+def event(event_id: str, mass: str = "36 +5 -4 Msun", extra: str = "") -> str:
+    return VALID_EVENT.replace("id: TEST-1", f"id: {event_id}").replace(
+        "36 +5 -4 Msun", mass) + extra
+
+
+def hashes(folder: Path) -> dict[str, str]:
+    return {p.relative_to(folder).as_posix(): hashlib.sha256(p.read_bytes()).hexdigest()
+            for p in sorted(folder.rglob("*")) if p.is_file()}
+
+
+@pytest.fixture
+def cat(tmp_path):
+    (tmp_path / "cat").mkdir()
+    (tmp_path / "cat" / "s.csv").write_text(
+        "mass_1 [Msun],mass_2 [Msun],luminosity_distance [Mpc]\n30,20,400\n32,21,450\n31,19,500\n")
+    return write_catalogue(tmp_path / "cat", {
+        "a.yaml": event("A-1"), "b.yaml": event("B-2", "40 +5 -4 Msun"),
+        "c.yaml": event("C-3", extra="samples: s.csv\n")})
+
+
+def test_two_builds_are_byte_identical_and_jobs_do_not_matter(cat, tmp_path):
+    first = build(cat, tmp_path / "one", jobs=1)
+    assert first.reused == 0
+    build(cat, tmp_path / "two", jobs=2)
+    assert hashes(tmp_path / "one") == hashes(tmp_path / "two")
+    again = build(cat, tmp_path / "one", jobs=1)
+    assert again.reused == 3
+    assert hashes(tmp_path / "one") == hashes(tmp_path / "two")
+
+
+def test_editing_one_event_rebuilds_only_it(cat, tmp_path):
+    out = tmp_path / "site"
+    build(cat, out, jobs=1)
+    before = hashes(out)
+    (cat / "b.yaml").write_text(event("B-2", "41 +5 -4 Msun"))
+    report = build(cat, out, jobs=1)
+    assert report.reused == 2 and report.built == 3
+    after = hashes(out)
+    changed = {k for k in before if before[k] != after.get(k)}
+    assert "data/B-2.json" in changed and "data/A-1.json" not in changed
+    assert not any(k.startswith("events/A-1") for k in changed)
+
+
+def test_editing_the_samples_file_rebuilds_its_event(cat, tmp_path):
+    out = tmp_path / "site"
+    build(cat, out, jobs=1)
+    with (cat / "s.csv").open("a") as handle:
+        handle.write("33,22,480\n")
+    assert build(cat, out, jobs=1).reused == 2
+
+
+def test_settings_change_rebuilds_everything(cat, tmp_path):
+    out = tmp_path / "site"
+    build(cat, out, jobs=1)
+    (cat / "catalogue.yaml").write_text("low_frequency: 15 Hz\n")
+    assert build(cat, out, jobs=1).reused == 0
+    (cat / "catalogue.yaml").write_text("low_frequency: 15 Hz\ntitle: Renamed\n")
+    report = build(cat, out, jobs=1)  # the title shapes pages only, not the numbers
+    assert report.reused == 3 and "Renamed" in (out / "index.html").read_text()
+
+
+def test_template_change_reaches_the_pages(cat, tmp_path, monkeypatch):
+    out = tmp_path / "site"
+    build(cat, out, jobs=1)
+    templates = tmp_path / "templates"
+    shutil.copytree(render.templates_dir(), templates)
+    page = templates / "event.html"
+    page.write_text(page.read_text().replace("All events", "Every event"))
+    monkeypatch.setattr(render, "templates_dir", lambda: templates)
+    report = build(cat, out, jobs=1)
+    assert report.reused == 3
+    assert "Every event" in (out / "events" / "A-1.html").read_text()
+
+
+def test_deleting_the_cache_gives_the_same_site(cat, tmp_path):
+    out = tmp_path / "site"
+    build(cat, out, jobs=1)
+    before = hashes(out)
+    shutil.rmtree(tmp_path / ".factsheet-cache-site")
+    assert build(cat, out, jobs=1).reused == 0
+    assert hashes(out) == before
