@@ -1,0 +1,240 @@
+"""The built demo site in a real headless chromium, over http and from file:// (DESIGN.md 5).
+
+Checks what only a browser can: no console errors under the page's content policy, every image
+decodes, no request leaves 127.0.0.1, the index table sorts and filters, audio is playable. The
+launch arguments are the ones TESTING.md ("Real-browser tests") records as working here.
+"""
+
+from __future__ import annotations
+
+import shutil
+import socket
+import subprocess
+import sys
+import time
+from pathlib import Path
+from urllib.parse import urlsplit
+
+import pytest
+
+from factsheet.build import build
+from factsheet.resources import demo_dir
+
+pytestmark = pytest.mark.browser
+
+CHROMIUM = Path("/usr/bin/chromium")
+CHROMIUM_ARGS = [
+    "--headless",
+    "--no-sandbox",
+    "--disable-gpu",
+    "--disable-quic",
+    "--no-first-run",
+    "--disable-background-networking",
+    "--disable-component-update",
+    "--disable-sync",
+]
+SHEETS = ("events/MER34-001.html", "events/MER34-006.html", "events/MER34-007.html")
+PAGES = ("index.html", *SHEETS)
+WIDTHS = {"laptop": 1280, "phone": 390}
+ARTIFACTS = Path(__file__).resolve().parents[1] / "test-artifacts"
+ROW_IDS = (
+    "Array.from(document.querySelectorAll('#catalogue tbody tr')).map(r => r.cells[0].dataset.sort)"
+)
+SHOWN = "document.querySelectorAll('#catalogue tbody tr:not([hidden])').length"
+COUNT = "document.querySelector('.table-controls .count').textContent"
+
+
+@pytest.fixture(scope="module")
+def site(tmp_path_factory) -> Path:
+    out = tmp_path_factory.mktemp("browser") / "site"
+    build(demo_dir(), out)
+    return out
+
+
+def free_port() -> int:
+    with socket.socket() as s:
+        s.bind(("127.0.0.1", 0))
+        return s.getsockname()[1]
+
+
+def wait_for_port(port: int, proc: subprocess.Popen) -> None:
+    """Poll until the server accepts a connection (or fail if it died)."""
+    for _ in range(200):
+        if proc.poll() is not None:
+            pytest.fail(f"http.server exited with code {proc.returncode}")
+        try:
+            socket.create_connection(("127.0.0.1", port), timeout=0.5).close()
+            return
+        except OSError:
+            time.sleep(0.05)
+    pytest.fail(f"http.server did not accept connections on port {port}")
+
+
+@pytest.fixture(scope="module")
+def http_root(site: Path):
+    port = free_port()
+    cmd = [sys.executable, "-m", "http.server", str(port), "--bind", "127.0.0.1"]
+    proc = subprocess.Popen(
+        [*cmd, "--directory", str(site)], stdout=subprocess.DEVNULL, stderr=subprocess.DEVNULL
+    )
+    try:
+        wait_for_port(port, proc)
+        yield f"http://127.0.0.1:{port}/"
+    finally:
+        proc.terminate()
+        proc.wait(timeout=10)
+
+
+@pytest.fixture(scope="module")
+def browser():
+    if not CHROMIUM.exists() and not shutil.which("chromium"):
+        pytest.fail(
+            "chromium is missing: install the system package (apt-get install -y "
+            "chromium); the browser tests never download a browser"
+        )
+    try:
+        from playwright.sync_api import sync_playwright
+    except ImportError:
+        pytest.fail("the playwright Python package is missing: pip install -e '.[test]'")
+    with sync_playwright() as p:
+        chromium = p.chromium.launch(executable_path=str(CHROMIUM), args=CHROMIUM_ARGS)
+        yield chromium
+        chromium.close()
+
+
+@pytest.fixture(params=["http", "file"])
+def root(request, site: Path) -> str:
+    return request.getfixturevalue("http_root") if request.param == "http" else site.as_uri() + "/"
+
+
+class Visit:
+    """One page loaded in a fresh context, with its console errors and requests recorded."""
+
+    def __init__(self, browser, url: str, width: int = 1280, scripts: bool = True):
+        self.context = browser.new_context(
+            viewport={"width": width, "height": 900}, java_script_enabled=scripts
+        )
+        self.page = self.context.new_page()
+        self.page.set_default_timeout(15_000)
+        self.errors: list[str] = []
+        self.requests: list[str] = []
+        self.page.on("console", lambda m: m.type == "error" and self.errors.append(m.text))
+        self.page.on("pageerror", lambda e: self.errors.append(str(e)))
+        self.page.on("request", lambda r: self.requests.append(r.url))
+        self.page.on("requestfailed", self.failed)
+        self.page.goto(url, wait_until="load")
+
+    def failed(self, request) -> None:
+        # A media element stops its download once it has what it needs (net::ERR_ABORTED).
+        if not (request.resource_type == "media" and "ERR_ABORTED" in (request.failure or "")):
+            self.errors.append(f"failed: {request.url} {request.failure}")
+
+    def close(self) -> None:
+        self.context.close()
+
+
+@pytest.fixture
+def visit(browser):
+    opened: list[Visit] = []
+
+    def open_(url: str, **kwargs) -> Visit:
+        opened.append(Visit(browser, url, **kwargs))
+        return opened[-1]
+
+    yield open_
+    for v in opened:
+        v.close()
+
+
+def foreign(requests: list[str]) -> list[str]:
+    """Requests to anything but 127.0.0.1 or the local file system (data: URLs are inline)."""
+    local = {"file", "data"}
+    return [
+        u
+        for u in requests
+        if urlsplit(u).scheme not in local and urlsplit(u).hostname != "127.0.0.1"
+    ]
+
+
+@pytest.mark.parametrize("path", PAGES)
+def test_page_loads_clean(visit, root, path):
+    v = visit(root + path)
+    assert v.errors == []
+    assert foreign(v.requests) == []
+    assert v.requests[0] == root + path
+    images = v.page.eval_on_selector_all("img", "els => els.map(e => [e.src, e.naturalWidth])")
+    assert [src for src, width in images if width == 0] == []
+    assert v.page.title()
+
+
+def test_index_sorts_by_header(visit, root):
+    v = visit(root + "index.html")
+    before = v.page.evaluate(ROW_IDS)
+    header = v.page.locator("#catalogue thead th").nth(3)
+    header.get_by_role("button").click()
+    assert header.get_attribute("aria-sort") == "ascending"
+    keys = v.page.eval_on_selector_all(
+        "#catalogue tbody tr td:nth-child(4)", "tds => tds.map(td => Number(td.dataset.sort))"
+    )
+    assert keys == sorted(keys) and v.page.evaluate(ROW_IDS) != before
+    header.get_by_role("button").press("Enter")  # keyboard: a real button, Enter toggles
+    assert header.get_attribute("aria-sort") == "descending"
+    keys = v.page.eval_on_selector_all(
+        "#catalogue tbody tr td:nth-child(4)", "tds => tds.map(td => Number(td.dataset.sort))"
+    )
+    assert keys == sorted(keys, reverse=True)
+    assert v.errors == []
+
+
+def test_index_filters_and_counts(visit, root):
+    v = visit(root + "index.html")
+    total = v.page.evaluate(SHOWN)
+    assert v.page.evaluate(COUNT) == f"{total} of {total} events shown"
+    assert v.page.get_attribute(".table-controls .count", "aria-live") == "polite"
+    v.page.get_by_label("Filter", exact=True).fill("MER34-006")
+    assert v.page.evaluate(SHOWN) == 1
+    assert v.page.evaluate(COUNT) == f"1 of {total} events shown"
+    v.page.get_by_label("Filter", exact=True).fill("")
+    v.page.get_by_label("Status", exact=True).select_option("retracted")
+    shown = v.page.evaluate(SHOWN)
+    assert 0 < shown < total
+    assert v.page.evaluate(COUNT) == f"{shown} of {total} events shown"
+    assert v.errors == []
+
+
+def test_index_readable_without_scripts(visit, http_root, site):
+    v = visit(http_root + "index.html", scripts=False)
+    rows = v.page.locator("#catalogue tbody tr")
+    assert rows.count() == len(list((site / "events").glob("*.html")))
+    assert v.page.locator(".table-controls").count() == 0
+    assert rows.first.locator("a").get_attribute("href").startswith("events/")
+
+
+@pytest.mark.parametrize("path", SHEETS)
+def test_audio_is_playable(visit, http_root, path):
+    v = visit(http_root + path)
+    for index in range(v.page.locator("audio").count()):
+        audio = v.page.locator("audio").nth(index)
+        assert audio.evaluate("a => a.canPlayType('audio/wav')") != ""
+        src = audio.evaluate("a => a.currentSrc || a.querySelector('source').src")
+        response = v.context.request.get(src)
+        assert response.status == 200
+        assert response.body()[:4] == b"RIFF"
+        metadata = audio.evaluate("""a => new Promise(done => {
+            a.addEventListener('loadedmetadata', () => done(a.duration), {once: true});
+            a.addEventListener('error', () => done(-1), {once: true});
+            a.preload = 'metadata'; a.load(); })""")
+        assert metadata > 0
+    assert v.errors == []
+
+
+@pytest.mark.parametrize("name,width", WIDTHS.items())
+def test_screenshots(visit, http_root, name, width):
+    ARTIFACTS.mkdir(exist_ok=True)
+    for path in ("index.html", SHEETS[1]):
+        v = visit(http_root + path, width=width)
+        target = ARTIFACTS / f"{Path(path).stem}-{name}.png"
+        v.page.screenshot(path=str(target), full_page=True)
+        assert target.stat().st_size > 0
+    v = visit(http_root + "index.html", width=width)  # wide tables scroll inside their wrapper
+    assert v.page.evaluate("document.documentElement.scrollWidth") <= width
