@@ -27,8 +27,9 @@ from factsheet.load import load_event, load_settings
 from factsheet.model import Settings
 
 
-def derive(event: str | Path | dict[str, Any], settings: Settings | str | Path | None = None
-           ) -> Derived:
+def derive(
+    event: str | Path | dict[str, Any], settings: Settings | str | Path | None = None
+) -> Derived:
     """Derive one event from a YAML file path or a mapping with the event keys.
 
     ``settings`` is a :class:`~factsheet.model.Settings`, a path to a ``catalogue.yaml``, or

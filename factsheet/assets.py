@@ -53,8 +53,9 @@ def event_bundle(event: Event, settings: Settings, reference: Reference) -> Even
     files[audio_path] = chirp.wav
     item.samples = {}  # the pages need only the summaries
     figures = [FigureInfo(f.path, f.alt, f.caption) for f in drawn]
-    return EventBundle(item, figures, audio_path, chirp.description, files,
-                       sum(f.seconds for f in drawn))
+    return EventBundle(
+        item, figures, audio_path, chirp.description, files, sum(f.seconds for f in drawn)
+    )
 
 
 def _chirp(item: Derived):
@@ -62,5 +63,10 @@ def _chirp(item: Derived):
     ring, damp = q.get("ringdown_frequency"), q.get("ringdown_damping_time")
     f_low = item.settings.low_frequency
     f_merger = max(q["isco_frequency"].median * u.Hz, f_low * 1.5)
-    return chirp_wav(q["chirp_mass_detector"].median * u.Msun, f_low, f_merger,
-                     ring.median * u.Hz if ring else None, damp.median * u.s if damp else None)
+    return chirp_wav(
+        q["chirp_mass_detector"].median * u.Msun,
+        f_low,
+        f_merger,
+        ring.median * u.Hz if ring else None,
+        damp.median * u.s if damp else None,
+    )

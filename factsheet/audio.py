@@ -62,8 +62,11 @@ def chirp_wav(
     f0, fm = _scalar(f_low, "frequency", "f_low"), _scalar(f_merger, "frequency", "f_merger")
     has_ringdown = f_ringdown is not None and tau_ringdown is not None
     frd = _scalar(f_ringdown, "frequency", "f_ringdown") if has_ringdown else fm
-    taurd = (_scalar(tau_ringdown, "time", "tau_ringdown") if has_ringdown
-             else MIN_RINGDOWN_DAMPING.to_value(u.s) / 3)
+    taurd = (
+        _scalar(tau_ringdown, "time", "tau_ringdown")
+        if has_ringdown
+        else MIN_RINGDOWN_DAMPING.to_value(u.s) / 3
+    )
     if f0 >= fm:
         raise ValueError(f"f_low ({f0:g} Hz) must lie below f_merger ({fm:g} Hz)")
     if int(sample_rate) != sample_rate or sample_rate < 8000:
@@ -85,7 +88,8 @@ def chirp_wav(
     if not has_ringdown:
         text = text.split("; the inspiral")[0] + (
             f"; the inspiral rises from {_num(f0)} Hz to {_num(fm)} Hz (observed) and the sound "
-            "then fades: no ringdown tone is given for this event.")
+            "then fades: no ringdown tone is given for this event."
+        )
     return Chirp(_encode(signal, int(sample_rate)), signal.size / sample_rate, pitch, speed, text)
 
 

@@ -57,23 +57,31 @@ def select_events(catalogue: Catalogue, audience: str, now: Time) -> tuple[list[
     if audience == "internal":
         return list(catalogue.events), 0, 0
     internal = [e for e in catalogue.events if e.visibility == "internal"]
-    embargoed = [e for e in catalogue.events if e.visibility != "internal"
-                 and e.embargo_until is not None and e.embargo_until > now]
+    embargoed = [
+        e
+        for e in catalogue.events
+        if e.visibility != "internal" and e.embargo_until is not None and e.embargo_until > now
+    ]
     hidden = {e.id for e in internal + embargoed}
     return [e for e in catalogue.events if e.id not in hidden], len(internal), len(embargoed)
 
 
-def build(catalogue_dir: str | Path, out: str | Path, audience: str = "public",
-          force: bool = False, jobs: int | None = None, progress: bool = False) -> BuildReport:
+def build(
+    catalogue_dir: str | Path,
+    out: str | Path,
+    audience: str = "public",
+    force: bool = False,
+    jobs: int | None = None,
+    progress: bool = False,
+) -> BuildReport:
     """Build the site for ``catalogue_dir`` into ``out``."""
     start, out = clock.perf_counter(), Path(out)
     catalogue = load_catalogue(catalogue_dir)
     events, internal, embargoed = select_events(catalogue, audience, build_time())
     settings, cache = catalogue.settings, Cache(out)
     with Staging(out, force) as staging:
-        bundles, made = make_bundles(events, settings, cache, jobs or os.cpu_count() or 1,
-                                     progress)
-        for bundle, event in zip(bundles, events, strict=True):
+        bundles, made = make_bundles(events, settings, cache, jobs or os.cpu_count() or 1, progress)
+        for event in events:
             for name, path in cache.files(event_key(event, settings)):
                 staging.link(name, path)
         index = _index_figures(bundles, settings, cache)
@@ -82,12 +90,20 @@ def build(catalogue_dir: str | Path, out: str | Path, audience: str = "public",
         staging.commit()
     cache.prune()
     figure_seconds = sum(b.figure_seconds for b in made) + sum(f.seconds for f in index)
-    return BuildReport(len(bundles), len(bundles) - len(made), internal, embargoed,
-                       clock.perf_counter() - start, figure_seconds, out)
+    return BuildReport(
+        len(bundles),
+        len(bundles) - len(made),
+        internal,
+        embargoed,
+        clock.perf_counter() - start,
+        figure_seconds,
+        out,
+    )
 
 
-def make_bundles(events: list[Event], settings: Settings, cache: Cache, jobs: int,
-                 progress: bool) -> tuple[list[EventBundle], list[EventBundle]]:
+def make_bundles(
+    events: list[Event], settings: Settings, cache: Cache, jobs: int, progress: bool
+) -> tuple[list[EventBundle], list[EventBundle]]:
     """Every event's bundle, from the cache or made afresh; also the freshly made ones."""
     keys = [event_key(e, settings) for e in events]
     bundles: list[EventBundle | None] = [cache.load(k) for k in keys]
@@ -96,8 +112,14 @@ def make_bundles(events: list[Event], settings: Settings, cache: Cache, jobs: in
     made, failures = [], []
     for done, (i, result) in enumerate(_run(todo, events, settings, reference, jobs), 1):
         if isinstance(result, BaseException):
-            failures.append(Problem(events[i].source, events[i].line, events[i].id,
-                                    f"could not derive this event: {result}"))
+            failures.append(
+                Problem(
+                    events[i].source,
+                    events[i].line,
+                    events[i].id,
+                    f"could not derive this event: {result}",
+                )
+            )
             continue
         bundles[i] = cache.store(keys[i], result)  # drops the file bytes from memory
         made.append(bundles[i])
@@ -117,8 +139,7 @@ def _work(args: tuple[Event, Settings, Reference]) -> EventBundle | BaseExceptio
         return exc
 
 
-def _run(todo: list[int], events: list[Event], settings: Settings, reference: Reference,
-         jobs: int):
+def _run(todo: list[int], events: list[Event], settings: Settings, reference: Reference, jobs: int):
     """Yield (index, bundle or exception) for each event to make, in input order."""
     tasks = [(events[i], settings, reference) for i in todo]
     if jobs <= 1 or len(todo) <= 1:
@@ -132,10 +153,22 @@ def _run(todo: list[int], events: list[Event], settings: Settings, reference: Re
 def _index_figures(bundles: list[EventBundle], settings: Settings, cache: Cache):
     derived = [b.derived for b in bundles]
     edges = plane_edges(settings)
-    key = content_key("index", edges, [(d.event.id, d.event.status, d.source_class,
-                                        d.quantities["mass_1"], d.quantities["mass_2"],
-                                        d.quantities["luminosity_distance"],
-                                        d.quantities["total_mass"]) for d in derived])
+    key = content_key(
+        "index",
+        edges,
+        [
+            (
+                d.event.id,
+                d.event.status,
+                d.source_class,
+                d.quantities["mass_1"],
+                d.quantities["mass_2"],
+                d.quantities["luminosity_distance"],
+                d.quantities["total_mass"],
+            )
+            for d in derived
+        ],
+    )
     stored: dict[str, site_figures.SiteFigure] = {}
 
     def make() -> dict[str, bytes]:

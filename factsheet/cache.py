@@ -56,7 +56,7 @@ class Cache:
         """The bundle stored under ``key`` (its files stay on disk), or None."""
         path = self.root / key / "bundle.pickle"
         try:
-            bundle = pickle.loads(path.read_bytes())  # noqa: S301 - our own cache files
+            bundle = pickle.loads(path.read_bytes())
         except (OSError, pickle.UnpicklingError, EOFError, AttributeError, ImportError):
             return None
         self.used.add(key)
@@ -81,8 +81,7 @@ class Cache:
     def files(self, key: str) -> list[tuple[str, Path]]:
         """The asset files of an entry as (site path, cached file)."""
         base = self.root / key / "files"
-        return [(p.relative_to(base).as_posix(), p) for p in sorted(base.rglob("*"))
-                if p.is_file()]
+        return [(p.relative_to(base).as_posix(), p) for p in sorted(base.rglob("*")) if p.is_file()]
 
     def prune(self) -> None:
         """Remove entries this build did not use (and leftovers of interrupted writes)."""

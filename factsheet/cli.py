@@ -64,8 +64,13 @@ def make_parser() -> argparse.ArgumentParser:
         default="public",
         help="public leaves out internal and embargoed items (default: public)",
     )
-    b.add_argument("-j", "--jobs", type=_positive, default=None,
-                   help="worker processes (default: the number of CPUs)")
+    b.add_argument(
+        "-j",
+        "--jobs",
+        type=_positive,
+        default=None,
+        help="worker processes (default: the number of CPUs)",
+    )
     b.add_argument(
         "--force",
         action="store_true",
@@ -73,14 +78,21 @@ def make_parser() -> argparse.ArgumentParser:
     )
     b.set_defaults(run=run_build)
 
-    v = sub.add_parser("serve", help="preview the site on 127.0.0.1, rebuilding on change",
-                       description="Build, serve on 127.0.0.1 and rebuild when the catalogue "
-                       "changes; the page reloads itself after each rebuild.")
+    v = sub.add_parser(
+        "serve",
+        help="preview the site on 127.0.0.1, rebuilding on change",
+        description="Build, serve on 127.0.0.1 and rebuild when the catalogue "
+        "changes; the page reloads itself after each rebuild.",
+    )
     _catalogue_arg(v)
     v.add_argument("-o", "--out", type=Path, default=DEFAULT_OUT, help="output folder")
     v.add_argument("-p", "--port", type=int, default=8000, help="port (default 8000; 0: any)")
-    v.add_argument("--audience", choices=("public", "internal"), default="internal",
-                   help="audience of the preview (default: internal)")
+    v.add_argument(
+        "--audience",
+        choices=("public", "internal"),
+        default="internal",
+        help="audience of the preview (default: internal)",
+    )
     v.set_defaults(run=run_serve)
 
     c = sub.add_parser(
@@ -121,19 +133,29 @@ def _catalogue_arg(parser: argparse.ArgumentParser) -> None:
 def run_build(args: argparse.Namespace) -> int:
     from factsheet.build import build
 
-    report = build(args.catalogue or demo_dir(), args.out, args.audience, args.force,
-                   jobs=args.jobs, progress=sys.stderr.isatty())
+    report = build(
+        args.catalogue or demo_dir(),
+        args.out,
+        args.audience,
+        args.force,
+        jobs=args.jobs,
+        progress=sys.stderr.isatty(),
+    )
     print(summary_line(report))
     return 0
 
 
 def summary_line(report) -> str:
     """One line: events built and reused, what was withheld, where and how long."""
-    line = (f"built {report.built} fact sheets ({report.built - report.reused} derived, "
-            f"{report.reused} reused) into {report.out}/ in {report.seconds:.1f} s")
+    line = (
+        f"built {report.built} fact sheets ({report.built - report.reused} derived, "
+        f"{report.reused} reused) into {report.out}/ in {report.seconds:.1f} s"
+    )
     if report.withheld_internal or report.withheld_embargo:
-        line += (f"; withheld {report.withheld_internal} internal and "
-                 f"{report.withheld_embargo} embargoed")
+        line += (
+            f"; withheld {report.withheld_internal} internal and "
+            f"{report.withheld_embargo} embargoed"
+        )
     return line
 
 

@@ -114,8 +114,7 @@ def _aligned_spins(values: dict[str, np.ndarray]) -> dict[str, np.ndarray]:
 
 def reference_for(settings: Settings) -> Reference:
     """The packaged reference data with the catalogue's overrides."""
-    return load_reference({"mass_bands": settings.mass_bands,
-                           "comparisons": settings.comparisons})
+    return load_reference({"mass_bands": settings.mass_bands, "comparisons": settings.comparisons})
 
 
 def derive_event(event: Event, settings: Settings, reference: Reference | None = None) -> Derived:
@@ -172,19 +171,32 @@ def _derive_physics(result: Derived) -> None:
     inspiral_quantities(s, settings.low_frequency, settings.arm_length, computed)
     s.update(computed.samples)
     for name, values in computed.samples.items():
-        result.quantities[name] = summarise(values, level, computed.frames.get(name),
-                                            computed.methods[name], computed.spreads.get(name))
+        result.quantities[name] = summarise(
+            values,
+            level,
+            computed.frames.get(name),
+            computed.methods[name],
+            computed.spreads.get(name),
+        )
     result.mass_bands, band_notes = ctx.mass_bands(s, ref)
     z = float(np.median(s["redshift"].value))
     total = float(np.median(s["total_mass"].to_value(u.Msun)))
     result.windows, result.no_window_reason, window_notes = ctx.windows(
-        result.event, z, c, s.get("kick_velocity"), total, ref, level)
+        result.event, z, c, s.get("kick_velocity"), total, ref, level
+    )
     medians = {k: np.median(s[k]) for k in ("radiated_energy", "peak_luminosity") if k in s}
-    result.comparisons = ctx.comparison_values(medians.get("radiated_energy"),
-                                               medians.get("peak_luminosity"), ref,
-                                               settings.energy_units)
-    result.caveats.extend([*([note] if note else []), *computed.caveats, *band_notes,
-                           *window_notes, *ctx.significance_caveats(result.event)])
+    result.comparisons = ctx.comparison_values(
+        medians.get("radiated_energy"), medians.get("peak_luminosity"), ref, settings.energy_units
+    )
+    result.caveats.extend(
+        [
+            *([note] if note else []),
+            *computed.caveats,
+            *band_notes,
+            *window_notes,
+            *ctx.significance_caveats(result.event),
+        ]
+    )
 
 
 BASE_FRAMES = {

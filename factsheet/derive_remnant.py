@@ -28,8 +28,14 @@ class Computed:
     frames: dict[str, str] = field(default_factory=dict)
     caveats: list[Caveat] = field(default_factory=list)
 
-    def put(self, name: str, values: u.Quantity, methods: tuple[str, ...], frame: str | None,
-            spread: u.Quantity | None = None) -> None:
+    def put(
+        self,
+        name: str,
+        values: u.Quantity,
+        methods: tuple[str, ...],
+        frame: str | None,
+        spread: u.Quantity | None = None,
+    ) -> None:
         self.samples[name] = values
         self.methods[name] = methods
         if frame:
@@ -46,23 +52,48 @@ def _mean_and_spread(results: list[np.ndarray]) -> tuple[np.ndarray, float]:
 def remnant_quantities(s: dict[str, u.Quantity], out: Computed) -> None:
     """Final spin and mass, radiated energy, peak luminosity, kick and ringdown (BH fits)."""
     m1, m2, c1, c2 = s["mass_1"], s["mass_2"], s["spin_1z"].value, s["spin_2z"].value
-    spin, spin_spread = _mean_and_spread([remnant.final_spin_jf17(m1, m2, c1, c2),
-                                          remnant.final_spin_hbr16(m1, m2, c1, c2)])
-    erad, erad_spread = _mean_and_spread([remnant.radiated_fraction_jf17(m1, m2, c1, c2),
-                                          remnant.radiated_fraction_bmr12(m1, m2, c1, c2)])
+    spin, spin_spread = _mean_and_spread(
+        [remnant.final_spin_jf17(m1, m2, c1, c2), remnant.final_spin_hbr16(m1, m2, c1, c2)]
+    )
+    erad, erad_spread = _mean_and_spread(
+        [
+            remnant.radiated_fraction_jf17(m1, m2, c1, c2),
+            remnant.radiated_fraction_bmr12(m1, m2, c1, c2),
+        ]
+    )
     total = s["total_mass"]
     radiated = (erad * total).to(u.Msun)
     out.put("final_spin", spin * u.one, remnant.FINAL_SPIN_METHODS, None, spin_spread * u.one)
-    out.put("radiated_mass", radiated, remnant.RADIATED_METHODS, "source",
-            erad_spread * np.median(total))
-    out.put("final_mass", total - radiated, remnant.RADIATED_METHODS, "source",
-            erad_spread * np.median(total))
-    out.put("radiated_energy", (radiated * const.c**2).to(u.J), remnant.RADIATED_METHODS, None,
-            (erad_spread * np.median(total) * const.c**2).to(u.J))
-    out.put("peak_luminosity", luminosity.peak_luminosity_keitel17(m1, m2, c1, c2).to(u.W),
-            (luminosity.METHOD,), None)
-    out.put("kick_velocity", kick.kick_velocity(m1, m2, c1, c2).to(u.km / u.s), (kick.METHOD,),
-            None)
+    out.put(
+        "radiated_mass",
+        radiated,
+        remnant.RADIATED_METHODS,
+        "source",
+        erad_spread * np.median(total),
+    )
+    out.put(
+        "final_mass",
+        total - radiated,
+        remnant.RADIATED_METHODS,
+        "source",
+        erad_spread * np.median(total),
+    )
+    out.put(
+        "radiated_energy",
+        (radiated * const.c**2).to(u.J),
+        remnant.RADIATED_METHODS,
+        None,
+        (erad_spread * np.median(total) * const.c**2).to(u.J),
+    )
+    out.put(
+        "peak_luminosity",
+        luminosity.peak_luminosity_keitel17(m1, m2, c1, c2).to(u.W),
+        (luminosity.METHOD,),
+        None,
+    )
+    out.put(
+        "kick_velocity", kick.kick_velocity(m1, m2, c1, c2).to(u.km / u.s), (kick.METHOD,), None
+    )
     final_det = (total - radiated) * (1 + s["redshift"].value)
     f_ring, tau_ring = ringdown.qnm_220(final_det, np.abs(spin))
     out.put("ringdown_frequency", f_ring.to(u.Hz), (ringdown.METHOD,), "detector")
@@ -70,43 +101,66 @@ def remnant_quantities(s: dict[str, u.Quantity], out: Computed) -> None:
     _calibration_caveats(s, spin, out)
 
 
-def inspiral_quantities(s: dict[str, u.Quantity], low_frequency: u.Quantity,
-                        arm_length: u.Quantity, out: Computed) -> None:
+def inspiral_quantities(
+    s: dict[str, u.Quantity], low_frequency: u.Quantity, arm_length: u.Quantity, out: Computed
+) -> None:
     """ISCO frequency, time and cycles in band, strain and arm-length change (leading order)."""
     mc_det = s["chirp_mass_detector"]
     f_isco = inspiral.isco_frequency(s["total_mass_detector"]).to(u.Hz)
     order = (inspiral.LEADING_ORDER_METHOD,)
     out.put("isco_frequency", f_isco, order, "detector")
-    out.put("time_in_band", inspiral.time_to_merger(mc_det, low_frequency).to(u.s), order,
-            "detector")
+    out.put(
+        "time_in_band", inspiral.time_to_merger(mc_det, low_frequency).to(u.s), order, "detector"
+    )
     cycles = inspiral.cycles_between(mc_det, low_frequency, np.maximum(f_isco, low_frequency))
     out.put("cycles_in_band", np.asarray(cycles) * u.one, order, None)
     strain = inspiral.strain_amplitude(mc_det, f_isco, s["luminosity_distance"])
     out.put("strain_amplitude", u.Quantity(strain, u.one), order, None)
-    out.put("arm_length_change", inspiral.arm_length_change(strain, arm_length).to(u.m), order,
-            None)
+    out.put(
+        "arm_length_change", inspiral.arm_length_change(strain, arm_length).to(u.m), order, None
+    )
     if np.median(f_isco) < low_frequency:
-        out.caveats.append(Caveat(
-            "inspiral-below-band", "notice", f"The inspiral ends (ISCO frequency "
-            f"{np.median(f_isco).to_value(u.Hz):.0f} Hz, observed) below the band edge of "
-            f"{low_frequency.to_value(u.Hz):g} Hz: what the detectors saw is mostly the merger "
-            "and ringdown, and the time and cycles in band are lower limits of little meaning."))
+        out.caveats.append(
+            Caveat(
+                "inspiral-below-band",
+                "notice",
+                f"The inspiral ends (ISCO frequency "
+                f"{np.median(f_isco).to_value(u.Hz):.0f} Hz, observed) below the band edge of "
+                f"{low_frequency.to_value(u.Hz):g} Hz: what the detectors saw is mostly the merger "
+                "and ringdown, and the time and cycles in band are lower limits of little meaning.",
+            )
+        )
 
 
 def _percent(fraction: float) -> str:
-    return f"{fraction:.0%}" if fraction >= 0.01 else f"{fraction:.1%}" if fraction >= 0.001 else "<0.1%"
+    return (
+        f"{fraction:.0%}"
+        if fraction >= 0.01
+        else f"{fraction:.1%}"
+        if fraction >= 0.001
+        else "<0.1%"
+    )
 
 
 def _calibration_caveats(s: dict[str, u.Quantity], spin: np.ndarray, out: Computed) -> None:
-    values = {"mass_ratio": s["mass_ratio"].value, "spin_1z": s["spin_1z"].value,
-              "spin_2z": s["spin_2z"].value, "final_spin": np.abs(spin)}
+    values = {
+        "mass_ratio": s["mass_ratio"].value,
+        "spin_1z": s["spin_1z"].value,
+        "spin_2z": s["spin_2z"].value,
+        "final_spin": np.abs(spin),
+    }
     used = {m for methods in out.methods.values() for m in methods}
     for method_id in sorted(used):
         outside = fraction_outside(method_id, **values)
         if outside:
             worst = max(outside.values())
             names = ", ".join(sorted(outside))
-            out.caveats.append(Caveat(
-                "fit-outside-calibration", "warning" if worst > 0.5 else "notice",
-                f"{METHODS[method_id].title}: {_percent(worst)} of the samples lie outside the range "
-                f"the fit was calibrated on ({names}); its numbers there are extrapolated."))
+            out.caveats.append(
+                Caveat(
+                    "fit-outside-calibration",
+                    "warning" if worst > 0.5 else "notice",
+                    f"{METHODS[method_id].title}: {_percent(worst)} of the samples lie "
+                    f"outside the range the fit was calibrated on ({names}); its numbers there "
+                    "are extrapolated.",
+                )
+            )

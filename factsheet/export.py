@@ -103,9 +103,15 @@ def event_json(item: Derived) -> dict:
 
 def window_json(window) -> dict:
     """One counterpart window: UTC bounds as ISO 8601 strings."""
-    return {"name": window.name, "start_utc": window.start.utc.isot,
-            "end_utc": window.end.utc.isot, "band": window.band, "scenario": window.scenario,
-            "basis": window.basis, "text": window.plain}
+    return {
+        "name": window.name,
+        "start_utc": window.start.utc.isot,
+        "end_utc": window.end.utc.isot,
+        "band": window.band,
+        "scenario": window.scenario,
+        "basis": window.basis,
+        "text": window.plain,
+    }
 
 
 def display_summary(summary: Summary) -> Summary:
@@ -113,8 +119,14 @@ def display_summary(summary: Summary) -> Summary:
     if summary.unit == "s" and abs(summary.median) < 1:
         factor = 1000.0
         spread = None if summary.fit_spread is None else summary.fit_spread * factor
-        return replace(summary, median=summary.median * factor, low=summary.low * factor,
-                       high=summary.high * factor, unit="ms", fit_spread=spread)
+        return replace(
+            summary,
+            median=summary.median * factor,
+            low=summary.low * factor,
+            high=summary.high * factor,
+            unit="ms",
+            fit_spread=spread,
+        )
     return summary
 
 
@@ -146,8 +158,12 @@ def event_row(item: Derived) -> dict:
     }
 
 
-FLAG_BANDS = {"lower_gap": "lower gap", "pair_instability_gap": "pair-instability gap",
-              "neutron_star": "neutron star", "intermediate_mass": "intermediate mass"}
+FLAG_BANDS = {
+    "lower_gap": "lower gap",
+    "pair_instability_gap": "pair-instability gap",
+    "neutron_star": "neutron star",
+    "intermediate_mass": "intermediate mass",
+}
 
 
 def band_flags(item: Derived, threshold: float = 0.5) -> list[str]:
@@ -161,17 +177,23 @@ def band_flags(item: Derived, threshold: float = 0.5) -> list[str]:
     return flags
 
 
-BAND_LABELS = {"neutron_star": "neutron star", "lower_gap": "lower mass gap",
-               "black_hole": "black hole", "pair_instability_gap": "pair-instability gap",
-               "above_gap": "above the gap", "intermediate_mass": "intermediate mass (≥ 100 M⊙)"}
+BAND_LABELS = {
+    "neutron_star": "neutron star",
+    "lower_gap": "lower mass gap",
+    "black_hole": "black hole",
+    "pair_instability_gap": "pair-instability gap",
+    "above_gap": "above the gap",
+    "intermediate_mass": "intermediate mass (≥ 100 M⊙)",
+}
 BAND_SUBJECTS = {"mass_1": "Primary (m₁)", "mass_2": "Secondary (m₂)", "final_mass": "Remnant"}
 
 
 def band_rows(item: Derived) -> list[dict]:
     """Mass-band probabilities as table rows: subject, then one cell per band."""
-    return [{"subject": BAND_SUBJECTS[name],
-             "cells": [(BAND_LABELS[b], p) for b, p in probs.items()]}
-            for name, probs in item.mass_bands.items()]
+    return [
+        {"subject": BAND_SUBJECTS[name], "cells": [(BAND_LABELS[b], p) for b, p in probs.items()]}
+        for name, probs in item.mass_bands.items()
+    ]
 
 
 def comparison_rows(item: Derived) -> list[dict]:

@@ -6,7 +6,6 @@ from __future__ import annotations
 from dataclasses import dataclass
 
 import astropy.units as u
-import numpy as np
 from astropy.cosmology import realizations
 
 from factsheet.derive import Derived
@@ -15,10 +14,19 @@ from factsheet.model import Parameters
 from factsheet.physics.registry import METHODS, Method
 from factsheet.reference import Reference
 
-BODIES = {"BBH": "Two black holes", "BNS": "Two neutron stars",
-          "NSBH": "A black hole and a neutron star"}
-HISTORY_KEYS = {"mass_1": "m₁", "mass_2": "m₂", "luminosity_distance": "distance",
-                "spin_1z": "spin 1", "spin_2z": "spin 2", "chi_eff": "χ_eff"}
+BODIES = {
+    "BBH": "Two black holes",
+    "BNS": "Two neutron stars",
+    "NSBH": "A black hole and a neutron star",
+}
+HISTORY_KEYS = {
+    "mass_1": "m₁",
+    "mass_2": "m₂",
+    "luminosity_distance": "distance",
+    "spin_1z": "spin 1",
+    "spin_2z": "spin 2",
+    "chi_eff": "χ_eff",
+}
 
 
 def _about(value: float) -> str:
@@ -31,30 +39,41 @@ def headline(item: Derived) -> list[str]:
     z = q["redshift"].median
     cosmo = getattr(realizations, item.settings.cosmology)
     years = cosmo.lookback_time(z).to_value(u.Gyr)
-    when = (f"about {_about(years)} billion years ago" if years >= 1 else
-            f"about {_about(years * 1000)} million years ago")
-    text = [f"{BODIES.get(item.source_class, 'Two compact objects')} of about "
-            f"{_about(q['mass_1'].median)} and {_about(q['mass_2'].median)} times the mass of "
-            f"the Sun merged {when}; the waves reached the detectors on "
-            f"{item.event.time.utc.isot[:10]}."]
+    when = (
+        f"about {_about(years)} billion years ago"
+        if years >= 1
+        else f"about {_about(years * 1000)} million years ago"
+    )
+    text = [
+        f"{BODIES.get(item.source_class, 'Two compact objects')} of about "
+        f"{_about(q['mass_1'].median)} and {_about(q['mass_2'].median)} times the mass of "
+        f"the Sun merged {when}; the waves reached the detectors on "
+        f"{item.event.time.utc.isot[:10]}."
+    ]
     if "final_mass" in q:
         spin = q["final_spin"].median
-        text.append(f"They left a single black hole of about {_about(q['final_mass'].median)} "
-                    f"solar masses, spinning at {abs(spin):.0%} of the maximum a black hole "
-                    f"can have, and radiated about {_about(q['radiated_mass'].median)} solar "
-                    "masses of energy as gravitational waves.")
+        text.append(
+            f"They left a single black hole of about {_about(q['final_mass'].median)} "
+            f"solar masses, spinning at {abs(spin):.0%} of the maximum a black hole "
+            f"can have, and radiated about {_about(q['radiated_mass'].median)} solar "
+            "masses of energy as gravitational waves."
+        )
     ratios = item.comparisons
     if "sun_years" in ratios and "luminosity" in ratios:
         sun = ratios["sun_years"].to_value(u.yr)
         galaxy = ratios["luminosity"].get("milky_way")
         line = f"The Sun would need about {format_value(sun, '', 2)} years to emit that energy"
         if galaxy:
-            line += (f"; at its peak the merger put out {format_value(galaxy, '', 2)} times "
-                     "the light of all the stars in the Milky Way, as gravitational waves")
+            line += (
+                f"; at its peak the merger put out {format_value(galaxy, '', 2)} times "
+                "the light of all the stars in the Milky Way, as gravitational waves"
+            )
         text.append(line + ".")
     elif item.windows:
-        text.append("A neutron star was involved, so light could follow: the counterpart "
-                    "windows below say when to look.")
+        text.append(
+            "A neutron star was involved, so light could follow: the counterpart "
+            "windows below say when to look."
+        )
     return text
 
 
@@ -74,8 +93,7 @@ def _text(parameters: Parameters, key: str) -> str:
 
 def history_steps(item: Derived) -> list[HistoryStep]:
     """Each estimate, oldest first, with what changed from the one before (old → new)."""
-    estimates = [(h.label, h.date.utc.isot[:10], h.note, h.parameters)
-                 for h in item.event.history]
+    estimates = [(h.label, h.date.utc.isot[:10], h.note, h.parameters) for h in item.event.history]
     if not estimates:
         return []
     estimates.append(("Current estimate", "", "", item.event.parameters))
@@ -108,7 +126,12 @@ def methods_context(derived: list[Derived], reference: Reference) -> dict:
         for summary in item.quantities.values():
             for method_id in summary.methods:
                 used.setdefault(method_id, set()).add(item.event.id)
-    entries = [MethodEntry(m, sorted(used.get(m.id, ()))) for m in
-               sorted(METHODS.values(), key=lambda m: (not used.get(m.id), m.title))]
-    return {"methods": entries, "reference": reference,
-            "levels": sorted({d.settings.credible_level for d in derived})}
+    entries = [
+        MethodEntry(m, sorted(used.get(m.id, ())))
+        for m in sorted(METHODS.values(), key=lambda m: (not used.get(m.id), m.title))
+    ]
+    return {
+        "methods": entries,
+        "reference": reference,
+        "levels": sorted({d.settings.credible_level for d in derived}),
+    }

@@ -37,8 +37,10 @@ class Staging:
         self.out.parent.mkdir(parents=True, exist_ok=True)
         recover(self.out)
         if not force and not replaceable(self.out):
-            raise BuildError(f"{self.out}: refusing to replace a folder that factsheet did not "
-                             "make (choose another output folder, or pass --force)")
+            raise BuildError(
+                f"{self.out}: refusing to replace a folder that factsheet did not "
+                "make (choose another output folder, or pass --force)"
+            )
         self.folder = Path(tempfile.mkdtemp(prefix=".factsheet-new-", dir=self.out.parent))
         self.committed = False
 

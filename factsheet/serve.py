@@ -46,7 +46,7 @@ class Handler(http.server.SimpleHTTPRequestHandler):
 
     state: State
 
-    def do_GET(self) -> None:  # noqa: N802 - the http.server protocol
+    def do_GET(self) -> None:
         path = urlsplit(self.path).path
         if path == VERSION_PATH:
             return self._send(str(self.state.version).encode(), "text/plain")
@@ -70,7 +70,7 @@ class Handler(http.server.SimpleHTTPRequestHandler):
         self.end_headers()
         self.wfile.write(body)
 
-    def log_message(self, format: str, *args) -> None:  # noqa: A002 - inherited name
+    def log_message(self, format: str, *args) -> None:
         pass
 
 
@@ -82,8 +82,11 @@ def _with_reload(html: bytes) -> bytes:
 
 def snapshot(folder: Path) -> dict[str, float]:
     """Modification times and sizes of every file under the catalogue folder."""
-    return {str(p): (p.stat().st_mtime_ns, p.stat().st_size) for p in sorted(folder.rglob("*"))
-            if p.is_file()}
+    return {
+        str(p): (p.stat().st_mtime_ns, p.stat().st_size)
+        for p in sorted(folder.rglob("*"))
+        if p.is_file()
+    }
 
 
 def rebuild(catalogue: Path, out: Path, audience: str, state: State) -> bool:
@@ -103,13 +106,21 @@ def rebuild(catalogue: Path, out: Path, audience: str, state: State) -> bool:
 
 def make_server(out: Path, port: int, state: State) -> http.server.ThreadingHTTPServer:
     """An HTTP server on 127.0.0.1 serving ``out``."""
-    handler = functools.partial(type("PreviewHandler", (Handler,), {"state": state}),
-                                directory=str(out))
+    handler = functools.partial(
+        type("PreviewHandler", (Handler,), {"state": state}), directory=str(out)
+    )
     return http.server.ThreadingHTTPServer(("127.0.0.1", port), handler)
 
 
-def watch(catalogue: Path, out: Path, audience: str, state: State, stop: threading.Event,
-          interval: float = 0.5, seen: dict | None = None) -> None:
+def watch(
+    catalogue: Path,
+    out: Path,
+    audience: str,
+    state: State,
+    stop: threading.Event,
+    interval: float = 0.5,
+    seen: dict | None = None,
+) -> None:
     """Poll the catalogue and rebuild after each change until ``stop`` is set.
 
     ``seen`` is the snapshot the current site was built from (taken before that build, so an
@@ -131,8 +142,12 @@ def serve(catalogue: Path, out: Path, port: int = 8000, audience: str = "interna
         raise FactsheetError("no site to serve: fix the problems above and try again")
     server = make_server(out, port, state)
     stop = threading.Event()
-    watcher = threading.Thread(target=watch, args=(catalogue, out, audience, state, stop),
-                               kwargs={"seen": seen}, daemon=True)
+    watcher = threading.Thread(
+        target=watch,
+        args=(catalogue, out, audience, state, stop),
+        kwargs={"seen": seen},
+        daemon=True,
+    )
     watcher.start()
     host, real_port = server.server_address[:2]
     print(f"serving {out}/ on http://{host}:{real_port}/ (Ctrl+C to stop)", file=sys.stderr)

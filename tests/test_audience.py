@@ -13,18 +13,27 @@ def event(event_id: str, title: str, extra: str = "") -> str:
 
 
 def all_output(folder: Path) -> str:
-    return "\n".join(p.read_bytes().decode("utf-8", "replace") for p in folder.rglob("*")
-                     if p.is_file())
+    return "\n".join(
+        p.read_bytes().decode("utf-8", "replace") for p in folder.rglob("*") if p.is_file()
+    )
 
 
 def make(tmp_path: Path) -> Path:
-    return write_catalogue(tmp_path / "cat", {
-        "a.yaml": event("OPEN-1", "Open pair", "internal_notes: Secret-note-alpha\n"),
-        "b.yaml": event("HIDDEN-2", "Hidden-title-beta", "visibility: internal\n"
-                        "internal_notes: Secret-note-gamma\n"),
-        "c.yaml": event("LATER-3", "Embargoed-title-delta", 'embargo_until: "2999-01-01T00:00"\n'),
-        "d.yaml": event("PAST-4", "Embargo-over", 'embargo_until: "2001-01-01T00:00"\n'),
-    })
+    return write_catalogue(
+        tmp_path / "cat",
+        {
+            "a.yaml": event("OPEN-1", "Open pair", "internal_notes: Secret-note-alpha\n"),
+            "b.yaml": event(
+                "HIDDEN-2",
+                "Hidden-title-beta",
+                "visibility: internal\ninternal_notes: Secret-note-gamma\n",
+            ),
+            "c.yaml": event(
+                "LATER-3", "Embargoed-title-delta", 'embargo_until: "2999-01-01T00:00"\n'
+            ),
+            "d.yaml": event("PAST-4", "Embargo-over", 'embargo_until: "2001-01-01T00:00"\n'),
+        },
+    )
 
 
 def test_public_build_has_no_trace_of_internal_or_embargoed(tmp_path, monkeypatch):
@@ -33,8 +42,14 @@ def test_public_build_has_no_trace_of_internal_or_embargoed(tmp_path, monkeypatc
     report = build(make(tmp_path), out)
     assert (report.built, report.withheld_internal, report.withheld_embargo) == (2, 1, 1)
     text = all_output(out)
-    for secret in ("HIDDEN-2", "Hidden-title-beta", "Secret-note-gamma", "LATER-3",
-                   "Embargoed-title-delta", "Secret-note-alpha"):
+    for secret in (
+        "HIDDEN-2",
+        "Hidden-title-beta",
+        "Secret-note-gamma",
+        "LATER-3",
+        "Embargoed-title-delta",
+        "Secret-note-alpha",
+    ):
         assert secret not in text, secret
     assert "OPEN-1" in text and "PAST-4" in text
 

@@ -13,11 +13,20 @@ from factsheet.api import derive
 from factsheet.errors import InputError
 from factsheet.physics import cosmology
 
-BASE = {"id": "T-1", "time": "2034-04-12T07:26:41.2", "status": "confirmed",
-        "parameters": {"mass_1": "36 +5 -4 Msun", "mass_2": "29 +4 -5 Msun",
-                       "spin_1z": "0.1 +0.2 -0.2", "spin_2z": "0.0 +0.3 -0.3",
-                       "luminosity_distance": "440 +180 -170 Mpc"},
-        "false_alarm_rate": "1 / 1000 yr", "sky_area": "300 deg2"}
+BASE = {
+    "id": "T-1",
+    "time": "2034-04-12T07:26:41.2",
+    "status": "confirmed",
+    "parameters": {
+        "mass_1": "36 +5 -4 Msun",
+        "mass_2": "29 +4 -5 Msun",
+        "spin_1z": "0.1 +0.2 -0.2",
+        "spin_2z": "0.0 +0.3 -0.3",
+        "luminosity_distance": "440 +180 -170 Mpc",
+    },
+    "false_alarm_rate": "1 / 1000 yr",
+    "sky_area": "300 deg2",
+}
 
 
 def event(**changes):
@@ -40,9 +49,17 @@ def codes(result):
 def test_clean_bbh_has_all_quantities_and_only_standing_caveats():
     r = derive(event())
     assert r.source_class == "BBH"
-    for key in ("final_mass", "final_spin", "radiated_energy", "peak_luminosity",
-                "kick_velocity", "ringdown_frequency", "ringdown_damping_time",
-                "isco_frequency", "time_in_band"):
+    for key in (
+        "final_mass",
+        "final_spin",
+        "radiated_energy",
+        "peak_luminosity",
+        "kick_velocity",
+        "ringdown_frequency",
+        "ringdown_damping_time",
+        "isco_frequency",
+        "time_in_band",
+    ):
         s = r.quantities[key]
         assert s.low <= s.median <= s.high
     assert r.quantities["final_mass"].median < r.quantities["total_mass"].median
@@ -54,8 +71,9 @@ def test_detector_frame_masses_are_divided_by_one_plus_z():
     src = derive(event())
     det = derive(event(frame="detector"))
     z = det.samples["redshift"].value
-    np.testing.assert_allclose(det.samples["mass_1"].value * (1 + z),
-                               det.samples["mass_1_detector"].value)
+    np.testing.assert_allclose(
+        det.samples["mass_1"].value * (1 + z), det.samples["mass_1_detector"].value
+    )
     assert det.quantities["mass_1"].median < src.quantities["mass_1"].median
 
 
@@ -72,8 +90,13 @@ def test_same_input_same_numbers_and_prose_does_not_change_them():
 
 
 def test_bns_gets_no_remnant_numbers_but_windows():
-    r = derive(event(mass_1="1.5 +0.1 -0.1 Msun", mass_2="1.3 +0.1 -0.1 Msun",
-                     luminosity_distance="100 +30 -30 Mpc"))
+    r = derive(
+        event(
+            mass_1="1.5 +0.1 -0.1 Msun",
+            mass_2="1.3 +0.1 -0.1 Msun",
+            luminosity_distance="100 +30 -30 Mpc",
+        )
+    )
     assert r.source_class == "BNS"
     assert "final_mass" not in r.quantities and "neutron-star-remnant" in codes(r)
     names = [w.name for w in r.windows]
@@ -84,12 +107,19 @@ def test_bns_gets_no_remnant_numbers_but_windows():
 
 
 def test_nsbh_plunge_keeps_remnant_disruption_drops_it():
-    plunge = derive(event(mass_1="11 +1 -1 Msun", mass_2="1.4 +0.1 -0.1 Msun",
-                          spin_1z="0 +0 -0", spin_2z="0 +0 -0"))
+    plunge = derive(
+        event(
+            mass_1="11 +1 -1 Msun",
+            mass_2="1.4 +0.1 -0.1 Msun",
+            spin_1z="0 +0 -0",
+            spin_2z="0 +0 -0",
+        )
+    )
     assert plunge.source_class == "NSBH" and "final_mass" in plunge.quantities
     assert "neutron-star-plunges" in codes(plunge) and plunge.windows == []
-    torn = derive(event(mass_1="5.5 +0.3 -0.3 Msun", mass_2="1.4 +0.1 -0.1 Msun",
-                        spin_1z="0.8 +0.05 -0.05"))
+    torn = derive(
+        event(mass_1="5.5 +0.3 -0.3 Msun", mass_2="1.4 +0.1 -0.1 Msun", spin_1z="0.8 +0.05 -0.05")
+    )
     assert torn.source_class == "NSBH" and "final_mass" not in torn.quantities
     assert "neutron-star-disrupted" in codes(torn) and torn.windows
 
@@ -101,8 +131,9 @@ def test_chi_eff_only_and_no_spins():
     assert "spins-assumed-zero" in codes(derive(event(spin_1z=None, spin_2z=None)))
 
 
-@pytest.mark.parametrize(("status", "code"), [("candidate", "candidate"),
-                                              ("retracted", "retracted")])
+@pytest.mark.parametrize(
+    ("status", "code"), [("candidate", "candidate"), ("retracted", "retracted")]
+)
 def test_status_caveats(status, code):
     assert code in codes(derive(event(status=status)))
 
@@ -133,8 +164,9 @@ def test_band_straddle_caveat():
 
 
 def test_agn_host_gives_flare_and_repeat_windows():
-    r = derive(event(host={"smbh_mass": "1e8 Msun", "orbit_radius": 700,
-                           "disk_aspect_ratio": 0.01}))
+    r = derive(
+        event(host={"smbh_mass": "1e8 Msun", "orbit_radius": 700, "disk_aspect_ratio": 0.01})
+    )
     assert len(r.windows) == 2 and all(w.scenario == "agn_disk" for w in r.windows)
     assert r.windows[0].start > r.event.time
 

@@ -12,23 +12,33 @@ from factsheet.build import build
 
 
 def event(event_id: str, mass: str = "36 +5 -4 Msun", extra: str = "") -> str:
-    return VALID_EVENT.replace("id: TEST-1", f"id: {event_id}").replace(
-        "36 +5 -4 Msun", mass) + extra
+    return (
+        VALID_EVENT.replace("id: TEST-1", f"id: {event_id}").replace("36 +5 -4 Msun", mass) + extra
+    )
 
 
 def hashes(folder: Path) -> dict[str, str]:
-    return {p.relative_to(folder).as_posix(): hashlib.sha256(p.read_bytes()).hexdigest()
-            for p in sorted(folder.rglob("*")) if p.is_file()}
+    return {
+        p.relative_to(folder).as_posix(): hashlib.sha256(p.read_bytes()).hexdigest()
+        for p in sorted(folder.rglob("*"))
+        if p.is_file()
+    }
 
 
 @pytest.fixture
 def cat(tmp_path):
     (tmp_path / "cat").mkdir()
     (tmp_path / "cat" / "s.csv").write_text(
-        "mass_1 [Msun],mass_2 [Msun],luminosity_distance [Mpc]\n30,20,400\n32,21,450\n31,19,500\n")
-    return write_catalogue(tmp_path / "cat", {
-        "a.yaml": event("A-1"), "b.yaml": event("B-2", "40 +5 -4 Msun"),
-        "c.yaml": event("C-3", extra="samples: s.csv\n")})
+        "mass_1 [Msun],mass_2 [Msun],luminosity_distance [Mpc]\n30,20,400\n32,21,450\n31,19,500\n"
+    )
+    return write_catalogue(
+        tmp_path / "cat",
+        {
+            "a.yaml": event("A-1"),
+            "b.yaml": event("B-2", "40 +5 -4 Msun"),
+            "c.yaml": event("C-3", extra="samples: s.csv\n"),
+        },
+    )
 
 
 def test_two_builds_are_byte_identical_and_jobs_do_not_matter(cat, tmp_path):

@@ -18,9 +18,12 @@ def running(tmp_path):
     seen = preview.snapshot(cat)
     assert preview.rebuild(cat, out, "internal", state)
     server = preview.make_server(out, 0, state)
-    threads = [threading.Thread(target=server.serve_forever, daemon=True),
-               threading.Thread(target=preview.watch, args=(cat, out, "internal", state, stop,
-                                                            0.1, seen), daemon=True)]
+    threads = [
+        threading.Thread(target=server.serve_forever, daemon=True),
+        threading.Thread(
+            target=preview.watch, args=(cat, out, "internal", state, stop, 0.1, seen), daemon=True
+        ),
+    ]
     for thread in threads:
         thread.start()
     yield cat, f"http://127.0.0.1:{server.server_address[1]}", state, out
@@ -47,7 +50,7 @@ def wait_for(condition, seconds: float = 60.0) -> bool:
 
 
 def test_binds_loopback_and_serves_the_index_with_reload_hook(running):
-    cat, base, state, out = running
+    _cat, base, _state, out = running
     assert base.startswith("http://127.0.0.1:")
     status, body = get(base + "/")
     assert status == 200 and b"TEST-1" in body and preview.RELOAD_PATH.encode() in body
@@ -56,7 +59,7 @@ def test_binds_loopback_and_serves_the_index_with_reload_hook(running):
 
 
 def test_rebuilds_after_a_change_and_keeps_the_last_good_site(running, capsys):
-    cat, base, state, out = running
+    cat, base, state, _out = running
     (cat / "a.yaml").write_text(VALID_EVENT.replace("A test pair", "A renamed pair"))
     assert wait_for(lambda: state.version >= 2)
     assert b"A renamed pair" in get(base + "/events/TEST-1.html")[1]
@@ -66,9 +69,16 @@ def test_rebuilds_after_a_change_and_keeps_the_last_good_site(running, capsys):
     assert status == 200 and b"A renamed pair" in body and state.version == 2
 
 
-@pytest.mark.parametrize("path", ["/../../etc/passwd", "/%2e%2e/%2e%2e/etc/passwd",
-                                  "/events/../../cat/a.yaml", "/..%2f..%2fetc%2fpasswd"])
+@pytest.mark.parametrize(
+    "path",
+    [
+        "/../../etc/passwd",
+        "/%2e%2e/%2e%2e/etc/passwd",
+        "/events/../../cat/a.yaml",
+        "/..%2f..%2fetc%2fpasswd",
+    ],
+)
 def test_refuses_paths_outside_the_output_folder(running, path):
-    cat, base, state, out = running
+    _cat, base, _state, _out = running
     status, body = get(base + path)
     assert status == 404 and b"root:" not in body and b"parameters" not in body
