@@ -42,33 +42,19 @@ QUANTITY_LABELS: dict[str, tuple[str, str]] = {
     "arm_length_change": ("Arm-length change per arm (leading order)", "signal"),
 }
 
-# Keys the JSON export carries (DESIGN.md section 6) when the event has them.
+# The quantity keys of the JSON contract (DESIGN.md section 6), in order.
+CONTRACT_QUANTITIES = (
+    "mass_1", "mass_2", "total_mass", "chirp_mass", "mass_ratio", "chi_eff",
+    "luminosity_distance", "redshift", "final_mass", "final_spin", "radiated_mass",
+    "radiated_energy", "peak_luminosity", "kick_velocity", "ringdown_frequency",
+    "ringdown_damping_time", "isco_frequency", "time_in_band",
+)  # fmt: skip
+# Keys the JSON export carries when the event has them: the contract, then extras.
 JSON_KEYS = (
-    "mass_1",
-    "mass_2",
-    "total_mass",
-    "chirp_mass",
-    "mass_ratio",
-    "chi_eff",
-    "luminosity_distance",
-    "redshift",
-    "final_mass",
-    "final_spin",
-    "radiated_mass",
-    "radiated_energy",
-    "peak_luminosity",
-    "kick_velocity",
-    "ringdown_frequency",
-    "ringdown_damping_time",
-    "isco_frequency",
-    "time_in_band",
-    "spin_1z",
-    "spin_2z",
-    "mass_1_detector",
-    "mass_2_detector",
-    "total_mass_detector",
-    "chirp_mass_detector",
-)
+    *CONTRACT_QUANTITIES, "spin_1z", "spin_2z", "mass_1_detector", "mass_2_detector",
+    "total_mass_detector", "chirp_mass_detector", "cycles_in_band", "strain_amplitude",
+    "arm_length_change",
+)  # fmt: skip
 
 
 @dataclass(frozen=True)

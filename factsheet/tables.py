@@ -19,26 +19,10 @@ import numpy as np
 from astropy.table import Column, MaskedColumn, Table
 
 from factsheet.derive import Derived
-from factsheet.export import QUANTITY_LABELS, time_utc
+from factsheet.export import CONTRACT_QUANTITIES, QUANTITY_LABELS, time_utc
 from factsheet.model import Settings
 
-MAIN_QUANTITIES = (
-    "mass_1",
-    "mass_2",
-    "total_mass",
-    "chirp_mass",
-    "mass_ratio",
-    "chi_eff",
-    "luminosity_distance",
-    "redshift",
-    "final_mass",
-    "final_spin",
-    "radiated_energy",
-    "peak_luminosity",
-    "kick_velocity",
-    "ringdown_frequency",
-    "time_in_band",
-)
+MAIN_QUANTITIES = CONTRACT_QUANTITIES  # every quantity of the JSON contract
 
 TEXT_COLUMNS = {
     "id": "event designation (also the page and JSON file name)",
