@@ -7,6 +7,7 @@ launch arguments are the ones TESTING.md ("Real-browser tests") records as worki
 
 from __future__ import annotations
 
+import re
 import shutil
 import socket
 import subprocess
@@ -238,3 +239,17 @@ def test_screenshots(visit, http_root, name, width):
         assert target.stat().st_size > 0
     v = visit(http_root + "index.html", width=width)  # wide tables scroll inside their wrapper
     assert v.page.evaluate("document.documentElement.scrollWidth") <= width
+
+
+@pytest.mark.parametrize("path", SHEETS)
+def test_sheet_prints_on_two_a4_pages_or_fewer(visit, http_root, path):
+    v = visit(http_root + path)
+    pdf = v.page.pdf(format="A4")
+    pages = len(re.findall(rb"/Type\s*/Page[^s]", pdf))
+    assert 1 <= pages <= 2, f"{path} prints on {pages} pages"
+
+
+@pytest.mark.parametrize("path", SHEETS)
+def test_sheet_fits_a_phone_width(visit, http_root, path):
+    v = visit(http_root + path, width=390)
+    assert v.page.evaluate("document.documentElement.scrollWidth") <= 390
