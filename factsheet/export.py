@@ -8,6 +8,8 @@ from __future__ import annotations
 
 from dataclasses import dataclass, replace
 
+import astropy.units as u
+
 from factsheet.derive import Derived, Summary
 from factsheet.model import Event
 
@@ -100,25 +102,37 @@ def window_json(window) -> dict:
     }
 
 
-def display_summary(summary: Summary) -> Summary:
-    """A summary in the unit a reader expects: milliseconds for short times."""
+CGS_UNITS = {"J": "erg", "W": "erg / s"}
+
+
+def display_summary(summary: Summary, energy_units: str = "SI") -> Summary:
+    """A summary in the unit a reader expects: milliseconds for short times, erg in cgs."""
     if summary.unit == "s" and abs(summary.median) < 1:
-        factor = 1000.0
-        spread = None if summary.fit_spread is None else summary.fit_spread * factor
-        return replace(
-            summary,
-            median=summary.median * factor,
-            low=summary.low * factor,
-            high=summary.high * factor,
-            unit="ms",
-            fit_spread=spread,
-        )
+        return converted(summary, "ms")
+    if energy_units == "cgs" and summary.unit in CGS_UNITS:
+        return converted(summary, CGS_UNITS[summary.unit])
     return summary
+
+
+def converted(summary: Summary, unit: str) -> Summary:
+    """The same summary in another unit of the same dimension."""
+    factor = u.Unit(summary.unit).to(unit)
+    spread = None if summary.fit_spread is None else summary.fit_spread * factor
+    return replace(
+        summary,
+        median=summary.median * factor,
+        low=summary.low * factor,
+        high=summary.high * factor,
+        unit=unit,
+        fit_spread=spread,
+    )
 
 
 def quantity_rows(item: Derived) -> list[QuantityRow]:
     return [
-        QuantityRow(k, label, group, display_summary(item.quantities[k]))
+        QuantityRow(
+            k, label, group, display_summary(item.quantities[k], item.settings.energy_units)
+        )
         for k, (label, group) in QUANTITY_LABELS.items()
         if k in item.quantities
     ]

@@ -123,3 +123,16 @@ def test_sheets_carry_previous_and_next_links(demo_site):
     pages = sorted((demo_site / "events").glob("*.html"))
     middle = pages[len(pages) // 2].read_text(encoding="utf-8")
     assert 'rel="prev"' in middle and 'rel="next"' in middle
+
+
+def test_cgs_energy_units_on_the_page(tmp_path):
+    from helpers import VALID_EVENT, write_catalogue
+
+    cat = write_catalogue(
+        tmp_path / "cat", {"a.yaml": VALID_EVENT, "catalogue.yaml": "energy_units: cgs\n"}
+    )
+    build(cat, tmp_path / "out", jobs=1)
+    page = (tmp_path / "out" / "events" / "TEST-1.html").read_text()
+    assert "erg s⁻¹" in page and "× 10⁵⁶ erg s⁻¹" in page  # peak luminosity ~ 3.6e56 erg/s
+    data = json.loads((tmp_path / "out" / "data" / "TEST-1.json").read_text())
+    assert data["quantities"]["radiated_energy"]["unit"] == "J"  # the JSON contract keeps SI
