@@ -94,7 +94,7 @@ def base_samples(event: Event, settings: Settings) -> dict[str, np.ndarray]:
     if event.samples is None:
         values = draw_parameters(event.parameters, n, level, event.seed())
     else:
-        values = read_samples_csv(event.samples)
+        values = read_samples_csv(event.samples, settings.limits.max_sample_rows)
         rng = np.random.default_rng(event.seed())
         size = len(values["mass_1"])
         for name in ("spin_1z", "spin_2z", "chi_eff", "redshift"):
@@ -161,7 +161,7 @@ def _derive_base(result: Derived) -> None:
 def _derive_physics(result: Derived) -> None:
     s, ref, settings = result.samples, result.reference, result.settings
     level = settings.credible_level
-    c = ctx.classify(s, ref)
+    c = ctx.classify(s, ref, settings.neutron_star_radius)
     result.source_class, result.class_probabilities = c.source_class, c.probabilities
     result.disruption_probability = c.disruption_probability
     computed = Computed()
@@ -194,7 +194,9 @@ def _derive_physics(result: Derived) -> None:
             *computed.caveats,
             *band_notes,
             *window_notes,
-            *ctx.significance_caveats(result.event),
+            *ctx.significance_caveats(
+                result.event, settings.low_significance_rate, settings.large_sky_area
+            ),
         ]
     )
 

@@ -13,7 +13,6 @@ from factsheet.model import Event
 from factsheet.physics import bands, comparisons, counterparts, disruption
 from factsheet.reference import Reference
 
-NS_RADIUS = 12 * u.km  # assumed neutron-star radius; 11-13 km covers current estimates (memory)
 EDGE_NAMES = {
     "neutron_star_max": "the maximum neutron-star mass",
     "lower_gap_top": "the top of the lower mass gap",
@@ -28,17 +27,18 @@ class Classification:
     probabilities: dict[str, float]
     disruption_probability: float | None  # NSBH only
     remnant_baryon_mass: u.Quantity | None  # samples, NSBH only
+    ns_radius: u.Quantity | None = None  # the assumed radius, NSBH only
 
 
-def classify(s: dict[str, u.Quantity], ref: Reference) -> Classification:
+def classify(s: dict[str, u.Quantity], ref: Reference, ns_radius: u.Quantity) -> Classification:
     """Source class from the masses and the neutron-star bound; disruption for NSBH."""
     ns_max = ref.mass_bands.neutron_star_max.value
     probs = bands.source_class_probabilities(s["mass_1"], s["mass_2"], ns_max)
     label = bands.source_class(s["mass_1"], s["mass_2"], ns_max)
     if label != "NSBH":
         return Classification(label, probs, None, None)
-    rem = disruption.remnant_baryon_mass(s["mass_1"], s["mass_2"], s["spin_1z"].value, NS_RADIUS)
-    return Classification(label, probs, disruption.disruption_probability(rem), rem)
+    rem = disruption.remnant_baryon_mass(s["mass_1"], s["mass_2"], s["spin_1z"].value, ns_radius)
+    return Classification(label, probs, disruption.disruption_probability(rem), rem, ns_radius)
 
 
 def mass_bands(s: dict[str, u.Quantity], ref: Reference) -> tuple[dict, list[Caveat]]:
@@ -84,16 +84,18 @@ def remnant_allowed(c: Classification) -> tuple[bool, Caveat | None]:
             "The neutron star is likely "
             f"torn apart before it plunges (probability "
             f"{c.disruption_probability:.0%} by the Foucart, Hinderer & Nissanke "
-            "2018 fit, radius 12 km assumed): black-hole remnant fits do not "
+            f"2018 fit, neutron-star radius {c.ns_radius.to_value(u.km):g} km assumed): "
+            "black-hole remnant fits do not "
             "apply, so remnant numbers are not given.",
         )
     if c.source_class == "NSBH":
         return True, Caveat(
             "neutron-star-plunges",
             "info",
-            "The neutron star most likely "
-            "plunges whole into the black hole, so the black-hole remnant fits "
-            "are a fair approximation (tidal effects neglected).",
+            "The neutron star most likely plunges whole into the black hole (probability of "
+            f"disruption {c.disruption_probability:.0%} by the Foucart, Hinderer & Nissanke 2018 "
+            f"fit, neutron-star radius {c.ns_radius.to_value(u.km):g} km assumed), so the "
+            "black-hole remnant fits are a fair approximation (tidal effects neglected).",
         )
     return True, None
 
@@ -159,7 +161,7 @@ def comparison_values(
 
 
 def significance_caveats(
-    event: Event, far_threshold: u.Quantity = 1 / u.yr, sky_threshold: u.Quantity = 1000 * u.deg**2
+    event: Event, far_threshold: u.Quantity, sky_threshold: u.Quantity
 ) -> list[Caveat]:
     """Low significance and large sky area (thresholds are common practice, not a standard)."""
     notes = []

@@ -32,6 +32,16 @@ def parse_time(text: str) -> Time:
         return Time(text, format="isot" if "T" in text else "iso", scale="utc")
 
 
+def show(raw: object) -> str:
+    """A short form of a value for messages; lists and mappings (maybe alias-shared) by size."""
+    if isinstance(raw, list | tuple):
+        return f"a list of {len(raw)} items"
+    if isinstance(raw, dict):
+        return f"a mapping of {len(raw)} keys"
+    text = repr(raw) if isinstance(raw, str | int | float | bool | None) else type(raw).__name__
+    return text if len(text) <= 60 else text[:57] + "..."
+
+
 SLUG = re.compile(r"^[A-Za-z0-9][A-Za-z0-9._-]{0,99}$")
 SPIN_KEYS = ("spin_1z", "spin_2z")
 
@@ -71,11 +81,11 @@ class Checker:
         return out
 
     def _unknown(self, data: LineMap, name: object, keys: dict[str, Key], prefix: str) -> None:
-        close = difflib.get_close_matches(str(name), list(keys), n=1)
+        close = difflib.get_close_matches(str(name)[:60], list(keys), n=1)
         hint = (
             f" (did you mean '{close[0]}'?)" if close else f" (expected one of: {', '.join(keys)})"
         )
-        self.fail(data.line_of(name), f"{prefix}{name}", f"unknown key{hint}")
+        self.fail(data.line_of(name), f"{prefix}{str(name)[:60]}", f"unknown key{hint}")
 
     def value(self, raw: object, key: Key, path: str, line: int | None) -> Any:
         """Convert one value by the kind of its key; None after recording a problem."""
@@ -96,47 +106,49 @@ class Checker:
             return self.fail(
                 line,
                 path,
-                f"invalid id {raw!r} (expected a URL-safe slug of letters, "
+                f"invalid id {show(raw)} (expected a URL-safe slug of letters, "
                 "digits, '.', '_' and '-', e.g. DX-0412; no slashes)",
             )
         if raw in {".", ".."} or raw.startswith("."):
-            return self.fail(line, path, f"invalid id {raw!r} (must not start with '.')")
+            return self.fail(line, path, f"invalid id {show(raw)} (must not start with '.')")
         return raw
 
     def _choice(self, raw, key, path, line):
-        if raw not in key.choices:
-            close = difflib.get_close_matches(str(raw), key.choices, n=1)
+        if not isinstance(raw, str) or raw not in key.choices:
+            close = difflib.get_close_matches(show(raw), key.choices, n=1)
             hint = f"did you mean '{close[0]}'? " if close else ""
             return self.fail(
                 line,
                 path,
-                f"invalid value {raw!r} ({hint}expected one of: {', '.join(key.choices)})",
+                f"invalid value {show(raw)} ({hint}expected one of: {', '.join(key.choices)})",
             )
         return raw
 
     def _time(self, raw, key, path, line):
         if not isinstance(raw, str):
-            return self.fail(line, path, f"expected an ISO 8601 UTC time, got {raw!r}")
+            return self.fail(line, path, f"expected an ISO 8601 UTC time, got {show(raw)}")
         try:
             return parse_time(raw)
-        except ValueError:
+        except (ValueError, TypeError, OverflowError):
             return self.fail(
-                line, path, f"bad time {raw!r} (expected ISO 8601 UTC, e.g. 2034-04-12T07:26:41.2)"
+                line,
+                path,
+                f"bad time {show(raw)} (expected ISO 8601 UTC, e.g. 2034-04-12T07:26:41.2)",
             )
 
     def _number(self, raw, key, path, line):
         if isinstance(raw, bool):
-            return self.fail(line, path, f"expected a number, got {raw!r}")
+            return self.fail(line, path, f"expected a number, got {show(raw)}")
         try:
             x = float(raw)
-        except (TypeError, ValueError):
-            return self.fail(line, path, f"expected a number, got {raw!r}")
+        except (TypeError, ValueError, OverflowError):
+            return self.fail(line, path, f"expected a number, got {show(raw)}")
         return x if self._in_range(x, key, path, line, "") else None
 
     def _count(self, raw, key, path, line):
         if isinstance(raw, bool) or not isinstance(raw, int) or not 100 <= raw <= 1_000_000:
             return self.fail(
-                line, path, f"expected a whole number from 100 to 1000000, got {raw!r}"
+                line, path, f"expected a whole number from 100 to 1000000, got {show(raw)}"
             )
         return raw
 
@@ -150,24 +162,31 @@ class Checker:
             return self.fail(
                 line,
                 path,
-                f"unknown cosmology {raw!r} ({hint}expected an astropy "
+                f"unknown cosmology {show(raw)} ({hint}expected an astropy "
                 f"realisation: {', '.join(names)})",
             )
         return raw
 
     def _path(self, raw, key, path, line):
-        if not isinstance(raw, str) or not raw.strip():
-            return self.fail(line, path, f"expected a file name, got {raw!r}")
-        target = (self.base / raw).resolve()
-        if self.root is not None and not target.is_relative_to(self.root.resolve()):
-            return self.fail(line, path, f"{raw!r} points outside the catalogue folder")
-        if not target.is_file():
-            return self.fail(line, path, f"samples file {raw!r} not found (looked in {self.base})")
+        if not isinstance(raw, str) or not raw.strip() or "\x00" in raw:
+            return self.fail(line, path, f"expected a file name, got {show(raw)}")
+        try:
+            target = (self.base / raw).resolve()
+            inside = self.root is None or target.is_relative_to(self.root.resolve())
+            found = target.is_file()
+        except (OSError, RuntimeError) as exc:
+            return self.fail(line, path, f"bad file name {show(raw)} ({exc.__class__.__name__})")
+        if not inside:
+            return self.fail(line, path, f"{show(raw)} points outside the catalogue folder")
+        if not found:
+            return self.fail(
+                line, path, f"samples file {show(raw)} not found (looked in {self.base})"
+            )
         try:
             with target.open("rb") as handle:
                 handle.read(1)
         except OSError as exc:
-            return self.fail(line, path, f"samples file {raw!r} unreadable ({exc.strerror})")
+            return self.fail(line, path, f"samples file {show(raw)} unreadable ({exc.strerror})")
         return target
 
     def _labels(self, raw, key, path, line):
@@ -311,7 +330,7 @@ class Checker:
                 self.fail(
                     raw.line_of(name),
                     f"{path}.{name}",
-                    f"expected a positive whole number, got {value!r}",
+                    f"expected a positive whole number, got {show(value)}",
                 )
             else:
                 out[name] = value

@@ -6,13 +6,17 @@ catalogue is checked before :class:`~factsheet.errors.InputError` is raised with
 
 from __future__ import annotations
 
+from math import inf
 from pathlib import Path
+
+import astropy.units as u
 
 from factsheet import fields
 from factsheet.errors import InputError, Problem
 from factsheet.model import Catalogue, Event, Settings
+from factsheet.samples import check_samples_csv
 from factsheet.schema import CATALOGUE_KEYS, EVENT_KEYS
-from factsheet.yamlread import Limits, LineMap, YamlProblem, read_yaml
+from factsheet.yamlread import Limits, LineMap, YamlProblem, read_limited, read_yaml
 
 CATALOGUE_FILE = "catalogue.yaml"
 EVENT_SUFFIXES = (".yaml", ".yml")
@@ -55,7 +59,7 @@ def event_files(root: Path, problems: list[Problem]) -> list[Path]:
 
 def _read_mapping(path: Path, problems: list[Problem], limits: Limits) -> LineMap | None:
     try:
-        data = read_yaml(path.read_bytes(), limits)
+        data = read_yaml(read_limited(path, limits.max_file_bytes), limits)
     except YamlProblem as exc:
         problems.append(Problem(path, exc.line, exc.key, str(exc)))
         return None
@@ -77,6 +81,9 @@ def load_settings(path: Path, problems: list[Problem]) -> Settings:
     """Read ``catalogue.yaml`` if present; defaults otherwise."""
     if not path.exists():
         return Settings()
+    if not path.resolve().is_relative_to(path.parent.resolve()):
+        problems.append(Problem(path, 1, "file", "link points outside the catalogue folder"))
+        return Settings()
     data = _read_mapping(path, problems, Limits())
     if data is None:
         return Settings()
@@ -86,8 +93,9 @@ def load_settings(path: Path, problems: list[Problem]) -> Settings:
     return settings
 
 
-def _check_reference_overrides(path: Path, data: LineMap, settings: Settings,
-                               problems: list[Problem]) -> None:
+def _check_reference_overrides(
+    path: Path, data: LineMap, settings: Settings, problems: list[Problem]
+) -> None:
     """Report bad ``mass_bands``/``comparisons`` overrides at check time, with their line."""
     from factsheet.derive import reference_for
 
@@ -107,10 +115,41 @@ def load_event(path: Path, root: Path, settings: Settings, problems: list[Proble
     before = len(problems)
     check = fields.Checker(path, problems, base=path.parent, root=root)
     values = check.mapping(data, EVENT_KEYS, prefix="")
+    if "parameters" in values:
+        _check_redshift(check, data["parameters"], values["parameters"], settings.cosmology)
+    if "samples" in values:
+        check_samples_csv(values["samples"], settings.limits.max_sample_rows, problems)
     if len(problems) > before:
         return None
     values.setdefault("title", values["id"])
     return Event(source=path, line=data.line_of("id") or 1, **values)
+
+
+def _check_redshift(check: fields.Checker, raw: LineMap, parameters, cosmology: str) -> None:
+    """The given redshift's median must lie in the range the distance interval implies."""
+    if "redshift" not in parameters or "luminosity_distance" not in parameters:
+        return
+    d, z = parameters["luminosity_distance"], parameters["redshift"]
+    z_low, z_high = (_redshift_or(x, cosmology, edge) for x, edge in ((d.low, 0.0), (d.high, inf)))
+    slack = 1e-3 + 0.01 * z.median  # values are written rounded to a few digits
+    if not z_low - slack <= z.median <= z_high + slack:
+        check.fail(
+            raw.line_of("redshift"),
+            "parameters.redshift",
+            f"redshift {z.median:g} disagrees with the luminosity distance "
+            f"{d.median:g} +{d.plus:g} -{d.minus:g} Mpc, which implies {z_low:.3g} to "
+            f"{z_high:.3g} under {cosmology} (fix one, or leave the redshift out)",
+        )
+
+
+def _redshift_or(distance_mpc: float, cosmology: str, edge: float) -> float:
+    """Redshift at a distance (astropy; Hogg 1999), or ``edge`` outside the redshift table."""
+    from factsheet.physics.cosmology import redshift_at_distance
+
+    try:
+        return float(redshift_at_distance(distance_mpc * u.Mpc, cosmology))
+    except ValueError:
+        return edge
 
 
 def _check_unique_ids(events: list[Event], problems: list[Problem]) -> None:

@@ -29,6 +29,11 @@ class Settings:
     mass_bands: dict[str, Any] = field(default_factory=dict)
     comparisons: dict[str, Any] = field(default_factory=dict)
     energy_units: str = "SI"
+    # 12 km: current radius estimates span about 11-13 km (from memory; METHODS.md section 12)
+    neutron_star_radius: u.Quantity = field(default_factory=lambda: 12.0 * u.km)
+    # thresholds of the low-significance and large-sky-area caveats (common practice)
+    low_significance_rate: u.Quantity = field(default_factory=lambda: 1.0 / u.yr)
+    large_sky_area: u.Quantity = field(default_factory=lambda: 1000.0 * u.deg**2)
     limits: Limits = field(default_factory=Limits)
 
     def fingerprint(self) -> str:
@@ -43,6 +48,10 @@ class Settings:
                 self.arm_length.to_value(u.m),
                 sorted(self.mass_bands.items()),
                 sorted(self.comparisons.items()),
+                self.energy_units,
+                self.neutron_star_radius.to_value(u.km),
+                self.low_significance_rate.to_value(1 / u.yr),
+                self.large_sky_area.to_value(u.deg**2),
             )
         )
 

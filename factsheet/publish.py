@@ -41,7 +41,8 @@ class Staging:
                 f"{self.out}: refusing to replace a folder that factsheet did not "
                 "make (choose another output folder, or pass --force)"
             )
-        self.folder = Path(tempfile.mkdtemp(prefix=".factsheet-new-", dir=self.out.parent))
+        self.folder = Path(tempfile.mkdtemp(prefix=f".factsheet-new-{self.out.name}-",
+                                            dir=self.out.parent))
         self.committed = False
 
     def write(self, name: str, content: bytes) -> None:
@@ -104,7 +105,7 @@ def replaceable(out: Path) -> bool:
 
 def recover(out: Path) -> None:
     """Undo what an interrupted earlier swap left behind next to ``out``."""
-    for stale in out.parent.glob(".factsheet-new-*"):
+    for stale in out.parent.glob(f".factsheet-new-{out.name}-*"):
         shutil.rmtree(stale, ignore_errors=True)
     olds = sorted(out.parent.glob(f".factsheet-old-{out.name}-*"))
     if olds and not out.exists():

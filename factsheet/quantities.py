@@ -73,12 +73,19 @@ def parse_unit(text: str) -> u.UnitBase:
     if not text:
         return u.dimensionless_unscaled
     try:
-        return u.Unit(UNIT_ALIASES.get(text, text))
-    except ValueError:
-        raise ValueParseError(f"unknown unit {text!r}") from None
+        unit = u.Unit(UNIT_ALIASES.get(text, text))
+    except (ValueError, TypeError, ArithmeticError, KeyError):
+        raise ValueParseError(f"unknown unit {text[:60]!r}") from None
+    if not isinstance(unit, u.UnitBase):
+        raise ValueParseError(f"{text[:60]!r} is a logarithmic unit (expected a plain unit)")
+    return unit
 
 
-def _finite(x: float, what: str) -> float:
+def _finite(x: float | str, what: str) -> float:
+    try:
+        x = float(x)
+    except OverflowError:
+        raise ValueParseError(f"{what} is too large for a number") from None
     if not math.isfinite(x):
         raise ValueParseError(f"{what} must be a finite number, got {x}")
     return x
@@ -89,7 +96,7 @@ def parse_estimate(value: object) -> Estimate:
     if isinstance(value, bool):
         raise ValueParseError("expected a number or 'MEDIAN +PLUS -MINUS UNIT', got a boolean")
     if isinstance(value, int | float):
-        return Estimate(_finite(float(value), "value"), 0.0, 0.0, u.dimensionless_unscaled)
+        return Estimate(_finite(value, "value"), 0.0, 0.0, u.dimensionless_unscaled)
     if isinstance(value, dict):
         return _parse_mapping(value)
     if not isinstance(value, str):
@@ -97,26 +104,32 @@ def parse_estimate(value: object) -> Estimate:
     return _parse_text(value)
 
 
+MAX_TEXT = 200  # longer value strings are refused before any pattern is tried on them
+
+
 def _parse_text(text: str) -> Estimate:
+    if len(text) > MAX_TEXT:
+        raise ValueParseError(f"value text is {len(text)} characters long (at most {MAX_TEXT})")
     if m := _INTERVAL.match(text):
-        median, plus, minus = (_finite(float(g), "value") for g in m.groups()[:3])
+        median, plus, minus = (_finite(g, "value") for g in m.groups()[:3])
         if plus < 0 or minus < 0:
-            raise ValueParseError(f"interval offsets must be non-negative in {text!r}")
+            raise ValueParseError(f"interval offsets must be non-negative in {text[:80]!r}")
         return Estimate(median, plus, minus, parse_unit(m.group(4)))
     if "+" in text or re.search(rf"{_NUMBER}\s+-", text):
         raise ValueParseError(
-            f"malformed interval {text!r} (expected 'MEDIAN +PLUS -MINUS UNIT', e.g. '42 +7 -5 Msun')"
+            f"malformed interval {text[:80]!r} "
+            "(expected 'MEDIAN +PLUS -MINUS UNIT', e.g. '42 +7 -5 Msun')"
         )
     if m := _RATE.match(text):
-        count = _finite(float(m.group(1)), "count")
-        per = _finite(float(m.group(2) or 1.0), "time")
+        count = _finite(m.group(1), "count")
+        per = _finite(m.group(2) or 1.0, "time")
         if per == 0:
-            raise ValueParseError(f"division by zero in {text!r}")
-        return Estimate(count / per, 0.0, 0.0, parse_unit(m.group(3)) ** -1)
+            raise ValueParseError(f"division by zero in {text[:80]!r}")
+        return Estimate(_finite(count / per, "rate"), 0.0, 0.0, parse_unit(m.group(3)) ** -1)
     if m := _EXACT.match(text):
-        return Estimate(_finite(float(m.group(1)), "value"), 0.0, 0.0, parse_unit(m.group(2)))
+        return Estimate(_finite(m.group(1), "value"), 0.0, 0.0, parse_unit(m.group(2)))
     raise ValueParseError(
-        f"cannot read {text!r} (expected 'MEDIAN +PLUS -MINUS UNIT' or 'VALUE UNIT')"
+        f"cannot read {text[:80]!r} (expected 'MEDIAN +PLUS -MINUS UNIT' or 'VALUE UNIT')"
     )
 
 
@@ -134,7 +147,7 @@ def _parse_mapping(value: dict) -> Estimate:
         x = value.get(name, 0.0)
         if isinstance(x, bool) or not isinstance(x, int | float):
             raise ValueParseError(f"'{name}' must be a number, got {x!r}")
-        numbers.append(_finite(float(x), name))
+        numbers.append(_finite(x, name))
     if numbers[1] < 0 or numbers[2] < 0:
         raise ValueParseError("'plus' and 'minus' must be non-negative")
     unit = value.get("unit", "")

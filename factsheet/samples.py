@@ -13,6 +13,7 @@ from __future__ import annotations
 import csv
 import math
 import re
+from array import array
 from pathlib import Path
 
 import astropy.units as u
@@ -23,6 +24,7 @@ from factsheet.errors import InputError, Problem
 from factsheet.model import Parameters
 from factsheet.quantities import Estimate, ValueParseError, parse_unit
 from factsheet.schema import PARAMETER_KEYS
+from factsheet.yamlread import Limits
 
 LIMITS = {
     "mass_1": (0.0, math.inf),
@@ -91,75 +93,119 @@ def order_components(values: dict[str, np.ndarray]) -> dict[str, np.ndarray]:
     return out
 
 
-def read_samples_csv(path: Path, max_rows: int = 1_000_000) -> dict[str, np.ndarray]:
+MAX_LINE = 4096  # characters in one CSV line; seven numbers need far fewer
+
+
+def read_samples_csv(path: Path, max_rows: int = Limits().max_sample_rows) -> dict[str, np.ndarray]:
     """Read a samples CSV whose header cells are ``name [unit]``; values in canonical units."""
-    problems: list[Problem] = []
+    lines = _BoundedLines(None)
     try:
-        with path.open(newline="", encoding="utf-8") as handle:
-            reader = csv.reader(handle)
-            header = next(_data_rows(reader), None)
-            if header is None:
-                raise InputError(problems=[Problem(path, 1, "", "samples file is empty")])
-            columns = _read_header(path, header, problems)
-            if problems:
-                raise InputError(problems=problems)
-            rows, lines = _read_rows(path, reader, len(header), max_rows)
+        with Path(path).open(newline="", encoding="utf-8") as handle:
+            lines.handle = handle
+            return _read_table(path, csv.reader(lines), max_rows)
     except UnicodeDecodeError:
-        raise InputError(
-            problems=[Problem(path, None, "", "samples file is not UTF-8 text")]
-        ) from None
+        lines.line += 1
+        message = "samples file is not UTF-8 text"
+    except csv.Error as exc:
+        message = f"not valid CSV ({exc})"
     except OSError as exc:
-        raise InputError(
-            problems=[Problem(path, None, "", f"cannot read ({exc.strerror})")]
-        ) from None
-    data = np.asarray(rows, dtype=float).reshape(-1, len(header))
+        message = f"cannot read ({exc.strerror})"
+    raise InputError(problems=[Problem(path, max(lines.line, 1), "file", message)]) from None
+
+
+def check_samples_csv(path: Path, max_rows: int, problems: list[Problem]) -> None:
+    """Read and validate a samples CSV for the load stage; record problems, keep no arrays."""
+    try:
+        read_samples_csv(path, max_rows)
+    except InputError as exc:
+        problems.extend(exc.problems)
+
+
+class _BoundedLines:
+    """Lines of a text file, refusing NUL bytes and lines longer than :data:`MAX_LINE`."""
+
+    def __init__(self, handle):
+        self.handle, self.line = handle, 0
+
+    def __iter__(self):
+        while text := self.handle.readline(MAX_LINE + 1):
+            self.line += 1
+            if "\x00" in text:
+                raise csv.Error("the file contains NUL bytes (binary, not CSV)")
+            if len(text) > MAX_LINE and not text.endswith("\n"):
+                raise csv.Error(f"a line longer than {MAX_LINE} characters")
+            yield text
+
+
+def _read_table(path: Path, reader, max_rows: int) -> dict[str, np.ndarray]:
+    header = next(_data_rows(reader), None)
+    if header is None:
+        raise InputError(problems=[Problem(path, 1, "file", "samples file is empty")])
+    problems: list[Problem] = []
+    columns = _read_header(path, header, problems, reader.line_num)
+    if problems:
+        raise InputError(problems=problems)
+    flat, lines = _read_rows(path, reader, len(header), max_rows)
+    data = np.frombuffer(flat, dtype=float).reshape(-1, len(header))
     out = {name: data[:, i] * factor for i, (name, factor) in columns.items()}
     _check_values(path, out, lines)
     return order_components(out)
 
 
 def _read_header(
-    path: Path, header: list[str], problems: list[Problem]
+    path: Path, header: list[str], problems: list[Problem], line: int = 1
 ) -> dict[int, tuple[str, float]]:
     columns: dict[int, tuple[str, float]] = {}
-    seen = set()
+    seen: set[str] = set()
     for i, cell in enumerate(header):
         m = HEADER_CELL.match(cell)
         name = m.group(1) if m else cell
+        if name in seen:
+            problems.append(Problem(path, line, name, "column given twice"))
+            continue
         seen.add(name)
         if not m or name not in PARAMETER_KEYS:
             problems.append(
                 Problem(
                     path,
-                    1,
-                    f"column {cell!r}",
+                    line,
+                    f"column {cell[:60]!r}",
                     "unknown column (expected "
                     f"'name [unit]' with a name from: {', '.join(PARAMETER_KEYS)})",
                 )
             )
             continue
-        key = PARAMETER_KEYS[name]
-        try:
-            unit = parse_unit(m.group(2) or "")
-        except ValueParseError as exc:
-            problems.append(Problem(path, 1, name, str(exc)))
-            continue
-        if unit.physical_type != (key.physical_type or "dimensionless"):
-            problems.append(
-                Problem(
-                    path,
-                    1,
-                    name,
-                    f"unit {unit or 'none'} is not a "
-                    f"{key.physical_type} (e.g. '{name} [{key.canonical_unit}]')",
-                )
-            )
-            continue
-        columns[i] = (name, unit.to(key.canonical_unit or u.dimensionless_unscaled))
+        if (column := _column(path, name, m.group(2) or "", line, problems)) is not None:
+            columns[i] = column
     missing = [c for c in REQUIRED_COLUMNS if c not in seen]
     if missing:
-        problems.append(Problem(path, 1, "header", f"missing column(s): {', '.join(missing)}"))
+        problems.append(Problem(path, line, "header", f"missing column(s): {', '.join(missing)}"))
+    if "chi_eff" in seen and seen & {"spin_1z", "spin_2z"}:
+        problems.append(
+            Problem(path, line, "chi_eff", "give either chi_eff or spin_1z/spin_2z, not both")
+        )
     return columns
+
+
+def _column(path: Path, name: str, unit_text: str, line: int, problems: list[Problem]):
+    key = PARAMETER_KEYS[name]
+    try:
+        unit = parse_unit(unit_text)
+    except ValueParseError as exc:
+        problems.append(Problem(path, line, name, str(exc)))
+        return None
+    if unit.physical_type != (key.physical_type or "dimensionless"):
+        problems.append(
+            Problem(
+                path,
+                line,
+                name,
+                f"unit {unit or 'none'} is not a "
+                f"{key.physical_type} (e.g. '{name} [{key.canonical_unit}]')",
+            )
+        )
+        return None
+    return name, unit.to(key.canonical_unit or u.dimensionless_unscaled)
 
 
 def _data_rows(reader):
@@ -169,36 +215,31 @@ def _data_rows(reader):
             yield row
 
 
-def _read_rows(path: Path, reader, width: int, max_rows: int) -> tuple[list, list[int]]:
-    rows, lines = [], []
+def _row_problem(path: Path, line: int, message: str) -> InputError:
+    return InputError(problems=[Problem(path, line, "row", message)])
+
+
+def _read_rows(path: Path, reader, width: int, max_rows: int) -> tuple[array, array]:
+    flat, lines = array("d"), array("q")
     for row in _data_rows(reader):
         line = reader.line_num
-        lines.append(line)
-        if len(rows) >= max_rows:
-            raise InputError(
-                problems=[
-                    Problem(
-                        path,
-                        line,
-                        "",
-                        f"more than {max_rows} rows "
-                        "(raise limits.max_sample_rows in catalogue.yaml)",
-                    )
-                ]
+        if len(lines) >= max_rows:
+            raise _row_problem(
+                path,
+                line,
+                f"more than {max_rows} rows (raise limits.max_sample_rows "
+                "in catalogue.yaml if this is intended)",
             )
         if len(row) != width:
-            raise InputError(
-                problems=[Problem(path, line, "", f"{len(row)} cells, expected {width}")]
-            )
+            raise _row_problem(path, line, f"{len(row)} cells, expected {width}")
         try:
-            rows.append([float(x) for x in row])
+            flat.extend(float(x) for x in row)
         except ValueError:
-            raise InputError(
-                problems=[Problem(path, line, "", f"not a number in {row!r}")]
-            ) from None
-    if not rows:
-        raise InputError(problems=[Problem(path, 2, "", "no sample rows after the header")])
-    return rows, lines
+            raise _row_problem(path, line, f"not a number in {row!r}"[:200]) from None
+        lines.append(line)
+    if not lines:
+        raise InputError(problems=[Problem(path, 2, "row", "no sample rows after the header")])
+    return flat, lines
 
 
 def _check_values(path: Path, values: dict[str, np.ndarray], lines: list[int]) -> None:

@@ -200,5 +200,31 @@ CATALOGUE_KEYS: dict[str, Key] = {
     "mass_bands": Key("mapping", "overrides of the packaged mass-band edges"),
     "comparisons": Key("mapping", "overrides or additions to the packaged comparison objects"),
     "energy_units": Key("choice", "units for energies on pages", choices=("SI", "cgs")),
-    "limits": Key("limits", "guards on input size: max_file_bytes, max_depth, max_aliases"),
+    "neutron_star_radius": Key(
+        "quantity",
+        "assumed neutron-star radius for the tidal-disruption estimate",
+        physical_type="length",
+        example="12 km",
+        low=0.0,
+        canonical_unit="km",
+    ),
+    "low_significance_rate": Key(
+        "quantity",
+        "false-alarm rate above which a sheet calls the event marginal",
+        physical_type="frequency",
+        example="1 / yr",
+        low=0.0,
+        canonical_unit="1/yr",
+    ),
+    "large_sky_area": Key(
+        "quantity",
+        "sky area above which a sheet says the localisation is poor",
+        physical_type="solid angle",
+        example="1000 deg2",
+        low=0.0,
+        canonical_unit="deg2",
+    ),
+    "limits": Key(
+        "limits", "guards on input size: max_file_bytes, max_depth, max_aliases, max_sample_rows"
+    ),
 }

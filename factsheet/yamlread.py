@@ -8,7 +8,9 @@ astropy), so ``2034-04-12T07:26:41.2`` keeps its decimal second.
 
 from __future__ import annotations
 
+import re
 from dataclasses import dataclass
+from pathlib import Path
 
 import yaml
 from yaml.events import AliasEvent
@@ -21,6 +23,7 @@ class Limits:
     max_file_bytes: int = 2_000_000
     max_depth: int = 32
     max_aliases: int = 100
+    max_sample_rows: int = 1_000_000
 
 
 class YamlProblem(ValueError):
@@ -110,29 +113,59 @@ def _make_loader(limits: Limits) -> type[yaml.SafeLoader]:
     return Loader
 
 
+def read_limited(path: Path, max_bytes: int) -> bytes:
+    """Read at most ``max_bytes`` of a file; :class:`YamlProblem` when it is larger."""
+    with path.open("rb") as handle:
+        data = handle.read(max_bytes + 1)
+    if len(data) > max_bytes:
+        raise YamlProblem(_too_large(max_bytes), 1)
+    return data
+
+
+def _too_large(max_bytes: int) -> str:
+    return (
+        f"file is larger than the limit of {max_bytes} bytes "
+        "(raise limits.max_file_bytes in catalogue.yaml if this is intended)"
+    )
+
+
 def read_yaml(data: bytes, limits: Limits = Limits()) -> object:
     """Parse YAML bytes; raise :class:`YamlProblem` with the line of the first problem."""
-    if len(data) > limits.max_file_bytes:
-        raise YamlProblem(
-            f"file is {len(data)} bytes, larger than the limit of {limits.max_file_bytes} "
-            "(raise limits.max_file_bytes in catalogue.yaml if this is intended)"
-        )
+    if len(data) > limits.max_file_bytes:  # callers that read files use read_limited
+        raise YamlProblem(_too_large(limits.max_file_bytes), 1)
     try:
         text = data.decode("utf-8")
     except UnicodeDecodeError as exc:
         line = data[: exc.start].count(b"\n") + 1
-        raise YamlProblem("file is not UTF-8 text", line) from None
+        raise YamlProblem(
+            f"file is not UTF-8 text (bad byte at offset {exc.start})", line
+        ) from None
     if "\x00" in text:
         raise YamlProblem(
             "file contains NUL bytes (binary, not YAML)", text[: text.index("\x00")].count("\n") + 1
         )
     try:
         return yaml.load(text, Loader=_make_loader(limits))
-    except YamlProblem:
-        raise
+    except YamlProblem as exc:
+        raise YamlProblem(str(exc), exc.line, exc.key or _key_near(text, exc.line)) from None
     except yaml.MarkedYAMLError as exc:
         mark = exc.problem_mark or exc.context_mark
-        line = mark.line + 1 if mark else None
-        raise YamlProblem(f"not valid YAML: {exc.problem or exc.context}", line) from None
-    except (yaml.YAMLError, RecursionError) as exc:
-        raise YamlProblem(f"not valid YAML: {exc}") from None
+        line = mark.line + 1 if mark else 1
+        what = exc.problem or exc.context
+        raise YamlProblem(f"not valid YAML: {what}", line, _key_near(text, line)) from None
+    except (yaml.YAMLError, RecursionError, ValueError, TypeError, OverflowError) as exc:
+        raise YamlProblem(f"not valid YAML: {type(exc).__name__}", 1) from None
+
+
+_KEY_AT = re.compile(r"^[\s-]*([A-Za-z_][A-Za-z0-9_.-]*)\s*:")
+
+
+def _key_near(text: str, line: int | None) -> str:
+    """The key written on ``line`` or the nearest line above it, for locating a problem."""
+    if not line:
+        return ""
+    lines = text.splitlines()[: min(line, 10_000)]
+    for candidate in reversed(lines[-50:]):
+        if m := _KEY_AT.match(candidate):
+            return m.group(1)
+    return ""

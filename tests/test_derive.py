@@ -180,3 +180,17 @@ def test_editorial_caveats_kept_as_written():
 def test_api_reports_bad_input():
     with pytest.raises(InputError, match="mass_1"):
         derive(event(mass_1="36 +5 -4 Mpc"))
+
+
+def test_neutron_star_radius_and_thresholds_are_settings(tmp_path):
+    from factsheet.model import Settings
+
+    torn = event(mass_1="5.5 +0.3 -0.3 Msun", mass_2="1.4 +0.1 -0.1 Msun",
+                 spin_1z="0.8 +0.05 -0.05")
+    wide = derive(torn, Settings(neutron_star_radius=13 * u.km))
+    small = derive(torn, Settings(neutron_star_radius=10 * u.km))
+    # a larger star is less compact and easier to disrupt (Foucart, Hinderer & Nissanke 2018)
+    assert wide.disruption_probability >= small.disruption_probability
+    assert "13 km" in next(c.text for c in wide.caveats if c.code.startswith("neutron-star"))
+    strict = Settings(low_significance_rate=1 / (10_000 * u.yr), large_sky_area=100 * u.deg**2)
+    assert {"low-significance", "large-sky-area"} <= codes(derive(event(), strict))

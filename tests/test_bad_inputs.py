@@ -1,0 +1,393 @@
+"""Bad-input corpus, end to end through the command line in a subprocess.
+
+Every case writes a small catalogue, runs ``factsheet check`` (or ``build``) and asserts exit
+status 1, a ``FILE:LINE: key:`` line naming the problem, and no traceback. The subprocesses run
+a few at a time in one module fixture, so the corpus stays quick on two cores.
+"""
+
+from __future__ import annotations
+
+import os
+import subprocess
+import sys
+from concurrent.futures import ThreadPoolExecutor
+from dataclasses import dataclass, field
+from pathlib import Path
+
+import pytest
+from helpers import VALID_EVENT
+
+HEADER = "mass_1 [Msun],mass_2 [Msun],luminosity_distance [Mpc]\n"
+
+
+def event(drop: tuple[str, ...] = (), **lines: str) -> str:
+    """VALID_EVENT with the line of each key replaced (``key=text``) or dropped."""
+    out = []
+    for text in VALID_EVENT.splitlines():
+        name = text.strip().split(":", 1)[0]
+        if name in drop:
+            continue
+        out.append(lines.get(name, text))
+    return "\n".join(out) + "\n"
+
+
+def with_samples(csv: str | bytes, name: str = "s.csv") -> dict:
+    return {"a.yaml": event() + f"samples: {name}\n", name: csv}
+
+
+def alias_bomb(levels: int, width: int) -> str:
+    rows = ["b0: &b0 [x, x]"]
+    for i in range(1, levels):
+        rows.append(f"b{i}: &b{i} [{', '.join([f'*b{i - 1}'] * width)}]")
+    return "\n".join(rows) + "\n"
+
+
+def nested(depth: int) -> str:
+    return "".join(f"{'  ' * i}k{i}:\n" for i in range(depth)) + f"{'  ' * depth}v: 1\n"
+
+
+@dataclass
+class Case:
+    files: dict
+    where: str  # "FILE:LINE: key:" with FILE relative to the catalogue folder
+    words: str  # a fragment of the message
+    command: str = "check"
+    links: dict = field(default_factory=dict)  # name -> target outside the catalogue
+
+
+BOMB = alias_bomb(5, 30)  # more than 100 aliases
+SMALL_BOMB = alias_bomb(9, 9)  # 73 aliases, 9**8 leaves if expanded
+CASES = {
+    # -- YAML syntax and size -------------------------------------------------------------
+    "yaml_unclosed_bracket": Case(
+        {"a.yaml": event(detectors="detectors: [A1, B1")}, "a.yaml:14: sky_area:", "not valid YAML"
+    ),
+    "yaml_tab_indent": Case(
+        {"a.yaml": event(mass_2="\tmass_2: 29 Msun")}, "a.yaml:7:", "not valid YAML"
+    ),
+    "yaml_bad_indent": Case(
+        {"a.yaml": event(mass_2="     mass_2: 29 Msun")}, "a.yaml:7: mass_2:", "not valid YAML"
+    ),
+    "alias_count": Case({"a.yaml": BOMB + event()}, "a.yaml:5: b4:", "more than 100 YAML aliases"),
+    "alias_into_status": Case(
+        {"a.yaml": SMALL_BOMB + event(status="status: *b8")}, "a.yaml:13: status:", "invalid value"
+    ),
+    "alias_into_mass": Case(
+        {"a.yaml": SMALL_BOMB + event(mass_1="  mass_1: *b8")},
+        "a.yaml:15: parameters.mass_1:",
+        "expected",
+    ),
+    "enormous_file": Case({"a.yaml": event() + "#" * 2_100_000 + "\n"}, "a.yaml:1:", "limit"),
+    "deep_nesting_block": Case({"a.yaml": event() + nested(40)}, "a.yaml:", "nesting deeper"),
+    "deep_nesting_flow": Case(
+        {"a.yaml": event(detectors="detectors: " + "[" * 5000 + "]" * 5000)},
+        "a.yaml:13: detectors:",
+        "nesting deeper",
+    ),
+    "duplicate_key_top": Case({"a.yaml": event() + "snr: 9\n"}, "a.yaml:16: snr:", "duplicate key"),
+    "duplicate_key_nested": Case(
+        {"a.yaml": event(spin_2z="  mass_1: 30 Msun")},
+        "a.yaml:9: mass_1:",
+        "duplicate key (first given on line 6)",
+    ),
+    "duplicate_id_across_files": Case(
+        {"a.yaml": event(), "sub/b.yaml": event()}, "sub/b.yaml:1: id:", "duplicate id 'TEST-1'"
+    ),
+    "not_utf8": Case({"a.yaml": event().encode() + b"title2: caf\xe9\n"}, "a.yaml:16:", "UTF-8"),
+    "binary_file": Case({"a.yaml": b"\x89PNG\r\n\x1a\n\x00\x00\x00\rIHDR"}, "a.yaml:1:", "UTF-8"),
+    "nul_bytes": Case({"a.yaml": event().encode() + b"x: \x00\n"}, "a.yaml:16:", "NUL"),
+    "empty_file": Case({"a.yaml": ""}, "a.yaml:1:", "empty"),
+    "top_level_list": Case({"a.yaml": "- 1\n- 2\n"}, "a.yaml:1:", "mapping"),
+    # -- leaving the catalogue and the output folder --------------------------------------
+    "symlink_outside": Case(
+        {"a.yaml": event()}, "b.yaml:", "outside the catalogue", links={"b.yaml": "outside.yaml"}
+    ),
+    "samples_path_escapes": Case(
+        {"a.yaml": event() + "samples: ../outside.csv\n"}, "a.yaml:16: samples:", "outside"
+    ),
+    "samples_symlink_outside": Case(
+        {"a.yaml": event() + "samples: s.csv\n"},
+        "a.yaml:16: samples:",
+        "outside",
+        links={"s.csv": "outside.csv"},
+    ),
+    "id_with_dots": Case({"a.yaml": event(id="id: ../../etc")}, "a.yaml:1: id:", "invalid id"),
+    "id_absolute": Case({"a.yaml": event(id="id: /tmp/x")}, "a.yaml:1: id:", "no slashes"),
+    "id_dotdot": Case({"a.yaml": event(id='id: ".."')}, "a.yaml:1: id:", "invalid id"),
+    "id_hidden": Case({"a.yaml": event(id="id: .site")}, "a.yaml:1: id:", "invalid id '.site'"),
+    "id_build": Case(
+        {"a.yaml": event(id="id: ../escape")}, "a.yaml:1: id:", "invalid id", command="build"
+    ),
+    # -- wrong types, units and ranges ------------------------------------------------------
+    "mass_list": Case(
+        {"a.yaml": event(mass_1="  mass_1: [36, 5]")}, "a.yaml:6: parameters.mass_1:", "expected"
+    ),
+    "mass_no_unit": Case(
+        {"a.yaml": event(mass_1="  mass_1: 36 +5 -4")},
+        "a.yaml:6: parameters.mass_1:",
+        "missing unit",
+    ),
+    "mass_wrong_unit": Case(
+        {"a.yaml": event(mass_1="  mass_1: 36 +5 -4 Mpc")},
+        "a.yaml:6: parameters.mass_1:",
+        "expected a mass",
+    ),
+    "distance_in_kg": Case(
+        {"a.yaml": event(luminosity_distance="  luminosity_distance: 440 kg")},
+        "a.yaml:10: parameters.luminosity_distance:",
+        "expected a length",
+    ),
+    "unknown_unit": Case(
+        {"a.yaml": event(mass_1="  mass_1: 36 Msol")},
+        "a.yaml:6: parameters.mass_1:",
+        "unknown unit",
+    ),
+    "log_unit": Case(
+        {"a.yaml": event(mass_1="  mass_1: 36 dex(Msun)")},
+        "a.yaml:6: parameters.mass_1:",
+        "logarithmic",
+    ),
+    "spin_out_of_range": Case(
+        {"a.yaml": event(spin_1z="  spin_1z: 1.5")}, "a.yaml:8: parameters.spin_1z:", "out of range"
+    ),
+    "negative_mass": Case(
+        {"a.yaml": event(mass_2="  mass_2: -3 Msun")},
+        "a.yaml:7: parameters.mass_2:",
+        "out of range",
+    ),
+    "snr_nan": Case({"a.yaml": event(snr="snr: .nan")}, "a.yaml:12: snr:", "finite"),
+    "interval_inf": Case(
+        {"a.yaml": event(mass_1="  mass_1: 36 +inf -4 Msun")},
+        "a.yaml:6: parameters.mass_1:",
+        "expected",
+    ),
+    "huge_exponent": Case(
+        {"a.yaml": event(mass_1="  mass_1: 36e999 Msun")}, "a.yaml:6: parameters.mass_1:", "finite"
+    ),
+    "huge_integer": Case(
+        {"a.yaml": event(mass_1="  mass_1: {median: " + "9" * 400 + ", unit: Msun}")},
+        "a.yaml:6: parameters.mass_1:",
+        "too large",
+    ),
+    "long_value_text": Case(
+        {"a.yaml": event(mass_1="  mass_1: " + "1" * 5000 + " Msun")},
+        "a.yaml:6: parameters.mass_1:",
+        "characters long",
+    ),
+    "bad_time": Case({"a.yaml": event(time='time: "2034-13-45"')}, "a.yaml:3: time:", "bad time"),
+    "time_number": Case({"a.yaml": event(time="time: 12")}, "a.yaml:3: time:", "ISO 8601"),
+    "missing_parameters": Case(
+        {
+            "a.yaml": event(
+                drop=("parameters", "mass_1", "mass_2", "spin_1z", "spin_2z", "luminosity_distance")
+            )
+        },
+        "a.yaml:1: parameters:",
+        "missing required key",
+    ),
+    "typo_key": Case({"a.yaml": event(snr="snrr: 14")}, "a.yaml:12: snrr:", "did you mean 'snr'"),
+    "bad_status": Case(
+        {"a.yaml": event(status="status: confimed")}, "a.yaml:4: status:", "did you"
+    ),
+    "history_not_list": Case(
+        {"a.yaml": event() + "history: 3\n"}, "a.yaml:16: history:", "list of earlier"
+    ),
+    "samples_path_nul": Case(
+        {"a.yaml": event() + 'samples: "a\\0b.csv"\n'}, "a.yaml:16: samples:", "file name"
+    ),
+    # -- contradictory inputs ---------------------------------------------------------------
+    "chi_eff_and_spins": Case(
+        {"a.yaml": event(luminosity_distance="  luminosity_distance: 440 Mpc\n  chi_eff: 0.1")},
+        "a.yaml:11: parameters.chi_eff:",
+        "not both",
+    ),
+    "redshift_disagrees": Case(
+        {"a.yaml": event(luminosity_distance="  luminosity_distance: 440 Mpc\n  redshift: 0.5")},
+        "a.yaml:11: parameters.redshift:",
+        "disagrees with the luminosity distance",
+    ),
+    "mass_order": Case(
+        {"a.yaml": event(mass_2="  mass_2: 50 Msun")}, "a.yaml:7: parameters.mass_2:", "exceeds"
+    ),
+    # -- settings ---------------------------------------------------------------------------
+    "unknown_cosmology": Case(
+        {"a.yaml": event(), "catalogue.yaml": "cosmology: Planck19\n"},
+        "catalogue.yaml:1: cosmology:",
+        "did you mean",
+    ),
+    "credible_level_range": Case(
+        {"a.yaml": event(), "catalogue.yaml": "credible_level: 1.5\n"},
+        "catalogue.yaml:1: credible_level:",
+        "out of range",
+    ),
+    "samples_count_text": Case(
+        {"a.yaml": event(), "catalogue.yaml": "samples: many\n"},
+        "catalogue.yaml:1: samples:",
+        "whole number",
+    ),
+    "limit_negative": Case(
+        {"a.yaml": event(), "catalogue.yaml": "limits:\n  max_depth: -1\n"},
+        "catalogue.yaml:2: limits.max_depth:",
+        "positive whole number",
+    ),
+    "limit_unknown": Case(
+        {"a.yaml": event(), "catalogue.yaml": "limits:\n  max_rows: 5\n"},
+        "catalogue.yaml:2: limits.max_rows:",
+        "did you mean 'max_sample_rows'",
+    ),
+    "settings_wrong_type": Case(
+        {"a.yaml": event(), "catalogue.yaml": "low_frequency: [20, Hz]\n"},
+        "catalogue.yaml:1: low_frequency:",
+        "expected",
+    ),
+    # -- samples files ------------------------------------------------------------------------
+    "samples_missing_column": Case(
+        with_samples("mass_1 [Msun],mass_2 [Msun]\n30,20\n"), "s.csv:1: header:", "missing column"
+    ),
+    "samples_bad_number": Case(
+        with_samples(HEADER + "30,20,400\n30,x,400\n"), "s.csv:3: row:", "not a number"
+    ),
+    "samples_wrong_unit": Case(
+        with_samples("mass_1 [Mpc],mass_2 [Msun],luminosity_distance [Mpc]\n30,20,400\n"),
+        "s.csv:1: mass_1:",
+        "not a mass",
+    ),
+    "samples_out_of_range": Case(
+        with_samples(HEADER + "30,20,400\n30,-2,400\n"), "s.csv:3: mass_2:", "physical range"
+    ),
+    "samples_too_many_rows": Case(
+        {
+            **with_samples(HEADER + "30,20,400\n" * 101),
+            "catalogue.yaml": "limits:\n  max_sample_rows: 100\n",
+        },
+        "s.csv:102: row:",
+        "more than 100 rows",
+    ),
+    "samples_million_rows": Case(
+        with_samples(HEADER + "30,20,400\n" * 1_000_001), "s.csv:1000002: row:", "max_sample_rows"
+    ),
+    "samples_binary": Case(with_samples(b"\x00\x01\x02\xff"), "s.csv:1: file:", "not"),
+    "samples_long_line": Case(with_samples(HEADER + "1," * 50_000), "s.csv:2: file:", "longer"),
+    "samples_chi_eff_and_spins": Case(
+        with_samples(
+            "mass_1 [Msun],mass_2 [Msun],luminosity_distance [Mpc],chi_eff,spin_1z\n"
+            "30,20,400,0.1,0.1\n"
+        ),
+        "s.csv:1: chi_eff:",
+        "not both",
+    ),
+    "samples_duplicate_column": Case(
+        with_samples("mass_1 [Msun],mass_2 [Msun],mass_2,luminosity_distance [Mpc]\n1,1,1,1\n"),
+        "s.csv:1: mass_2:",
+        "twice",
+    ),
+    "samples_empty": Case(with_samples(""), "s.csv:1: file:", "empty"),
+    "samples_in_build": Case(
+        with_samples(HEADER + "30,20,inf\n"),
+        "s.csv:2: luminosity_distance:",
+        "physical range",
+        command="build",
+    ),
+}
+
+
+def _write(root: Path, case: Case) -> Path:
+    folder = root / "cat"
+    for name, content in case.files.items():
+        path = folder / name
+        path.parent.mkdir(parents=True, exist_ok=True)
+        if isinstance(content, bytes):
+            path.write_bytes(content)
+        else:
+            path.write_text(content, encoding="utf-8")
+    folder.mkdir(parents=True, exist_ok=True)
+    for name, target in case.links.items():
+        (root / target).write_text(event(), encoding="utf-8")
+        os.symlink(root / target, folder / name)
+    return folder
+
+
+def _run(root: Path, case: Case) -> subprocess.CompletedProcess:
+    folder = _write(root, case)
+    extra = ["-o", str(root / "out")] if case.command == "build" else []
+    return subprocess.run(
+        [sys.executable, "-m", "factsheet.cli", case.command, str(folder), *extra],
+        capture_output=True,
+        text=True,
+        timeout=300,
+    )
+
+
+@pytest.fixture(scope="module")
+def results(tmp_path_factory):
+    """Run every case, a few subprocesses at a time."""
+    roots = {name: tmp_path_factory.mktemp(name) for name in CASES}
+    with ThreadPoolExecutor(max_workers=3) as pool:
+        futures = {name: pool.submit(_run, roots[name], c) for name, c in CASES.items()}
+        return {name: (roots[name] / "cat", f.result()) for name, f in futures.items()}
+
+
+def test_corpus_is_large_enough():
+    assert len(CASES) >= 40
+
+
+@pytest.mark.parametrize("name", list(CASES))
+def test_bad_input_is_reported_cleanly(results, name):
+    folder, result = results[name]
+    case = CASES[name]
+    assert result.returncode == 1, result.stdout + result.stderr
+    assert "Traceback" not in result.stderr
+    expected = f"error: {folder}/{case.where}"
+    lines = [line for line in result.stderr.splitlines() if line.startswith(expected)]
+    assert lines, f"no line starting {expected!r} in:\n{result.stderr}"
+    assert any(case.words in line for line in lines), result.stderr
+    assert len(result.stderr) < 20_000  # nothing echoes a huge or expanded input back
+
+
+def test_raised_limits_accept_what_the_defaults_refuse(tmp_path):
+    settings = (
+        "limits:\n  max_file_bytes: 3000000\n  max_depth: 60\n  max_aliases: 200\n"
+        "  max_sample_rows: 2000000\n"
+    )
+    labels = "detectors: [&d A1" + ", *d" * 150 + "]"
+    files = {"catalogue.yaml": settings, "a.yaml": event(detectors=labels) + "#" * 2_100_000}
+    result = _run(tmp_path, Case(files, "", ""))
+    assert result.returncode == 0, result.stderr
+    assert "no problems found" in result.stdout
+
+
+def test_failed_build_keeps_the_existing_site(tmp_path):
+    good = _run(tmp_path, Case({"a.yaml": event()}, "", "", command="build"))
+    assert good.returncode == 0, good.stderr
+    before = _snapshot(tmp_path / "out")
+    (tmp_path / "cat" / "a.yaml").write_text(event(snr="snr: -1"), encoding="utf-8")
+    bad = subprocess.run(
+        [
+            sys.executable,
+            "-m",
+            "factsheet.cli",
+            "build",
+            str(tmp_path / "cat"),
+            "-o",
+            str(tmp_path / "out"),
+        ],
+        capture_output=True,
+        text=True,
+    )
+    assert bad.returncode == 1 and "Traceback" not in bad.stderr
+    assert f"{tmp_path / 'cat' / 'a.yaml'}:12: snr:" in bad.stderr
+    assert _snapshot(tmp_path / "out") == before
+
+
+def test_missing_catalogue_folder(tmp_path):
+    result = subprocess.run(
+        [sys.executable, "-m", "factsheet.cli", "check", str(tmp_path / "nowhere")],
+        capture_output=True,
+        text=True,
+    )
+    assert result.returncode == 1 and "Traceback" not in result.stderr
+    assert "catalogue folder not found" in result.stderr
+
+
+def _snapshot(folder: Path) -> dict[str, bytes]:
+    return {str(p.relative_to(folder)): p.read_bytes() for p in folder.rglob("*") if p.is_file()}

@@ -1,0 +1,121 @@
+"""Nothing lost: builds killed with SIGKILL, failed builds, and folders factsheet did not make.
+
+After every kill the output folder holds either the earlier site, byte for byte, or the complete
+new one; never a mix. The next build succeeds and leaves no staging folder behind.
+"""
+
+from __future__ import annotations
+
+import os
+import random
+import shutil
+import signal
+import subprocess
+import sys
+import time
+from pathlib import Path
+
+from factsheet.resources import demo_dir
+
+DEMO_SUBSET = ("catalogue.yaml", "mer34-001.yaml", "mer34-001.csv")
+ENV = {**os.environ, "SOURCE_DATE_EPOCH": "2050000000"}
+
+
+def _command(catalogue: Path, out: Path, *extra: str) -> list[str]:
+    return [sys.executable, "-m", "factsheet.cli", "build", str(catalogue), "-o", str(out), *extra]
+
+
+def _build(catalogue: Path, out: Path, *extra: str) -> subprocess.CompletedProcess:
+    return subprocess.run(
+        _command(catalogue, out, *extra), capture_output=True, text=True, env=ENV, timeout=600
+    )
+
+
+def _snapshot(folder: Path) -> dict[str, bytes]:
+    return {
+        str(p.relative_to(folder)): p.read_bytes() for p in sorted(folder.rglob("*")) if p.is_file()
+    }
+
+
+def _catalogues(tmp_path: Path) -> tuple[Path, Path]:
+    old, new = tmp_path / "old", tmp_path / "new"
+    for folder in (old, new):
+        folder.mkdir()
+        for name in DEMO_SUBSET:
+            shutil.copy(demo_dir() / name, folder / name)
+    text = (new / "mer34-001.yaml").read_text(encoding="utf-8")
+    (new / "mer34-001.yaml").write_text(
+        text.replace("title: ", "title: Revised - ", 1), encoding="utf-8"
+    )
+    return old, new
+
+
+def test_sigkill_during_build_leaves_old_or_new_site(tmp_path):
+    old, new = _catalogues(tmp_path)
+    reference = tmp_path / "reference" / "site"
+    assert _build(new, reference).returncode == 0
+    expected_new = _snapshot(reference)
+    out = tmp_path / "pub" / "site"
+    start = time.monotonic()
+    assert _build(old, out).returncode == 0
+    duration = time.monotonic() - start
+    expected_old = _snapshot(out)
+    assert expected_old != expected_new
+    rng = random.Random(20340412)
+    outcomes = []
+    for fraction in (0.2, 0.5, 0.8, 0.95):
+        current = _snapshot(out)
+        process = subprocess.Popen(
+            _command(new, out), env=ENV, stdout=subprocess.DEVNULL, stderr=subprocess.DEVNULL
+        )
+        time.sleep(duration * fraction * rng.uniform(0.9, 1.1))
+        process.send_signal(signal.SIGKILL)
+        process.wait()
+        after = _snapshot(out)
+        assert after in (current, expected_new), f"mixed site after a kill at {fraction:.0%}"
+        outcomes.append(after == expected_new)
+        if after == expected_new:  # the swap completed: go back to the old site and go on
+            assert _build(old, out).returncode == 0
+    final = _build(new, out)
+    assert final.returncode == 0, final.stderr
+    assert _snapshot(out) == expected_new
+    assert not list(out.parent.glob(".factsheet-new-*"))
+    assert not list(out.parent.glob(".factsheet-old-*"))
+    assert len(outcomes) == 4
+
+
+def test_refuses_a_foreign_folder_unless_forced(tmp_path):
+    old, _ = _catalogues(tmp_path)
+    out = tmp_path / "mine"
+    out.mkdir()
+    (out / "notes.txt").write_text("not a site\n", encoding="utf-8")
+    refused = _build(old, out)
+    assert refused.returncode == 1 and "Traceback" not in refused.stderr
+    assert "refusing to replace" in refused.stderr and str(out) in refused.stderr
+    assert _snapshot(out) == {"notes.txt": b"not a site\n"}
+    assert not list(tmp_path.glob(".factsheet-new-*"))
+    forced = _build(old, out, "--force")
+    assert forced.returncode == 0, forced.stderr
+    assert (out / "index.html").is_file() and not (out / "notes.txt").exists()
+
+
+def test_placeholder_folder_is_replaced(tmp_path):
+    old, _ = _catalogues(tmp_path)
+    out = tmp_path / "site"
+    out.mkdir()
+    (out / "README.txt").write_text("placeholder\n", encoding="utf-8")
+    result = _build(old, out)
+    assert result.returncode == 0, result.stderr
+    assert (out / "index.html").is_file()
+
+
+def test_failed_build_leaves_existing_folder_whole(tmp_path):
+    old, _ = _catalogues(tmp_path)
+    out = tmp_path / "site"
+    assert _build(old, out).returncode == 0
+    before = _snapshot(out)
+    (old / "mer34-001.csv").write_text("mass_1 [Msun]\n1\n", encoding="utf-8")
+    failed = _build(old, out)
+    assert failed.returncode == 1 and "Traceback" not in failed.stderr
+    assert f"{old / 'mer34-001.csv'}:1: header:" in failed.stderr
+    assert _snapshot(out) == before
