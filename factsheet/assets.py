@@ -12,7 +12,6 @@ from dataclasses import dataclass, field, replace
 
 import astropy.units as u
 
-from factsheet import site_figures
 from factsheet.audio import chirp_wav
 from factsheet.derive import Derived, derive_event
 from factsheet.model import Event, Settings
@@ -28,6 +27,17 @@ class FigureInfo:
     caption: str
 
 
+@dataclass(frozen=True)
+class SiteFigure:
+    """One rendered figure: its site-relative path, SVG bytes, alt text and caption."""
+
+    path: str
+    svg: bytes
+    alt: str
+    caption: str
+    seconds: float = 0.0
+
+
 @dataclass
 class EventBundle:
     """A derived event (samples dropped) and its asset files, ready for the pages."""
@@ -38,6 +48,7 @@ class EventBundle:
     audio_description: str
     files: dict[str, bytes] = field(default_factory=dict)
     figure_seconds: float = 0.0
+    key: str = ""  # the build cache's key of this event, set by the cache
 
     def without_files(self) -> EventBundle:
         return replace(self, files={})
@@ -45,6 +56,8 @@ class EventBundle:
 
 def event_bundle(event: Event, settings: Settings, reference: Reference) -> EventBundle:
     """Derive one event and make its figures and chirp sound."""
+    from factsheet import site_figures  # matplotlib loads only where figures are drawn
+
     item = derive_event(event, settings, reference)
     drawn = site_figures.event_figures(item)
     files = {fig.path: fig.svg for fig in drawn}

@@ -19,8 +19,7 @@ from pathlib import Path
 
 from astropy.time import Time
 
-from factsheet import site_figures
-from factsheet.assets import EventBundle, event_bundle
+from factsheet.assets import EventBundle, SiteFigure, event_bundle
 from factsheet.cache import Cache, cached_files, content_key, event_key
 from factsheet.derive import reference_for
 from factsheet.errors import BuildError, Problem
@@ -28,7 +27,7 @@ from factsheet.load import load_catalogue
 from factsheet.model import Catalogue, Event, Settings
 from factsheet.publish import Staging
 from factsheet.reference import Reference
-from factsheet.render import plane_edges, render_site
+from factsheet.render import Site, plane_edges, render_site
 
 AUDIENCES = ("public", "internal")
 
@@ -85,8 +84,11 @@ def build(
             for name, path in cache.files(event_key(event, settings)):
                 staging.link(name, path)
         index = _index_figures(bundles, settings, cache)
-        for name, content in render_site(bundles, settings, audience, index).files.items():
-            staging.write(name, content)
+
+        def memo(parts: tuple, make) -> dict[str, bytes]:
+            return cached_files(cache, content_key("page", *parts), make)
+
+        render_site(bundles, settings, audience, index, site=StagedSite(staging), memo=memo)
         staging.commit()
     cache.prune()
     figure_seconds = sum(b.figure_seconds for b in made) + sum(f.seconds for f in index)
@@ -99,6 +101,17 @@ def build(
         figure_seconds,
         out,
     )
+
+
+class StagedSite(Site):
+    """A :class:`Site` that writes each page straight into the staging folder (flat memory)."""
+
+    def __init__(self, staging: Staging):
+        super().__init__()
+        self.staging = staging
+
+    def add(self, path: str, content: str | bytes) -> None:
+        self.staging.write(path, content.encode("utf-8") if isinstance(content, str) else content)
 
 
 def make_bundles(
@@ -169,9 +182,11 @@ def _index_figures(bundles: list[EventBundle], settings: Settings, cache: Cache)
             for d in derived
         ],
     )
-    stored: dict[str, site_figures.SiteFigure] = {}
+    stored: dict[str, SiteFigure] = {}
 
     def make() -> dict[str, bytes]:
+        from factsheet import site_figures  # matplotlib loads only when drawing
+
         for fig in site_figures.index_figures(derived, edges):
             stored[fig.path] = fig
         meta = [[f.path, f.alt, f.caption] for f in stored.values()]
@@ -181,4 +196,4 @@ def _index_figures(bundles: list[EventBundle], settings: Settings, cache: Cache)
     if stored:
         return list(stored.values())
     rows = json.loads(files["index.json"])
-    return [site_figures.SiteFigure(p, files[p], alt, cap) for p, alt, cap in rows]
+    return [SiteFigure(p, files[p], alt, cap) for p, alt, cap in rows]

@@ -13,6 +13,7 @@ import os
 import pickle
 import shutil
 import tempfile
+from dataclasses import replace
 from functools import cache
 from pathlib import Path
 
@@ -60,7 +61,7 @@ class Cache:
         except (OSError, pickle.UnpicklingError, EOFError, AttributeError, ImportError):
             return None
         self.used.add(key)
-        return bundle
+        return replace(bundle, key=key)
 
     def store(self, key: str, bundle: EventBundle) -> EventBundle:
         """Write the bundle's files and metadata under ``key``; return it without file bytes."""
@@ -70,7 +71,7 @@ class Cache:
             target = staging / "files" / name
             target.parent.mkdir(parents=True, exist_ok=True)
             target.write_bytes(content)
-        light = bundle.without_files()
+        light = replace(bundle.without_files(), key=key)
         (staging / "bundle.pickle").write_bytes(pickle.dumps(light, protocol=5))
         final = self.root / key
         shutil.rmtree(final, ignore_errors=True)

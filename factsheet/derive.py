@@ -12,6 +12,7 @@ from dataclasses import dataclass, field
 
 import astropy.units as u
 import numpy as np
+from astropy.cosmology import realizations
 
 from factsheet import caveats as cv
 from factsheet import derive_context as ctx
@@ -64,6 +65,7 @@ class Derived:
     no_window_reason: str = ""
     comparisons: dict = field(default_factory=dict)
     reference: Reference | None = None
+    lookback_time: u.Quantity | None = None  # at the median redshift, for the prose
 
     @property
     def credible_level(self) -> float:
@@ -180,6 +182,7 @@ def _derive_physics(result: Derived) -> None:
         )
     result.mass_bands, band_notes = ctx.mass_bands(s, ref)
     z = float(np.median(s["redshift"].value))
+    result.lookback_time = getattr(realizations, settings.cosmology).lookback_time(z).to(u.Gyr)
     total = float(np.median(s["total_mass"].to_value(u.Msun)))
     result.windows, result.no_window_reason, window_notes = ctx.windows(
         result.event, z, c, s.get("kick_velocity"), total, ref, level

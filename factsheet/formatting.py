@@ -8,6 +8,7 @@ and keeps two. The value is rounded to the same decimal place.
 
 from __future__ import annotations
 
+import functools
 import math
 
 import astropy.units as u
@@ -31,7 +32,11 @@ def decimal_place(uncertainty: float) -> int:
 
 def unit_text(unit: str | u.UnitBase) -> str:
     """A unit as readers write it: M⊙, km s⁻¹, erg s⁻¹."""
-    key = unit if isinstance(unit, str) else unit.to_string()
+    return _unit_text(unit if isinstance(unit, str) else unit.to_string())
+
+
+@functools.cache
+def _unit_text(key: str) -> str:
     if key in UNIT_TEXT:
         return UNIT_TEXT[key]
     return u.Unit(key).to_string("unicode").replace("M_⊙", "M⊙")

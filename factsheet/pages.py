@@ -6,7 +6,6 @@ from __future__ import annotations
 from dataclasses import dataclass
 
 import astropy.units as u
-from astropy.cosmology import realizations
 
 from factsheet.derive import Derived
 from factsheet.formatting import format_interval, format_value
@@ -36,9 +35,7 @@ def _about(value: float) -> str:
 def headline(item: Derived) -> list[str]:
     """Two or three plain sentences from the numbers, for the top of a sheet."""
     q = item.quantities
-    z = q["redshift"].median
-    cosmo = getattr(realizations, item.settings.cosmology)
-    years = cosmo.lookback_time(z).to_value(u.Gyr)
+    years = item.lookback_time.to_value(u.Gyr)
     when = (
         f"about {_about(years)} billion years ago"
         if years >= 1

@@ -41,8 +41,9 @@ class Staging:
                 f"{self.out}: refusing to replace a folder that factsheet did not "
                 "make (choose another output folder, or pass --force)"
             )
-        self.folder = Path(tempfile.mkdtemp(prefix=f".factsheet-new-{self.out.name}-",
-                                            dir=self.out.parent))
+        self.folder = Path(
+            tempfile.mkdtemp(prefix=f".factsheet-new-{self.out.name}-", dir=self.out.parent)
+        )
         self.committed = False
 
     def write(self, name: str, content: bytes) -> None:

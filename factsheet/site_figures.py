@@ -9,12 +9,12 @@ from __future__ import annotations
 
 import time
 from collections.abc import Callable
-from dataclasses import dataclass
 
 import astropy.units as u
 import numpy as np
 
 from factsheet import figures as fg
+from factsheet.assets import SiteFigure
 from factsheet.derive import Derived
 from factsheet.physics import inspiral
 
@@ -36,17 +36,6 @@ BAND_ROLES = {
     "neutrino": "neutrino",
     "optical": "optical",
 }
-
-
-@dataclass(frozen=True)
-class SiteFigure:
-    """One rendered figure: its site-relative path, SVG bytes, alt text and caption."""
-
-    path: str
-    svg: bytes
-    alt: str
-    caption: str
-    seconds: float = 0.0
 
 
 def _save(path: str, draw: Callable[[], fg.Drawing], caption: str) -> SiteFigure:

@@ -11,6 +11,7 @@ convention of our samples files. Both are deterministic: no dates, no build cloc
 from __future__ import annotations
 
 import csv
+import functools
 import io
 import math
 
@@ -92,7 +93,12 @@ def _value(item: Derived, name: str, field: str, unit: u.UnitBase) -> float | No
     summary = item.quantities.get(name)
     if summary is None:
         return None
-    return float((getattr(summary, field) * u.Unit(summary.unit)).to_value(unit))
+    return getattr(summary, field) * _factor(summary.unit, unit)
+
+
+@functools.cache
+def _factor(source: str, target: u.UnitBase) -> float:
+    return float(u.Unit(source).to(target))
 
 
 def _meta(settings: Settings) -> dict:

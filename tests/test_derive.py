@@ -185,8 +185,9 @@ def test_api_reports_bad_input():
 def test_neutron_star_radius_and_thresholds_are_settings(tmp_path):
     from factsheet.model import Settings
 
-    torn = event(mass_1="5.5 +0.3 -0.3 Msun", mass_2="1.4 +0.1 -0.1 Msun",
-                 spin_1z="0.8 +0.05 -0.05")
+    torn = event(
+        mass_1="5.5 +0.3 -0.3 Msun", mass_2="1.4 +0.1 -0.1 Msun", spin_1z="0.8 +0.05 -0.05"
+    )
     wide = derive(torn, Settings(neutron_star_radius=13 * u.km))
     small = derive(torn, Settings(neutron_star_radius=10 * u.km))
     # a larger star is less compact and easier to disrupt (Foucart, Hinderer & Nissanke 2018)

@@ -40,7 +40,9 @@ def test_wheel_ships_templates_and_demo(tmp_path):
     root = Path(__file__).resolve().parents[1]
     if not (root / "pyproject.toml").is_file():
         pytest.fail("run the tests from a checkout: the wheel is built from its pyproject.toml")
-    wheel = next(iter(WheelBuilder(str(root)).build(directory=str(tmp_path), versions=["standard"])))
+    wheel = next(
+        iter(WheelBuilder(str(root)).build(directory=str(tmp_path), versions=["standard"]))
+    )
     names = zipfile.ZipFile(wheel).namelist()
     assert "factsheet/templates/event.html" in names
     assert "factsheet/templates/static/catalogue.js" in names

@@ -21,8 +21,16 @@ from factsheet.physics import (
 PACKAGE = Path(physics_pkg.__file__).parent
 # collections.abc holds the abstract types typing used to (ruff rule UP035 moves them there).
 # warnings: counterparts silences ERFA's "dubious year" note for dates past the leap-second table.
-ALLOWED = {"numpy", "astropy", "__future__", "typing", "dataclasses", "math", "functools",
-           "warnings"}
+ALLOWED = {
+    "numpy",
+    "astropy",
+    "__future__",
+    "typing",
+    "dataclasses",
+    "math",
+    "functools",
+    "warnings",
+}
 ALLOWED_SUBMODULES = {"collections.abc"}
 SCIPY_ALLOWED_IN = {"cosmology.py"}
 
