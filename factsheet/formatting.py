@@ -43,7 +43,8 @@ def _unit_text(key: str) -> str:
 
 
 def _fmt(x: float, place: int) -> str:
-    return f"{round(x, -place):.{max(0, -place)}f}".replace("-", "−")
+    rounded = round(x, -place) + 0.0  # + 0.0 turns a rounded -0.0 into 0.0: never print "−0"
+    return f"{rounded:.{max(0, -place)}f}".replace("-", "−")
 
 
 def _scale(median: float, low: float, high: float) -> int:

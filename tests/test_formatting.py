@@ -41,3 +41,7 @@ def test_units_written_properly(unit, text):
 def test_format_value_significant_figures():
     assert format_value(1234.5, "s") == "1200 s"
     assert format_value(3.6e52, "W") == "3.6 × 10⁵² W"
+
+
+def test_a_value_that_rounds_to_zero_has_no_minus_sign():
+    assert format_interval(-0.0002, -0.0302, 0.0298) == "0.000 +0.030 −0.030"
