@@ -48,3 +48,10 @@ def test_failed_write_leaves_earlier_site(tmp_path):
         publish(site(**{"../evil": "x"}), out)
     assert (out / "index_html").read_text() == "good"
     assert sorted(p.name for p in tmp_path.iterdir()) == ["site"]
+
+
+def test_tracked_placeholder_is_what_a_build_writes():
+    from pathlib import Path
+
+    tracked = Path(__file__).resolve().parents[1] / "site" / PLACEHOLDER
+    assert tracked.read_text() == PLACEHOLDER_TEXT  # so a build leaves git status clean
