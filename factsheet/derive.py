@@ -66,6 +66,7 @@ class Derived:
     comparisons: dict = field(default_factory=dict)
     reference: Reference | None = None
     lookback_time: u.Quantity | None = None  # at the median redshift, for the prose
+    other_methods: tuple[str, ...] = ()  # methods behind the class, bands, windows, comparisons
 
     @property
     def credible_level(self) -> float:
@@ -191,6 +192,7 @@ def _derive_physics(result: Derived) -> None:
     result.comparisons = ctx.comparison_values(
         medians.get("radiated_energy"), medians.get("peak_luminosity"), ref, settings.energy_units
     )
+    result.other_methods = ctx.methods_used(c, result.windows, result.comparisons)
     result.caveats.extend(
         [
             *([note] if note else []),

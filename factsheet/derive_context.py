@@ -160,6 +160,21 @@ def comparison_values(
     return out
 
 
+def methods_used(c: Classification, found_windows: list, compared: dict) -> tuple[str, ...]:
+    """Ids of the registered methods behind the class, bands, disruption, windows, comparisons."""
+    ids = [bands.SOURCE_CLASS, bands.MASS_BANDS]
+    if c.disruption_probability is not None:
+        ids += [disruption.REMNANT_MASS, disruption.BARYON_MASS]
+    scenarios = {w.scenario for w in found_windows}
+    if scenarios - {"agn_disk"}:
+        ids.append(counterparts.REST_FRAME_WINDOW)
+    if "agn_disk" in scenarios:
+        ids.append(counterparts.AGN_DISK)
+    if compared:
+        ids.append(comparisons.COMPARISON)
+    return tuple(ids)
+
+
 def significance_caveats(
     event: Event, far_threshold: u.Quantity, sky_threshold: u.Quantity
 ) -> list[Caveat]:

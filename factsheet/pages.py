@@ -120,9 +120,9 @@ def methods_context(derived: list[Derived], reference: Reference) -> dict:
     """Every registered method with the events that used it, and the reference data."""
     used: dict[str, set[str]] = {}
     for item in derived:
-        for summary in item.quantities.values():
-            for method_id in summary.methods:
-                used.setdefault(method_id, set()).add(item.event.id)
+        ids = {m for summary in item.quantities.values() for m in summary.methods}
+        for method_id in ids | set(item.other_methods):
+            used.setdefault(method_id, set()).add(item.event.id)
     entries = [
         MethodEntry(m, sorted(used.get(m.id, ())))
         for m in sorted(METHODS.values(), key=lambda m: (not used.get(m.id), m.title))
