@@ -153,4 +153,4 @@ def _parse_mapping(value: dict) -> Estimate:
     unit = value.get("unit", "")
     if not isinstance(unit, str):
         raise ValueParseError(f"'unit' must be a unit string, got {unit!r}")
-    return Estimate(*numbers, parse_unit(unit))
+    return Estimate(numbers[0], numbers[1], numbers[2], parse_unit(unit))

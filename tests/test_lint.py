@@ -1,4 +1,5 @@
-"""Strict linting from day one: ruff lint and format over the whole checkout (STYLE.md 12)."""
+"""Strict checks from day one: ruff lint and format over the checkout, mypy over the schema and
+the physics (the files listed under [tool.mypy] in pyproject.toml) — STYLE.md point 12."""
 
 import shutil
 import subprocess
@@ -15,4 +16,12 @@ def test_ruff(command):
     if ruff is None:
         pytest.fail("ruff is missing: pip install -e '.[test]'")
     done = subprocess.run([ruff, *command], cwd=ROOT, capture_output=True, text=True)
+    assert done.returncode == 0, done.stdout + done.stderr
+
+
+def test_mypy():
+    mypy = shutil.which("mypy")
+    if mypy is None:
+        pytest.fail("mypy is missing: pip install -e '.[test]'")
+    done = subprocess.run([mypy], cwd=ROOT, capture_output=True, text=True)
     assert done.returncode == 0, done.stdout + done.stderr

@@ -3,9 +3,10 @@
 from __future__ import annotations
 
 import numpy as np
+from numpy.typing import ArrayLike
 
 
-def interpolate_uniform(table: np.ndarray, first: float, last: float, x: np.ndarray) -> np.ndarray:
+def interpolate_uniform(table: ArrayLike, first: float, last: float, x: np.ndarray) -> np.ndarray:
     """Four-point (cubic Lagrange) interpolation of ``table`` on a uniform grid first..last."""
     table = np.asarray(table, dtype=float)
     step = (last - first) / (len(table) - 1)

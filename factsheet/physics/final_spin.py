@@ -87,7 +87,7 @@ def _jf17(b: AlignedBinary) -> np.ndarray:
 def hbr16_k00(table=(3, 4)) -> float:
     """k00 from the constraint a_f(nu = 1/4, no spins) = 0.68646 (Scheel et al. 2009)."""
     rows = tab.HBR16[table][1]
-    rest = sum(rows[i][0] * 0.25 ** (2 + i) for i in range(1, len(rows)))
+    rest = sum(float(rows[i][0] or 0.0) * 0.25 ** (2 + i) for i in range(1, len(rows)))
     return (tab.EQUAL_MASS_FINAL_SPIN - 2 * SQRT3 / 4 - rest) * 16
 
 
