@@ -29,8 +29,6 @@ from factsheet.publish import Staging
 from factsheet.reference import Reference
 from factsheet.render import Site, plane_edges, render_site
 
-AUDIENCES = ("public", "internal")
-
 
 @dataclass(frozen=True)
 class BuildReport:

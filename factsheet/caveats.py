@@ -10,8 +10,6 @@ from dataclasses import asdict, dataclass
 
 from factsheet.model import Event
 
-LEVELS = ("info", "notice", "warning")
-
 
 @dataclass(frozen=True)
 class Caveat:

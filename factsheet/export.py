@@ -11,6 +11,7 @@ from dataclasses import dataclass, replace
 import astropy.units as u
 
 from factsheet.derive import Derived, Summary
+from factsheet.formatting import format_value
 from factsheet.model import Event
 
 # Quantities shown on a sheet, in order: key -> (label, group). Keys absent for an event
@@ -80,6 +81,9 @@ def event_json(item: Derived) -> dict:
         "status": item.event.status,
         "time_utc": time_utc(item.event),
         "source_class": item.source_class,
+        "source_class_probabilities": item.class_probabilities,
+        "disruption_probability": item.disruption_probability,
+        "detection": detection_json(item.event),
         "credible_level": item.credible_level,
         "cosmology": item.settings.cosmology,
         "quantities": {k: q[k].as_dict() for k in JSON_KEYS if k in q},
@@ -87,6 +91,50 @@ def event_json(item: Derived) -> dict:
         "counterpart_windows": [window_json(w) for w in item.windows],
         "caveats": [c.as_dict() for c in item.caveats],
     }
+
+
+def detection_json(event: Event) -> dict:
+    """What the detection summary states: detectors, SNR, false-alarm rate, sky area."""
+    far, sky = event.false_alarm_rate, event.sky_area
+    return {
+        "detectors": list(event.detectors),
+        "snr": event.snr,
+        "false_alarm_rate": None
+        if far is None
+        else {"value": far.to_value(1 / u.yr), "unit": "1 / yr"},
+        "sky_area": None if sky is None else {"value": sky.to_value(u.deg**2), "unit": "deg2"},
+    }
+
+
+def detection_rows(item: Derived) -> list[tuple[str, str]]:
+    """The detection facts as (label, text) rows for the sheet."""
+    event, rows = item.event, []
+    if event.detectors:
+        rows.append(("Detectors", ", ".join(event.detectors)))
+    if event.snr is not None:
+        rows.append(("Network signal-to-noise ratio", f"{event.snr:g}"))
+    if event.false_alarm_rate is not None:
+        rate = event.false_alarm_rate.to_value(1 / u.yr)
+        text = f"one per {format_value(1 / rate, 'yr', 2)} of data" if rate > 0 else "zero"
+        rows.append(("False-alarm rate", text))
+    if event.sky_area is not None:
+        rows.append(
+            (
+                "Sky area (credible region)",
+                format_value(event.sky_area.to_value(u.deg**2), "deg2", 2),
+            )
+        )
+    probs = ", ".join(f"{k} {p:.0%}" for k, p in item.class_probabilities.items() if p > 0)
+    rows.append(("Source class", f"{item.source_class} ({probs})"))
+    if item.disruption_probability is not None:
+        rows.append(
+            (
+                "Neutron star torn apart",
+                f"probability {item.disruption_probability:.0%} "
+                f"(radius {item.settings.neutron_star_radius.to_value(u.km):g} km assumed)",
+            )
+        )
+    return rows
 
 
 def window_json(window) -> dict:
@@ -210,6 +258,7 @@ def comparison_rows(item: Derived) -> list[dict]:
 def event_context(item: Derived, previous: Derived | None, following: Derived | None) -> dict:
     """The template context of one event page."""
     return {
+        "detection": detection_rows(item),
         "bands": band_rows(item),
         "band_edges": item.reference.mass_bands.edges() if item.reference else (),
         "windows": [window_json(w) for w in item.windows],

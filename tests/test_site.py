@@ -136,3 +136,17 @@ def test_cgs_energy_units_on_the_page(tmp_path):
     assert "erg s⁻¹" in page and "× 10⁵⁶ erg s⁻¹" in page  # peak luminosity ~ 3.6e56 erg/s
     data = json.loads((tmp_path / "out" / "data" / "TEST-1.json").read_text())
     assert data["quantities"]["radiated_energy"]["unit"] == "J"  # the JSON contract keeps SI
+
+
+def test_sheets_state_the_detection_and_class_probabilities(demo_site):
+    data = json.loads((demo_site / "data" / "MER34-008.json").read_text())
+    probs = data["source_class_probabilities"]
+    assert set(probs) == {"BNS", "NSBH", "BBH"} and sum(probs.values()) == pytest.approx(1)
+    assert 0 <= data["disruption_probability"] <= 1
+    detection = data["detection"]
+    assert detection["detectors"] and detection["snr"] > 0
+    assert detection["false_alarm_rate"]["unit"] == "1 / yr"
+    page = (demo_site / "events" / "MER34-008.html").read_text(encoding="utf-8")
+    assert "Network signal-to-noise ratio" in page and "Neutron star torn apart" in page
+    for name in detection["detectors"]:
+        assert name in page
