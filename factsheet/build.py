@@ -22,7 +22,7 @@ from astropy.time import Time
 from factsheet.assets import EventBundle, SiteFigure, event_bundle
 from factsheet.cache import Cache, cached_files, content_key, event_key
 from factsheet.derive import reference_for
-from factsheet.errors import BuildError, Problem
+from factsheet.errors import BuildError, InputError, Problem
 from factsheet.load import load_catalogue
 from factsheet.model import Catalogue, Event, Settings
 from factsheet.publish import Staging
@@ -41,6 +41,7 @@ class BuildReport:
     seconds: float
     figure_seconds: float
     out: Path
+    warnings: tuple[Problem, ...] = ()
 
 
 def build_time() -> Time:
@@ -70,10 +71,13 @@ def build(
     force: bool = False,
     jobs: int | None = None,
     progress: bool = False,
+    strict: bool = False,
 ) -> BuildReport:
-    """Build the site for ``catalogue_dir`` into ``out``."""
+    """Build the site for ``catalogue_dir`` into ``out``; ``strict`` makes warnings fatal."""
     start, out = clock.perf_counter(), Path(out)
     catalogue = load_catalogue(catalogue_dir)
+    if strict and catalogue.warnings:
+        raise InputError(problems=list(catalogue.warnings))
     events, internal, embargoed = select_events(catalogue, audience, build_time())
     settings, cache = catalogue.settings, Cache(out)
     with Staging(out, force) as staging:
@@ -98,6 +102,7 @@ def build(
         clock.perf_counter() - start,
         figure_seconds,
         out,
+        catalogue.warnings,
     )
 
 

@@ -76,6 +76,7 @@ def make_parser() -> argparse.ArgumentParser:
         action="store_true",
         help="replace the output folder even if factsheet did not make it",
     )
+    _strict_arg(b)
     b.set_defaults(run=run_build)
 
     v = sub.add_parser(
@@ -101,6 +102,7 @@ def make_parser() -> argparse.ArgumentParser:
         description="Validate every file; exit 1 and list each problem if any.",
     )
     _catalogue_arg(c)
+    _strict_arg(c)
     c.set_defaults(run=run_check)
 
     n = sub.add_parser(
@@ -112,6 +114,14 @@ def make_parser() -> argparse.ArgumentParser:
     n.add_argument("-d", "--dir", type=Path, default=Path("."), help="catalogue folder")
     n.set_defaults(run=run_new)
     return parser
+
+
+def _strict_arg(parser: argparse.ArgumentParser) -> None:
+    parser.add_argument(
+        "--strict",
+        action="store_true",
+        help="treat warnings (valid but suspicious input) as errors",
+    )
 
 
 def _positive(text: str) -> int:
@@ -140,7 +150,9 @@ def run_build(args: argparse.Namespace) -> int:
         args.force,
         jobs=args.jobs,
         progress=sys.stderr.isatty(),
+        strict=args.strict,
     )
+    _print_warnings(report.warnings)
     print(summary_line(report))
     return 0
 
@@ -170,8 +182,18 @@ def run_check(args: argparse.Namespace) -> int:
     from factsheet.load import load_catalogue
 
     catalogue = load_catalogue(args.catalogue or demo_dir())
-    print(f"{catalogue.root}: {len(catalogue.events)} events, no problems found")
+    _print_warnings(catalogue.warnings)
+    if args.strict and catalogue.warnings:
+        print(f"{len(catalogue.warnings)} warnings, fatal with --strict", file=sys.stderr)
+        return 1
+    found = f"{len(catalogue.warnings)} warnings" if catalogue.warnings else "no problems found"
+    print(f"{catalogue.root}: {len(catalogue.events)} events, {found}")
     return 0
+
+
+def _print_warnings(warnings) -> None:
+    for problem in warnings:
+        print(f"warning: {problem}", file=sys.stderr)
 
 
 def run_new(args: argparse.Namespace) -> int:

@@ -12,6 +12,7 @@ from pathlib import Path
 import astropy.units as u
 
 from factsheet import fields
+from factsheet.consistency import consistency_warnings
 from factsheet.errors import InputError, Problem
 from factsheet.model import Catalogue, Event, Settings
 from factsheet.samples import check_samples_csv
@@ -40,7 +41,8 @@ def load_catalogue(folder: str | Path) -> Catalogue:
     if problems:
         raise InputError(problems=problems)
     events.sort(key=lambda e: (e.time.unix, e.id))
-    return Catalogue(root=root, settings=settings, events=tuple(events))
+    warnings = [w for e in events for w in consistency_warnings(e, settings)]
+    return Catalogue(root=root, settings=settings, events=tuple(events), warnings=tuple(warnings))
 
 
 def event_files(root: Path, problems: list[Problem]) -> list[Path]:
@@ -122,7 +124,8 @@ def load_event(path: Path, root: Path, settings: Settings, problems: list[Proble
     if len(problems) > before:
         return None
     values.setdefault("title", values["id"])
-    return Event(source=path, line=data.line_of("id") or 1, **values)
+    lines = {str(k): v for k, v in data.lines.items() if v}
+    return Event(source=path, line=data.line_of("id") or 1, key_lines=lines, **values)
 
 
 def _check_redshift(check: fields.Checker, raw: LineMap, parameters, cosmology: str) -> None:

@@ -10,6 +10,7 @@ from typing import Any
 import astropy.units as u
 from astropy.time import Time
 
+from factsheet.errors import Problem
 from factsheet.quantities import Estimate
 from factsheet.yamlread import Limits
 
@@ -115,6 +116,11 @@ class Event:
     internal_notes: str = ""
     summary: str = ""
     caveats: tuple[str, ...] = ()
+    key_lines: dict[str, int] = field(default_factory=dict, compare=False, repr=False)
+
+    def line_of(self, key: str) -> int:
+        """The line of a top-level key in the event's file (the id's line if absent)."""
+        return self.key_lines.get(key, self.line)
 
     def seed(self) -> int:
         """Random seed from the content that determines the numbers (not the prose)."""
@@ -129,3 +135,4 @@ class Catalogue:
     root: Path
     settings: Settings
     events: tuple[Event, ...]
+    warnings: tuple[Problem, ...] = ()  # fatal only in strict mode
