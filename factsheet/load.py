@@ -11,10 +11,10 @@ from pathlib import Path
 
 import astropy.units as u
 
-from factsheet import fields
 from factsheet.consistency import consistency_warnings
 from factsheet.errors import InputError, Problem
 from factsheet.model import Catalogue, Event, Settings
+from factsheet.records import RecordChecker
 from factsheet.samples import check_samples_csv
 from factsheet.schema import CATALOGUE_KEYS, EVENT_KEYS
 from factsheet.yamlread import Limits, LineMap, YamlProblem, read_limited, read_yaml
@@ -89,7 +89,7 @@ def load_settings(path: Path, problems: list[Problem]) -> Settings:
     data = _read_mapping(path, problems, Limits())
     if data is None:
         return Settings()
-    check = fields.Checker(path, problems)
+    check = RecordChecker(path, problems)
     settings = Settings(**check.mapping(data, CATALOGUE_KEYS, prefix=""))
     _check_reference_overrides(path, data, settings, problems)
     return settings
@@ -115,7 +115,7 @@ def load_event(path: Path, root: Path, settings: Settings, problems: list[Proble
     if data is None:
         return None
     before = len(problems)
-    check = fields.Checker(path, problems, base=path.parent, root=root)
+    check = RecordChecker(path, problems, base=path.parent, root=root)
     values = check.mapping(data, EVENT_KEYS, prefix="")
     if "parameters" in values:
         _check_redshift(check, data["parameters"], values["parameters"], settings.cosmology)
@@ -128,7 +128,7 @@ def load_event(path: Path, root: Path, settings: Settings, problems: list[Proble
     return Event(source=path, line=data.line_of("id") or 1, key_lines=lines, **values)
 
 
-def _check_redshift(check: fields.Checker, raw: LineMap, parameters, cosmology: str) -> None:
+def _check_redshift(check: RecordChecker, raw: LineMap, parameters, cosmology: str) -> None:
     """The given redshift's median must lie in the range the distance interval implies."""
     if "redshift" not in parameters or "luminosity_distance" not in parameters:
         return
