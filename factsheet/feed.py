@@ -31,7 +31,7 @@ from astropy.time import Time
 from factsheet.derive import Derived
 from factsheet.formatting import unit_text
 from factsheet.model import Event, Parameters, Settings
-from factsheet.pages import HISTORY_KEYS
+from factsheet.pages import history_labels
 
 ADDED, REVISED = "added", "revised"
 CURRENT_LABEL = "Current estimate"
@@ -98,10 +98,12 @@ def _number(value: float | None) -> str:
     return "not given" if value is None else f"{value:.10g}".replace("-", "−")
 
 
-def changes_between(before: Parameters | None, after: Parameters) -> tuple[Change, ...]:
+def changes_between(
+    before: Parameters | None, after: Parameters, frame: str = "source"
+) -> tuple[Change, ...]:
     """Old → new medians of the main input parameters (all values given, for a first estimate)."""
     out = []
-    for key, label in HISTORY_KEYS.items():
+    for key, label in history_labels(frame).items():
         old = None if before is None else before.values.get(key)
         new = after.values.get(key)
         if new is None and old is None:
@@ -140,7 +142,7 @@ def event_entries(event: Event) -> list[ChangeEntry]:
                 kind,
                 label,
                 note,
-                changes_between(before, params),
+                changes_between(before, params, event.frame),
                 origin,
                 i,
             )

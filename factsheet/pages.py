@@ -28,6 +28,16 @@ HISTORY_KEYS = {
 }
 
 
+def history_labels(frame: str) -> dict[str, str]:
+    """Labels of the input parameters, saying so when the masses were given in the detector frame
+    (the estimates keep the frame of the input; the sheet's numbers are source-frame)."""
+    if frame != "detector":
+        return HISTORY_KEYS
+    return {
+        k: f"{v} (detector frame)" if k.startswith("mass") else v for k, v in HISTORY_KEYS.items()
+    }
+
+
 def _about(value: float) -> str:
     return format_value(value, "", 2)
 
@@ -94,17 +104,16 @@ def history_steps(item: Derived) -> list[HistoryStep]:
     if not estimates:
         return []
     estimates.append(("Current estimate", "", "", item.event.parameters))
-    steps, before = [], None
+    steps, before, labels = [], None, history_labels(item.event.frame)
     for label, date, note, params in estimates:
-        keys = [k for k in HISTORY_KEYS if k in params]
-        values = [(HISTORY_KEYS[k], _text(params, k)) for k in keys]
+        values = [(labels[k], _text(params, k)) for k in labels if k in params]
         changes = []
         if before is not None:
-            for k in HISTORY_KEYS:
+            for k in labels:
                 old = _text(before, k) if k in before else "not given"
                 new = _text(params, k) if k in params else "not given"
                 if old != new:
-                    changes.append((HISTORY_KEYS[k], old, new))
+                    changes.append((labels[k], old, new))
         steps.append(HistoryStep(label, date, note, values, changes))
         before = params
     return steps

@@ -224,3 +224,20 @@ def test_demo_history_event():
         ("revised", "Current estimate"),
     ]
     assert entries[-1].timestamp == event.time.utc.isot + "Z"
+
+
+def test_detector_frame_masses_are_labelled_as_such():
+    from factsheet.feed import changes_between
+    from factsheet.model import Parameters
+    from factsheet.quantities import parse_estimate
+
+    params = Parameters(
+        {
+            "mass_1": parse_estimate("30 +3 -3 Msun"),
+            "mass_2": parse_estimate("20 +2 -2 Msun"),
+            "luminosity_distance": parse_estimate("400 +100 -100 Mpc"),
+        }
+    )
+    labels = [c.label for c in changes_between(None, params, "detector")]
+    assert labels[:2] == ["m₁ (detector frame)", "m₂ (detector frame)"]
+    assert [c.label for c in changes_between(None, params)][:2] == ["m₁", "m₂"]
