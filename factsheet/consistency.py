@@ -8,16 +8,17 @@ from __future__ import annotations
 
 import numpy as np
 
-from factsheet.errors import InputError, Problem
-from factsheet.model import Event, Settings
-from factsheet.samples import read_samples_csv
+from factsheet.errors import Problem
+from factsheet.model import Event
 
 COMPARED = ("mass_1", "mass_2", "luminosity_distance")
 
 
-def consistency_warnings(event: Event, settings: Settings) -> list[Problem]:
-    """Every warning about one validated event."""
-    return [*_history_dates(event), *_embargo(event), *_samples_agree(event, settings)]
+def consistency_warnings(
+    event: Event, samples: dict[str, np.ndarray] | None = None
+) -> list[Problem]:
+    """Every warning about one validated event (``samples``: its samples file, as read)."""
+    return [*_history_dates(event), *_embargo(event), *_samples_agree(event, samples)]
 
 
 def _warn(event: Event, key: str, message: str) -> Problem:
@@ -51,14 +52,10 @@ def _embargo(event: Event) -> list[Problem]:
     return []
 
 
-def _samples_agree(event: Event, settings: Settings) -> list[Problem]:
+def _samples_agree(event: Event, values: dict[str, np.ndarray] | None) -> list[Problem]:
     """The samples file's medians should lie inside the summary's intervals."""
-    if event.samples is None:
+    if values is None:
         return []
-    try:
-        values = read_samples_csv(event.samples, settings.limits.max_sample_rows)
-    except InputError:
-        return []  # reported as an error by the load stage
     found = []
     for name in COMPARED:
         if name not in event.parameters or name not in values or event.parameters[name].exact:

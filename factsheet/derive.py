@@ -115,9 +115,16 @@ def _aligned_spins(values: dict[str, np.ndarray]) -> dict[str, np.ndarray]:
     return values
 
 
+_REFERENCES: dict[str, Reference] = {}
+
+
 def reference_for(settings: Settings) -> Reference:
-    """The packaged reference data with the catalogue's overrides."""
-    return load_reference({"mass_bands": settings.mass_bands, "comparisons": settings.comparisons})
+    """The packaged reference data with the catalogue's overrides (read once per overrides)."""
+    overrides = {"mass_bands": settings.mass_bands, "comparisons": settings.comparisons}
+    key = repr(overrides)
+    if key not in _REFERENCES:
+        _REFERENCES[key] = load_reference(overrides)
+    return _REFERENCES[key]
 
 
 def derive_event(event: Event, settings: Settings, reference: Reference | None = None) -> Derived:

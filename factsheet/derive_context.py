@@ -6,7 +6,6 @@ from __future__ import annotations
 from dataclasses import dataclass
 
 import astropy.units as u
-import numpy as np
 
 from factsheet.caveats import Caveat
 from factsheet.model import Event
@@ -203,7 +202,3 @@ def significance_caveats(
             )
         )
     return notes
-
-
-def median(values: u.Quantity) -> u.Quantity:
-    return np.median(values)

@@ -30,10 +30,11 @@ def load_catalogue(folder: str | Path) -> Catalogue:
         raise InputError(problems=[Problem(root, None, "", "catalogue folder not found")])
     problems: list[Problem] = []
     settings = load_settings(root / CATALOGUE_FILE, problems)
+    warnings: list[Problem] = []
     events = [
         e
         for path in event_files(root, problems)
-        if (e := load_event(path, root, settings, problems))
+        if (e := load_event(path, root, settings, problems, warnings))
     ]
     _check_unique_ids(events, problems)
     if not events and not problems:
@@ -41,7 +42,6 @@ def load_catalogue(folder: str | Path) -> Catalogue:
     if problems:
         raise InputError(problems=problems)
     events.sort(key=lambda e: (e.time.unix, e.id))
-    warnings = [w for e in events for w in consistency_warnings(e, settings)]
     return Catalogue(root=root, settings=settings, events=tuple(events), warnings=tuple(warnings))
 
 
@@ -109,8 +109,17 @@ def _check_reference_overrides(
             problems.append(Problem(path, data.line_of(top), p.key, p.message))
 
 
-def load_event(path: Path, root: Path, settings: Settings, problems: list[Problem]) -> Event | None:
-    """Read and validate one event file; None (with problems recorded) when it is invalid."""
+def load_event(
+    path: Path,
+    root: Path,
+    settings: Settings,
+    problems: list[Problem],
+    warnings: list[Problem] | None = None,
+) -> Event | None:
+    """Read and validate one event file; None (with problems recorded) when it is invalid.
+
+    Warnings about valid but suspicious input are appended to ``warnings`` when given.
+    """
     data = _read_mapping(path, problems, settings.limits)
     if data is None:
         return None
@@ -119,13 +128,17 @@ def load_event(path: Path, root: Path, settings: Settings, problems: list[Proble
     values = check.mapping(data, EVENT_KEYS, prefix="")
     if "parameters" in values:
         _check_redshift(check, data["parameters"], values["parameters"], settings.cosmology)
+    samples = None
     if "samples" in values:
-        check_samples_csv(values["samples"], settings.limits.max_sample_rows, problems)
+        samples = check_samples_csv(values["samples"], settings.limits.max_sample_rows, problems)
     if len(problems) > before:
         return None
     values.setdefault("title", values["id"])
     lines = {str(k): v for k, v in data.lines.items() if v}
-    return Event(source=path, line=data.line_of("id") or 1, key_lines=lines, **values)
+    event = Event(source=path, line=data.line_of("id") or 1, key_lines=lines, **values)
+    if warnings is not None:
+        warnings.extend(consistency_warnings(event, samples))
+    return event
 
 
 def _check_redshift(check: RecordChecker, raw: LineMap, parameters, cosmology: str) -> None:

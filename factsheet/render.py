@@ -104,9 +104,9 @@ def make_environment() -> jinja2.Environment:
     return env
 
 
-def plane_edges(item_or_settings: Settings) -> dict[str, float]:
+def plane_edges(settings: Settings) -> dict[str, float]:
     """Mass-band edges in solar masses, in the form the mass-plane figure takes."""
-    bands = reference_for(item_or_settings).mass_bands
+    bands = reference_for(settings).mass_bands
     return {
         "neutron_star_max": bands.neutron_star_max.value.to_value("solMass"),
         "lower_gap_max": bands.lower_gap_top.value.to_value("solMass"),

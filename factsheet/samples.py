@@ -113,12 +113,15 @@ def read_samples_csv(path: Path, max_rows: int = Limits().max_sample_rows) -> di
     raise InputError(problems=[Problem(path, max(lines.line, 1), "file", message)]) from None
 
 
-def check_samples_csv(path: Path, max_rows: int, problems: list[Problem]) -> None:
-    """Read and validate a samples CSV for the load stage; record problems, keep no arrays."""
+def check_samples_csv(
+    path: Path, max_rows: int, problems: list[Problem]
+) -> dict[str, np.ndarray] | None:
+    """Read and validate a samples CSV for the load stage; record problems, return the values."""
     try:
-        read_samples_csv(path, max_rows)
+        return read_samples_csv(path, max_rows)
     except InputError as exc:
         problems.extend(exc.problems)
+        return None
 
 
 class _BoundedLines:
