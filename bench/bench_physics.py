@@ -1,7 +1,7 @@
 """Time the physics chain for one event's samples (10^4 and 10^5): prints ms per event.
 
 Run: ``python bench/bench_physics.py``. The chain is what ``derive`` runs per event: redshift from
-distance, source frame, chirp mass, both final-spin fits, both radiated-energy fits, peak
+distance, source frame, chirp mass, both remnant-spin fits, both radiated-energy fits, peak
 luminosity, kick, ringdown (Leaver table) and time in band. The first call per cosmology builds
 the distance table; it is timed separately.
 """
@@ -33,11 +33,11 @@ def chain(s: dict[str, np.ndarray]) -> dict[str, object]:
     z = cosmology.redshift_at_distance(s["distance"], Planck18)
     m1, m2 = cosmology.to_source_frame(s["m1"], z), cosmology.to_source_frame(s["m2"], z)
     args = (m1, m2, s["chi1"], s["chi2"])
-    spins = [remnant.final_spin_jf17(*args), remnant.final_spin_hbr16(*args)]
+    spins = [remnant.remnant_spin_jf17(*args), remnant.remnant_spin_hbr16(*args)]
     e_rad = [remnant.radiated_fraction_jf17(*args), remnant.radiated_fraction_bmr12(*args)]
-    final_mass = (m1 + m2) * (1 - np.mean(e_rad, axis=0))
+    remnant_mass = (m1 + m2) * (1 - np.mean(e_rad, axis=0))
     f_ring, tau_ring = ringdown.qnm_220(
-        cosmology.to_detector_frame(final_mass, z), np.mean(spins, 0)
+        cosmology.to_detector_frame(remnant_mass, z), np.mean(spins, 0)
     )
     return {
         "chirp": inspiral.chirp_mass(s["m1"], s["m2"]),

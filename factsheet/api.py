@@ -2,15 +2,17 @@
 
 >>> from factsheet.api import derive
 >>> result = derive({"id": "X-1", "time": "2034-01-01T00:00:00",
-...                  "parameters": {"mass_1": "36 +5 -4 Msun", "mass_2": "29 +4 -5 Msun",
-...                                 "luminosity_distance": "440 +180 -170 Mpc"}})
+...                  "estimate": {"heavier": {"mass": "36 +5 -4 Msun"},
+...                               "lighter": {"mass": "29 +4 -5 Msun"},
+...                               "distance": "440 +180 -170 Mpc"}})
 >>> result.source_class
 'BBH'
->>> result.summary("final_mass").unit
+>>> result.summary("remnant_mass").unit
 'solMass'
 
-``result.samples`` holds every per-sample Quantity, ``result.quantities`` the summaries (median
-and credible bounds, fit spread, methods) and ``result.caveats`` the caveats.
+``result.samples`` holds every per-sample Quantity, ``result.quantities`` the summaries (median,
+credible bounds and level, fit spread, methods) and ``result.caveats`` the caveats. The keys are
+those of the JSON export (docs/json-export.md); docs/api.md has more examples.
 """
 
 from __future__ import annotations
@@ -21,10 +23,10 @@ from typing import Any
 
 import yaml
 
-from factsheet.derive import Derived, derive_event
+from factsheet.derive import derive_event
 from factsheet.errors import InputError
 from factsheet.load import load_event, load_settings
-from factsheet.model import Settings
+from factsheet.model import Derived, Settings
 
 
 def derive(

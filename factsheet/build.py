@@ -14,20 +14,29 @@ import os
 import sys
 import time as clock
 from concurrent.futures import ProcessPoolExecutor
-from dataclasses import dataclass
+from dataclasses import dataclass, replace
 from pathlib import Path
 
 from astropy.time import Time
 
-from factsheet.assets import EventBundle, SiteFigure, event_bundle
 from factsheet.cache import Cache, cached_files, content_key, event_key
-from factsheet.derive import reference_for
+from factsheet.derive import derive_event
 from factsheet.errors import BuildError, InputError, Problem
 from factsheet.load import load_catalogue
-from factsheet.model import Catalogue, Event, Settings
+from factsheet.load.reference import reference_for
+from factsheet.model import (
+    Catalogue,
+    Derived,
+    Event,
+    EventBundle,
+    Reference,
+    Settings,
+    SiteFigure,
+)
 from factsheet.publish import Staging
-from factsheet.reference import Reference
-from factsheet.render import Site, plane_edges, render_site
+from factsheet.render import Site, render_site
+from factsheet.render.assets import event_files
+from factsheet.render.site import plane_edges
 
 
 @dataclass(frozen=True)
@@ -82,8 +91,8 @@ def build(
     settings, cache = catalogue.settings, Cache(out)
     with Staging(out, force) as staging:
         bundles, made = make_bundles(events, settings, cache, jobs or os.cpu_count() or 1, progress)
-        for event in events:
-            for name, path in cache.files(event_key(event, settings)):
+        for bundle in bundles:
+            for name, path in cache.files(bundle.key):
                 staging.link(name, path)
         index = _index_figures(bundles, settings, cache)
 
@@ -148,6 +157,22 @@ def make_bundles(
     return [b for b in bundles if b is not None], made
 
 
+def event_bundle(event: Event, settings: Settings, reference: Reference) -> EventBundle:
+    """Derive one event and make its figures and chirp sound (the expensive part of a build)."""
+    item = derive_event(event, settings, reference)
+    figures, audio, files, seconds = event_files(item)
+    return EventBundle(_summaries_only(item), figures, audio, files, seconds)
+
+
+def _summaries_only(item: Derived) -> Derived:
+    """The derived event without its samples (or its samples file's values): the pages need
+    only the summaries, and the bundle is kept in the cache and in memory for every event."""
+    event = item.event
+    if event.samples is not None:
+        event = replace(event, samples=replace(event.samples, values={}))
+    return replace(item, event=event, samples={})
+
+
 def _work(args: tuple[Event, Settings, Reference]) -> EventBundle | BaseException:
     try:
         return event_bundle(*args)
@@ -177,9 +202,9 @@ def _index_figures(bundles: list[EventBundle], settings: Settings, cache: Cache)
                 d.event.id,
                 d.event.status,
                 d.source_class,
-                d.quantities["mass_1"],
-                d.quantities["mass_2"],
-                d.quantities["luminosity_distance"],
+                d.quantities["heavier_mass"],
+                d.quantities["lighter_mass"],
+                d.quantities["distance"],
                 d.quantities["total_mass"],
             )
             for d in derived
@@ -188,9 +213,9 @@ def _index_figures(bundles: list[EventBundle], settings: Settings, cache: Cache)
     stored: dict[str, SiteFigure] = {}
 
     def make() -> dict[str, bytes]:
-        from factsheet import site_figures  # matplotlib loads only when drawing
+        from factsheet.render import figures  # matplotlib loads only when drawing
 
-        for fig in site_figures.index_figures(derived, edges):
+        for fig in figures.index_figures(derived, edges):
             stored[fig.path] = fig
         meta = [[f.path, f.alt, f.caption] for f in stored.values()]
         return {**{f.path: f.svg for f in stored.values()}, "index.json": json.dumps(meta).encode()}

@@ -1,7 +1,8 @@
 """The build cache: per-event bundles keyed by everything that shapes them.
 
-An event's key hashes its YAML file and samples file, the settings that change numbers, the
-packaged reference data and factsheet's own code (every ``.py`` and data file of the package),
+An event's key hashes its YAML file and samples file (the digests the load stage took as it
+read them), the settings that change numbers, the packaged reference data and factsheet's own
+code (every ``.py`` and data file of the package),
 so a change in any of them re-derives exactly what depends on it. Entries live in a folder
 beside the output (``.factsheet-cache-<name>/``), are written atomically and are safe to delete.
 """
@@ -18,11 +19,10 @@ from functools import cache
 from pathlib import Path
 
 from factsheet import __version__
-from factsheet.assets import EventBundle
-from factsheet.model import Event, Settings
+from factsheet.model import Event, EventBundle, Settings
 from factsheet.resources import PACKAGE
 
-FORMAT = "1"
+FORMAT = "2"
 
 
 @cache
@@ -40,9 +40,9 @@ def event_key(event: Event, settings: Settings) -> str:
     """The cache key of one event: its inputs, the settings and the code."""
     digest = hashlib.sha256(code_fingerprint().encode())
     digest.update(settings.fingerprint().encode())
-    digest.update(event.source.read_bytes())
+    digest.update(event.source_digest.encode())
     if event.samples is not None:
-        digest.update(event.samples.read_bytes())
+        digest.update(event.samples.digest.encode())
     return digest.hexdigest()[:32]
 
 
@@ -71,7 +71,7 @@ class Cache:
             target = staging / "files" / name
             target.parent.mkdir(parents=True, exist_ok=True)
             target.write_bytes(content)
-        light = replace(bundle.without_files(), key=key)
+        light = replace(bundle, files={}, key=key)
         (staging / "bundle.pickle").write_bytes(pickle.dumps(light, protocol=5))
         final = self.root / key
         shutil.rmtree(final, ignore_errors=True)

@@ -197,7 +197,7 @@ def _print_warnings(warnings) -> None:
 
 
 def run_new(args: argparse.Namespace) -> int:
-    from factsheet.template_event import write_new_event
+    from factsheet.load.scaffold import write_new_event
 
     path = write_new_event(args.id, args.dir)
     print(f"wrote {path}: fill in the values, then run `factsheet check {args.dir}`")

@@ -1,18 +1,79 @@
-"""Typed objects the loader produces: settings, events, estimates and their history."""
+"""The typed records passed between the stages, all frozen.
+
+``load`` makes a :class:`Catalogue` of :class:`Event` objects (each with its current
+:class:`Estimate` and history), ``derive`` turns one event into a :class:`Derived` record of
+:class:`Summary` values, caveats, bands and windows, and the build caches one
+:class:`EventBundle` (the derived record and its figure and sound files) per event for
+``render``. Nothing here computes physics or reads files.
+"""
 
 from __future__ import annotations
 
 import hashlib
-from dataclasses import dataclass, field
+from collections.abc import Mapping
+from dataclasses import dataclass, field, fields
 from pathlib import Path
 from typing import Any
 
 import astropy.units as u
+import numpy as np
 from astropy.time import Time
 
 from factsheet.errors import Problem
-from factsheet.quantities import Estimate
-from factsheet.yamlread import Limits
+from factsheet.physics.counterparts import Window
+
+SOURCE = "source"
+DETECTOR = "detector"
+
+
+# -- values given in the input -------------------------------------------------------------
+
+
+@dataclass(frozen=True)
+class Interval:
+    """A given value: a median with the offsets to the bounds of its credible interval.
+
+    An exact value (``4 km``, ``1 / 80 yr``) has both offsets zero.
+    """
+
+    median: float
+    plus: float
+    minus: float
+    unit: u.UnitBase
+
+    @property
+    def exact(self) -> bool:
+        return self.plus == 0 and self.minus == 0
+
+    @property
+    def quantity(self) -> u.Quantity:
+        return self.median * self.unit
+
+    @property
+    def low(self) -> float:
+        return self.median - self.minus
+
+    @property
+    def high(self) -> float:
+        return self.median + self.plus
+
+    def to(self, unit: u.UnitBase | str) -> Interval:
+        factor = self.unit.to(unit)
+        return Interval(self.median * factor, self.plus * factor, self.minus * factor, u.Unit(unit))
+
+    def canonical(self) -> str:
+        """A stable text form, used to seed the random draws from the content."""
+        return f"{self.median!r} +{self.plus!r} -{self.minus!r} {self.unit.to_string()}"
+
+
+@dataclass(frozen=True)
+class Limits:
+    """Guards against input that no real catalogue needs; raise them in catalogue.yaml."""
+
+    max_file_bytes: int = 2_000_000
+    max_depth: int = 32
+    max_aliases: int = 100
+    max_sample_rows: int = 1_000_000
 
 
 @dataclass(frozen=True)
@@ -30,7 +91,7 @@ class Settings:
     mass_bands: dict[str, Any] = field(default_factory=dict)
     comparisons: dict[str, Any] = field(default_factory=dict)
     energy_units: str = "SI"
-    # 12 km: current radius estimates span about 11-13 km (from memory; METHODS.md section 12)
+    # 12 km: current radius estimates span about 11-13 km (from memory)
     neutron_star_radius: u.Quantity = field(default_factory=lambda: 12.0 * u.km)
     # thresholds of the low-significance and large-sky-area caveats (common practice)
     low_significance_rate: u.Quantity = field(default_factory=lambda: 1.0 / u.yr)
@@ -57,6 +118,72 @@ class Settings:
         )
 
 
+# -- one event ---------------------------------------------------------------------------------
+
+
+@dataclass(frozen=True)
+class Body:
+    """One of the two bodies of an estimate: its mass and, when given, its aligned spin."""
+
+    mass: Interval
+    spin: Interval | None = None
+
+
+#: The paths of an estimate's values, in a fixed order (also the samples-file column names).
+ESTIMATE_PATHS = (
+    "heavier.mass",
+    "lighter.mass",
+    "heavier.spin",
+    "lighter.spin",
+    "effective_spin",
+    "distance",
+    "redshift",
+)
+
+
+@dataclass(frozen=True)
+class Estimate:
+    """One set of parameter values of an event: the current one, or one in its history."""
+
+    heavier: Body
+    lighter: Body
+    distance: Interval
+    effective_spin: Interval | None = None
+    redshift: Interval | None = None
+
+    def values(self) -> dict[str, Interval]:
+        """Every given value by its path (``heavier.mass``, ``distance``, ...), in path order."""
+        found = {
+            "heavier.mass": self.heavier.mass,
+            "lighter.mass": self.lighter.mass,
+            "heavier.spin": self.heavier.spin,
+            "lighter.spin": self.lighter.spin,
+            "effective_spin": self.effective_spin,
+            "distance": self.distance,
+            "redshift": self.redshift,
+        }
+        return {path: value for path, value in found.items() if value is not None}
+
+    def __contains__(self, path: object) -> bool:
+        return path in self.values()
+
+    def __getitem__(self, path: str) -> Interval:
+        return self.values()[path]
+
+    def canonical(self) -> str:
+        return ";".join(f"{k}={v.canonical()}" for k, v in sorted(self.values().items()))
+
+
+@dataclass(frozen=True)
+class Detection:
+    """What the search reported: the sites, the signal-to-noise ratio, significance, sky area."""
+
+    network: tuple[str, ...] = ()
+    snr: float | None = None
+    false_alarm_rate: u.Quantity | None = None
+    sky_area: u.Quantity | None = None
+
+
 @dataclass(frozen=True)
 class Host:
     """Disk of an active galactic nucleus hosting the merger."""
@@ -67,29 +194,26 @@ class Host:
 
 
 @dataclass(frozen=True)
-class Parameters:
-    """One estimate: parameter name to :class:`Estimate`, in canonical units."""
-
-    values: dict[str, Estimate]
-
-    def __getitem__(self, name: str) -> Estimate:
-        return self.values[name]
-
-    def __contains__(self, name: object) -> bool:
-        return name in self.values
-
-    def canonical(self) -> str:
-        return ";".join(f"{k}={v.canonical()}" for k, v in sorted(self.values.items()))
-
-
-@dataclass(frozen=True)
 class HistoryEntry:
     """An earlier estimate of the event."""
 
     date: Time
     label: str
     note: str
-    parameters: Parameters
+    estimate: Estimate
+
+
+@dataclass(frozen=True)
+class SamplesFile:
+    """A posterior-samples file as read and checked by the load stage.
+
+    ``values`` maps estimate paths to samples in canonical units (solMass, Mpc, dimensionless),
+    heavier body first in every sample; ``digest`` is the SHA-256 of the file's bytes.
+    """
+
+    path: Path
+    digest: str
+    values: Mapping[str, np.ndarray] = field(compare=False, repr=False)
 
 
 @dataclass(frozen=True)
@@ -99,17 +223,15 @@ class Event:
     id: str
     title: str
     time: Time
-    parameters: Parameters
+    estimate: Estimate
     source: Path
+    source_digest: str = ""  # SHA-256 of the file's bytes, as read by the load stage
     line: int = 1
     status: str = "confirmed"
-    frame: str = "source"
+    frame: str = SOURCE
+    detection: Detection = field(default_factory=Detection)
     history: tuple[HistoryEntry, ...] = ()
-    samples: Path | None = None
-    false_alarm_rate: u.Quantity | None = None
-    snr: float | None = None
-    detectors: tuple[str, ...] = ()
-    sky_area: u.Quantity | None = None
+    samples: SamplesFile | None = None
     host: Host | None = None
     visibility: str = "public"
     embargo_until: Time | None = None
@@ -119,12 +241,13 @@ class Event:
     key_lines: dict[str, int] = field(default_factory=dict, compare=False, repr=False)
 
     def line_of(self, key: str) -> int:
-        """The line of a top-level key in the event's file (the id's line if absent)."""
+        """The line of a key (top-level, or a path into the estimate such as
+        ``estimate.heavier.mass``) in the event's file; the id's line if absent."""
         return self.key_lines.get(key, self.line)
 
     def seed(self) -> int:
         """Random seed from the content that determines the numbers (not the prose)."""
-        text = f"{self.id}|{self.frame}|{self.parameters.canonical()}"
+        text = f"{self.id}|{self.frame}|{self.estimate.canonical()}"
         return int.from_bytes(hashlib.sha256(text.encode()).digest()[:8], "little")
 
 
@@ -136,3 +259,220 @@ class Catalogue:
     settings: Settings
     events: tuple[Event, ...]
     warnings: tuple[Problem, ...] = ()  # fatal only in strict mode
+
+
+# -- packaged reference data -----------------------------------------------------------------
+
+
+@dataclass(frozen=True)
+class Edge:
+    """One mass-band edge with its source and the spread of the literature."""
+
+    key: str
+    label: str
+    value: u.Quantity
+    source: str
+    spread: str = ""
+    overridden: bool = False
+
+
+@dataclass(frozen=True)
+class MassBands:
+    """The mass-band edges in increasing order, plus the intermediate-mass threshold."""
+
+    neutron_star_max: Edge
+    lower_gap_top: Edge
+    pair_instability_lower: Edge
+    pair_instability_upper: Edge
+    intermediate_mass_min: Edge
+
+    def edges(self) -> tuple[Edge, ...]:
+        """All edges, lowest first."""
+        return tuple(getattr(self, f.name) for f in fields(self))
+
+    def quantities(self) -> dict[str, u.Quantity]:
+        """Edge key to mass, the form :func:`factsheet.physics.bands.band_probabilities` takes."""
+        return {edge.key: edge.value for edge in self.edges()}
+
+
+@dataclass(frozen=True)
+class WindowSpec:
+    """A rest-frame counterpart window: delays after the merger, band, scenario and basis."""
+
+    key: str
+    band: str
+    scenario: str
+    start: u.Quantity
+    end: u.Quantity
+    basis: str
+
+
+@dataclass(frozen=True)
+class Comparison:
+    """A comparison object: an energy (J) or a luminosity (W) with its source."""
+
+    key: str
+    label: str
+    kind: str
+    value: u.Quantity
+    source: str
+    low: u.Quantity | None = None
+    high: u.Quantity | None = None
+    overridden: bool = False
+
+
+@dataclass(frozen=True)
+class Reference:
+    """All reference data of one build."""
+
+    mass_bands: MassBands
+    windows: tuple[WindowSpec, ...]
+    comparisons: tuple[Comparison, ...]
+
+    def energies(self) -> dict[str, u.Quantity]:
+        """Comparison energies by key."""
+        return {c.key: c.value for c in self.comparisons if c.kind == "energy"}
+
+    def luminosities(self) -> dict[str, u.Quantity]:
+        """Comparison luminosities by key."""
+        return {c.key: c.value for c in self.comparisons if c.kind == "luminosity"}
+
+    def comparison_labels(self) -> dict[str, str]:
+        return {c.key: c.label for c in self.comparisons}
+
+
+# -- what derive finds ---------------------------------------------------------------------------
+
+
+@dataclass(frozen=True)
+class Summary:
+    """Median and the bounds of the credible interval at ``level`` of one quantity."""
+
+    median: float
+    low: float
+    high: float
+    unit: str
+    level: float
+    frame: str | None = None
+    fit_spread: float | None = None
+    methods: tuple[str, ...] = ()
+
+    def as_dict(self) -> dict:
+        data: dict[str, Any] = {
+            "median": self.median,
+            "low": self.low,
+            "high": self.high,
+            "unit": self.unit,
+        }
+        if self.frame:
+            data["frame"] = self.frame
+        if self.fit_spread is not None:
+            data["fit_spread"] = self.fit_spread
+        data["methods"] = list(self.methods)
+        return data
+
+
+@dataclass(frozen=True)
+class Caveat:
+    """One caveat: a stable code, a level (info, notice, warning) and plain text."""
+
+    code: str
+    level: str
+    text: str
+    editorial: bool = False
+
+    def as_dict(self) -> dict[str, Any]:
+        data: dict[str, Any] = {"code": self.code, "level": self.level, "text": self.text}
+        if self.editorial:
+            data["editorial"] = True
+        return data
+
+
+@dataclass(frozen=True)
+class Comparisons:
+    """The median energy radiated and peak luminosity against the comparison objects."""
+
+    energy: Mapping[str, float] = field(default_factory=dict)  # ratio by comparison key
+    luminosity: Mapping[str, float] = field(default_factory=dict)
+    sun_years: u.Quantity | None = None  # time the Sun needs to emit the energy radiated
+
+
+@dataclass(frozen=True)
+class Derived:
+    """Everything derived for one event: summaries, classes, bands, windows and caveats.
+
+    ``samples`` holds the per-sample Quantities behind the summaries (empty in the build's
+    cached bundles, which need only the summaries).
+    """
+
+    event: Event
+    settings: Settings
+    reference: Reference
+    quantities: Mapping[str, Summary]
+    caveats: tuple[Caveat, ...]
+    source_class: str
+    class_probabilities: Mapping[str, float]
+    mass_bands: Mapping[str, Mapping[str, float]]  # subject -> band -> probability
+    intermediate_mass: Mapping[str, float]  # subject -> probability of >= the threshold
+    lookback_time: u.Quantity  # at the median redshift, for the prose
+    disruption_probability: float | None = None
+    windows: tuple[Window, ...] = ()
+    no_window_reason: str = ""
+    comparisons: Comparisons = field(default_factory=Comparisons)
+    other_methods: tuple[str, ...] = ()  # methods behind the class, bands, windows, comparisons
+    samples: Mapping[str, u.Quantity] = field(default_factory=dict, compare=False, repr=False)
+
+    @property
+    def credible_level(self) -> float:
+        return self.settings.credible_level
+
+    def summary(self, name: str) -> Summary:
+        """The summary of one quantity (KeyError if this event has none)."""
+        return self.quantities[name]
+
+
+# -- what a build makes of an event ---------------------------------------------------------------
+
+
+@dataclass(frozen=True)
+class FigureInfo:
+    """What a page needs to show a figure: its site path, alt text and caption."""
+
+    path: str
+    alt: str
+    caption: str
+
+
+@dataclass(frozen=True)
+class SiteFigure:
+    """One drawn figure: its site-relative path, SVG bytes, alt text and caption."""
+
+    path: str
+    svg: bytes
+    alt: str
+    caption: str
+    seconds: float = 0.0
+
+    @property
+    def info(self) -> FigureInfo:
+        return FigureInfo(self.path, self.alt, self.caption)
+
+
+@dataclass(frozen=True)
+class Audio:
+    """The chirp sound of a sheet: its site path and how it was made, in a sentence."""
+
+    path: str
+    description: str
+
+
+@dataclass(frozen=True)
+class EventBundle:
+    """A derived event (samples dropped) and its figure and sound files, ready for the pages."""
+
+    derived: Derived
+    figures: tuple[FigureInfo, ...]
+    audio: Audio
+    files: Mapping[str, bytes] = field(default_factory=dict, repr=False)
+    figure_seconds: float = 0.0
+    key: str = ""  # the build cache's key of this event, set by the cache

@@ -10,16 +10,19 @@ id: TEST-1
 title: A test pair
 time: "2034-04-12T07:26:41.2"
 status: confirmed
-parameters:
-  mass_1: 36 +5 -4 Msun
-  mass_2: 29 +4 -5 Msun
-  spin_1z: 0.1 +0.2 -0.2
-  spin_2z: 0.0 +0.3 -0.3
-  luminosity_distance: 440 +180 -170 Mpc
-false_alarm_rate: 1 / 80 yr
-snr: 14.3
-detectors: [A1, B1]
-sky_area: 580 deg2
+detection:
+  network: [A1, B1]
+  snr: 14.3
+  false_alarm_rate: 1 / 80 yr
+  sky_area: 580 deg2
+estimate:
+  heavier:
+    mass: 36 +5 -4 Msun
+    spin: 0.1 +0.2 -0.2
+  lighter:
+    mass: 29 +4 -5 Msun
+    spin: 0.0 +0.3 -0.3
+  distance: 440 +180 -170 Mpc
 summary: A *test* event.
 """
 

@@ -1,8 +1,9 @@
-"""The built demo site in a real headless chromium, over http and from file:// (DESIGN.md 5).
+"""The built demo site in a real headless chromium, over http and from file://.
 
 Checks what only a browser can: no console errors under the page's content policy, every image
 decodes, no request leaves 127.0.0.1, the index table sorts and filters, audio is playable. The
-launch arguments are the ones TESTING.md ("Real-browser tests") records as working here.
+browser is Debian's chromium package driven through Playwright, never a downloaded browser; the
+launch arguments below run it headless, without a sandbox, a GPU or background network traffic.
 """
 
 from __future__ import annotations

@@ -24,7 +24,7 @@ def test_check_lists_every_problem_and_exits_1(catalogue):
     assert result.returncode == 1
     assert "Traceback" not in result.stderr
     lines = result.stderr.strip().splitlines()
-    assert f"error: {folder / 'a.yaml'}:6: parameters.mass_1: " in lines[0]
+    assert f"error: {folder / 'a.yaml'}:12: estimate.heavier.mass: " in lines[0]
     assert any(f"{folder / 'b.yaml'}:1:" in line for line in lines)
     assert lines[-1] == "3 problems found"
 
@@ -41,7 +41,7 @@ def test_build_bad_input_keeps_earlier_site(catalogue, tmp_path):
     before = {p: p.read_bytes() for p in out.rglob("*") if p.is_file()}
     (folder / "a.yaml").write_text(VALID_EVENT.replace("36 +5", "x +5"))
     result = run("build", folder, "-o", out)
-    assert result.returncode == 1 and "a.yaml:6: parameters.mass_1" in result.stderr
+    assert result.returncode == 1 and "a.yaml:12: estimate.heavier.mass" in result.stderr
     assert "Traceback" not in result.stderr
     assert {p: p.read_bytes() for p in out.rglob("*") if p.is_file()} == before
 
@@ -51,14 +51,15 @@ def test_new_writes_a_template_that_checks_once_filled(tmp_path, capsys):
     path = tmp_path / "DX-0001.yaml"
     assert main(["check", str(tmp_path)]) == 1  # required values still empty
     err = capsys.readouterr().err
-    assert "parameters.mass_1: missing required key" in err and "time: missing" in err
+    assert "estimate.heavier.mass: missing required key" in err and "time: missing" in err
+    assert "estimate.lighter.mass: missing required key" in err
     text = path.read_text()
     for key, value in [
         ("title:", 'title: "A filled pair"'),
         ("time:", 'time: "2034-01-02T03:04:05"'),
-        ("  mass_1:", "  mass_1: 30 +3 -3 Msun"),
-        ("  mass_2:", "  mass_2: 20 +3 -3 Msun"),
-        ("  luminosity_distance:", "  luminosity_distance: 500 +100 -100 Mpc"),
+        ("  heavier:\n    mass:", "  heavier:\n    mass: 30 +3 -3 Msun"),
+        ("  lighter:\n    mass:", "  lighter:\n    mass: 20 +3 -3 Msun"),
+        ("  distance:", "  distance: 500 +100 -100 Mpc"),
     ]:
         text = text.replace(key + " ", value + "  #", 1)
     path.write_text(text)

@@ -1,11 +1,12 @@
 """Fuzzing: mutated event files through the loader, random valid events through the physics.
 
 The loader may only succeed or raise :class:`InputError`; any other exception is a bug. Valid
-parameters drawn at random must derive without an exception and without a non-finite summary.
+estimates drawn at random must derive without an exception and without a non-finite summary.
 """
 
 from __future__ import annotations
 
+import copy
 import math
 from pathlib import Path
 
@@ -47,12 +48,22 @@ def _load(path: Path) -> None:
     assert all(p.file == path or Path(p.file).parent == path.parent for p in problems)
 
 
+#: The mappings of an event whose keys are mutated: the top level and the nested sections.
+SECTIONS = ((), ("detection",), ("estimate",), ("estimate", "heavier"), ("estimate", "lighter"))
+
+
+def _section(data: dict, path: tuple[str, ...]) -> object:
+    for name in path:
+        data = data.get(name) if isinstance(data, dict) else None
+    return data
+
+
 @st.composite
 def mutated(draw) -> bytes:
     """A valid event with keys deleted, duplicated, retyped or renamed, maybe truncated."""
-    data = {k: (dict(v) if isinstance(v, dict) else v) for k, v in BASE.items()}
+    data = copy.deepcopy(BASE)
     for _ in range(draw(st.integers(1, 4))):
-        target = data if draw(st.booleans()) else data.get("parameters")
+        target = _section(data, draw(st.sampled_from(SECTIONS)))
         if not isinstance(target, dict) or not target:
             continue
         key = draw(st.sampled_from(sorted(target, key=str)))
@@ -100,21 +111,23 @@ def _interval(draw, low, high, unit):
 
 @st.composite
 def valid_events(draw) -> dict:
-    """Random parameters inside the documented calibration ranges of the fits."""
+    """Random estimates inside the documented calibration ranges of the fits."""
     m1 = draw(st.floats(1.2, 150.0))
     m2 = draw(st.floats(max(1.0, m1 / 18), m1))  # mass ratio up to 18 (Keitel et al. 2017)
-    parameters = {
-        "mass_1": f"{m1:.6g} +{0.1 * m1:.4g} -{0.1 * m1:.4g} Msun",
-        "mass_2": f"{m2:.6g} Msun",
-        "luminosity_distance": _interval(draw, 10.0, 8000.0, "Mpc"),
+    heavier = {"mass": f"{m1:.6g} +{0.1 * m1:.4g} -{0.1 * m1:.4g} Msun"}
+    lighter = {"mass": f"{m2:.6g} Msun"}
+    estimate = {
+        "heavier": heavier,
+        "lighter": lighter,
+        "distance": _interval(draw, 10.0, 8000.0, "Mpc"),
     }
     if draw(st.booleans()):
-        parameters["chi_eff"] = f"{draw(st.floats(-0.9, 0.9)):.3f}"
+        estimate["effective_spin"] = f"{draw(st.floats(-0.9, 0.9)):.3f}"
     else:
-        parameters["spin_1z"] = f"{draw(st.floats(-0.95, 0.95)):.3f} +0.05 -0.05"
-        parameters["spin_2z"] = f"{draw(st.floats(-0.95, 0.95)):.3f}"
+        heavier["spin"] = f"{draw(st.floats(-0.95, 0.95)):.3f} +0.05 -0.05"
+        lighter["spin"] = f"{draw(st.floats(-0.95, 0.95)):.3f}"
     frame = draw(st.sampled_from(["source", "detector"]))
-    return {"id": "FZ-1", "time": "2034-01-01T00:00:00", "frame": frame, "parameters": parameters}
+    return {"id": "FZ-1", "time": "2034-01-01T00:00:00", "frame": frame, "estimate": estimate}
 
 
 @settings(max_examples=30, deadline=None)

@@ -7,8 +7,9 @@ from pathlib import Path
 import pytest
 from helpers import VALID_EVENT, write_catalogue
 
-from factsheet import render
 from factsheet.build import build
+from factsheet.render import environment, site
+from factsheet.resources import templates_dir
 
 
 def event(event_id: str, mass: str = "36 +5 -4 Msun", extra: str = "") -> str:
@@ -29,7 +30,7 @@ def hashes(folder: Path) -> dict[str, str]:
 def cat(tmp_path):
     (tmp_path / "cat").mkdir()
     (tmp_path / "cat" / "s.csv").write_text(
-        "mass_1 [Msun],mass_2 [Msun],luminosity_distance [Mpc]\n30,20,400\n32,21,450\n31,19,500\n"
+        "heavier.mass [Msun],lighter.mass [Msun],distance [Mpc]\n30,20,400\n32,21,450\n31,19,500\n"
     )
     return write_catalogue(
         tmp_path / "cat",
@@ -86,10 +87,11 @@ def test_template_change_reaches_the_pages(cat, tmp_path, monkeypatch):
     out = tmp_path / "site"
     build(cat, out, jobs=1)
     templates = tmp_path / "templates"
-    shutil.copytree(render.templates_dir(), templates)
+    shutil.copytree(templates_dir(), templates)
     page = templates / "event.html"
     page.write_text(page.read_text().replace("All events", "Every event"))
-    monkeypatch.setattr(render, "templates_dir", lambda: templates)
+    for module in (environment, site):  # the loader and fingerprint, and the static copy
+        monkeypatch.setattr(module, "templates_dir", lambda: templates)
     report = build(cat, out, jobs=1)
     assert report.reused == 3
     assert "Every event" in (out / "events" / "A-1.html").read_text()

@@ -114,7 +114,7 @@ def test_failed_build_leaves_existing_folder_whole(tmp_path):
     out = tmp_path / "site"
     assert _build(old, out).returncode == 0
     before = _snapshot(out)
-    (old / "mer34-001.csv").write_text("mass_1 [Msun]\n1\n", encoding="utf-8")
+    (old / "mer34-001.csv").write_text("heavier.mass [Msun]\n1\n", encoding="utf-8")
     failed = _build(old, out)
     assert failed.returncode == 1 and "Traceback" not in failed.stderr
     assert f"{old / 'mer34-001.csv'}:1: header:" in failed.stderr

@@ -1,4 +1,4 @@
-"""The shipped folders are found in a wheel install and in a checkout (TESTING.md, packaging)."""
+"""The shipped folders are found in a wheel install and in a checkout (packaging)."""
 
 import zipfile
 

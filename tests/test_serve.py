@@ -64,7 +64,7 @@ def test_rebuilds_after_a_change_and_keeps_the_last_good_site(running, capsys):
     assert wait_for(lambda: state.version >= 2)
     assert b"A renamed pair" in get(base + "/events/TEST-1.html")[1]
     (cat / "a.yaml").write_text(VALID_EVENT.replace("36 +5 -4 Msun", "36 +5 -4 Mpc"))
-    assert wait_for(lambda: "a.yaml:6: parameters.mass_1" in capsys.readouterr().err)
+    assert wait_for(lambda: "a.yaml:12: estimate.heavier.mass" in capsys.readouterr().err)
     status, body = get(base + "/events/TEST-1.html")
     assert status == 200 and b"A renamed pair" in body and state.version == 2
 
@@ -81,4 +81,4 @@ def test_rebuilds_after_a_change_and_keeps_the_last_good_site(running, capsys):
 def test_refuses_paths_outside_the_output_folder(running, path):
     _cat, base, _state, _out = running
     status, body = get(base + path)
-    assert status == 404 and b"root:" not in body and b"parameters" not in body
+    assert status == 404 and b"root:" not in body and b"estimate" not in body

@@ -1,12 +1,14 @@
-"""End to end: build the packaged demo and read the site back (DESIGN.md sections 5 and 6)."""
+"""End to end: build the packaged demo and read the site back (pages, links, the JSON export)."""
 
 import json
+import re
 from html.parser import HTMLParser
 from pathlib import Path
 from urllib.parse import urlsplit
 
 import astropy.units as u
 import pytest
+from helpers import VALID_EVENT, write_catalogue
 
 from factsheet.build import build
 from factsheet.load import load_catalogue
@@ -23,31 +25,32 @@ CONTRACT_KEYS = {
     "caveats",
 }
 QUANTITY_KEYS = {
-    "mass_1",
-    "mass_2",
+    "heavier_mass",
+    "lighter_mass",
     "total_mass",
     "chirp_mass",
     "mass_ratio",
-    "chi_eff",
-    "luminosity_distance",
+    "distance",
     "redshift",
     "isco_frequency",
     "time_in_band",
 }
+#: Spins an event may give; the effective spin is summarised only when one of them is given.
+SPIN_PATHS = {"heavier.spin", "lighter.spin", "effective_spin"}
 REMNANT_KEYS = {
-    "final_mass",
-    "final_spin",
+    "remnant_mass",
+    "remnant_spin",
     "radiated_mass",
-    "radiated_energy",
+    "energy_radiated",
     "peak_luminosity",
     "kick_velocity",
     "ringdown_frequency",
     "ringdown_damping_time",
 }
 UNITS = {
-    "mass_1": "solMass",
-    "luminosity_distance": "Mpc",
-    "radiated_energy": "J",
+    "heavier_mass": "solMass",
+    "distance": "Mpc",
+    "energy_radiated": "J",
     "peak_luminosity": "W",
     "kick_velocity": "km / s",
     "ringdown_frequency": "Hz",
@@ -55,6 +58,38 @@ UNITS = {
     "isco_frequency": "Hz",
     "time_in_band": "s",
 }
+
+#: Every quantity key of the version-2 export, in the order the export writes them.
+VERSION_2_QUANTITIES = (
+    "heavier_mass",
+    "lighter_mass",
+    "total_mass",
+    "chirp_mass",
+    "mass_ratio",
+    "effective_spin",
+    "heavier_spin",
+    "lighter_spin",
+    "distance",
+    "redshift",
+    "remnant_mass",
+    "remnant_spin",
+    "radiated_mass",
+    "energy_radiated",
+    "peak_luminosity",
+    "kick_velocity",
+    "ringdown_frequency",
+    "ringdown_damping_time",
+    "isco_frequency",
+    "time_in_band",
+    "heavier_mass_detector",
+    "lighter_mass_detector",
+    "total_mass_detector",
+    "chirp_mass_detector",
+    "cycles_in_band",
+    "strain_amplitude",
+    "arm_length_change",
+)
+BAND_KEYS = {"neutron_star", "lower_gap", "stellar_black_hole", "pair_instability_gap", "above_gap"}
 
 
 class Links(HTMLParser):
@@ -66,6 +101,25 @@ class Links(HTMLParser):
         for name, value in attrs:
             if name in ("href", "src") and value:
                 self.links.append(value)
+
+
+class Images(HTMLParser):
+    """The alt text of every image, by the file name it shows."""
+
+    def __init__(self):
+        super().__init__()
+        self.alt: dict[str, str] = {}
+
+    def handle_starttag(self, tag, attrs):
+        found = dict(attrs)
+        if tag == "img" and found.get("src"):
+            self.alt[found["src"].rsplit("/", 1)[-1]] = found.get("alt", "")
+
+
+def alt_texts(page: Path) -> dict[str, str]:
+    parser = Images()
+    parser.feed(page.read_text(encoding="utf-8"))
+    return parser.alt
 
 
 @pytest.fixture(scope="module")
@@ -85,18 +139,20 @@ def test_every_public_event_has_a_page_and_json(demo_site):
         assert (demo_site / "events" / f"{event.id}.html").is_file()
         data = json.loads((demo_site / "data" / f"{event.id}.json").read_text())
         assert data.keys() >= CONTRACT_KEYS and data["quantities"].keys() >= QUANTITY_KEYS
+        given = set(event.estimate.values()) | set(event.samples.values if event.samples else ())
+        assert ("effective_spin" in data["quantities"]) == bool(given & SPIN_PATHS), event.id
         for name, q in data["quantities"].items():
             assert q["low"] <= q["median"] <= q["high"], name
-            u.Unit(q["unit"])  # astropy unit strings (DESIGN.md section 6)
+            u.Unit(q["unit"])  # the export gives astropy unit strings
         if data["source_class"] == "BBH":
             assert data["quantities"].keys() >= REMNANT_KEYS
-            assert data["quantities"]["final_spin"]["fit_spread"] >= 0
+            assert data["quantities"]["remnant_spin"]["fit_spread"] >= 0
         for name, unit in UNITS.items():
             if name in data["quantities"]:
                 assert data["quantities"][name]["unit"] == unit
-        assert set(data["mass_bands"]) >= {"mass_1", "mass_2"}
+        assert set(data["mass_bands"]) >= {"heavier", "lighter"}
         for bands in data["mass_bands"].values():
-            assert sum(p for k, p in bands.items() if k != "intermediate_mass") == pytest.approx(1)
+            assert sum(bands.values()) == pytest.approx(1)
 
 
 def test_every_relative_link_resolves(demo_site):
@@ -126,8 +182,6 @@ def test_sheets_carry_previous_and_next_links(demo_site):
 
 
 def test_cgs_energy_units_on_the_page(tmp_path):
-    from helpers import VALID_EVENT, write_catalogue
-
     cat = write_catalogue(
         tmp_path / "cat", {"a.yaml": VALID_EVENT, "catalogue.yaml": "energy_units: cgs\n"}
     )
@@ -135,7 +189,7 @@ def test_cgs_energy_units_on_the_page(tmp_path):
     page = (tmp_path / "out" / "events" / "TEST-1.html").read_text()
     assert "erg s⁻¹" in page and "× 10⁵⁶ erg s⁻¹" in page  # peak luminosity ~ 3.6e56 erg/s
     data = json.loads((tmp_path / "out" / "data" / "TEST-1.json").read_text())
-    assert data["quantities"]["radiated_energy"]["unit"] == "J"  # the JSON contract keeps SI
+    assert data["quantities"]["energy_radiated"]["unit"] == "J"  # the JSON contract keeps SI
 
 
 def test_sheets_state_the_detection_and_class_probabilities(demo_site):
@@ -144,9 +198,89 @@ def test_sheets_state_the_detection_and_class_probabilities(demo_site):
     assert set(probs) == {"BNS", "NSBH", "BBH"} and sum(probs.values()) == pytest.approx(1)
     assert 0 <= data["disruption_probability"] <= 1
     detection = data["detection"]
-    assert detection["detectors"] and detection["snr"] > 0
+    assert detection["network"] and detection["snr"] > 0
     assert detection["false_alarm_rate"]["unit"] == "1 / yr"
     page = (demo_site / "events" / "MER34-008.html").read_text(encoding="utf-8")
     assert "Network signal-to-noise ratio" in page and "Neutron star torn apart" in page
-    for name in detection["detectors"]:
+    for name in detection["network"]:
         assert name in page
+
+
+def test_exports_use_the_version_2_vocabulary(demo_site):
+    exports = sorted((demo_site / "data").glob("*.json"))
+    assert exports
+    for path in exports:
+        data = json.loads(path.read_text())
+        assert data["format_version"] == 2, path.name
+        keys = list(data["quantities"])
+        assert set(keys) <= set(VERSION_2_QUANTITIES), path.name
+        assert keys == [k for k in VERSION_2_QUANTITIES if k in keys], path.name
+        subjects = {"heavier", "lighter"} | ({"remnant"} if "remnant_mass" in keys else set())
+        assert set(data["mass_bands"]) == subjects, path.name
+        for subject, bands in data["mass_bands"].items():
+            assert set(bands) == BAND_KEYS, (path.name, subject)
+            assert all(0 <= p <= 1 for p in bands.values()), (path.name, subject)
+            assert abs(sum(bands.values()) - 1) <= 1e-9, (path.name, subject)
+        assert set(data["intermediate_mass"]) == subjects, path.name
+        assert all(0 <= p <= 1 for p in data["intermediate_mass"].values()), path.name
+
+
+def test_cgs_energy_units_on_the_index(tmp_path):
+    cat = write_catalogue(
+        tmp_path / "cat", {"a.yaml": VALID_EVENT, "catalogue.yaml": "energy_units: cgs\n"}
+    )
+    build(cat, tmp_path / "out", jobs=1)
+    index = (tmp_path / "out" / "index.html").read_text(encoding="utf-8")
+    page = (tmp_path / "out" / "events" / "TEST-1.html").read_text(encoding="utf-8")
+    row = re.search(r'<th scope="row">Energy radiated</th><td class="num">([^<]*)</td>', page)
+    assert row and row.group(1).endswith(" erg")  # ~ 5e54 erg
+    cells = re.findall(r'<td class="num" data-sort="[^"]*">([^<]*)</td>', index)
+    assert row.group(1) in cells  # the same number in the same unit as the sheet
+    assert " J<" not in index  # no cell in joules
+
+
+def test_history_of_a_detector_frame_event_names_the_frame(tmp_path):
+    event = """\
+        id: TEST-2
+        title: A pair measured in the detector frame
+        time: "2034-04-12T07:26:41.2"
+        frame: detector
+        estimate:
+          heavier: {mass: 36 +5 -4 Msun}
+          lighter: {mass: 29 +4 -5 Msun}
+          distance: 440 +180 -170 Mpc
+        history:
+          - date: "2034-04-12"
+            label: First look
+            estimate:
+              heavier: {mass: 40 +8 -6 Msun}
+              lighter: {mass: 27 +6 -6 Msun}
+              distance: 500 +200 -200 Mpc
+          - date: "2034-04-20"
+            label: Second look
+            estimate:
+              heavier: {mass: 37 +6 -5 Msun}
+              lighter: {mass: 28 +5 -5 Msun}
+              distance: 450 +190 -180 Mpc
+        """
+    cat = write_catalogue(tmp_path / "cat", {"a.yaml": event})
+    build(cat, tmp_path / "out", jobs=1)
+    page = tmp_path / "out" / "events" / "TEST-2.html"
+    history = page.read_text(encoding="utf-8").split('<ol class="history">', 1)[1]
+    items = re.findall(r"<li>([^<]*)</li>", history.split("</ol>", 1)[0])
+    masses = [item for item in items if "M⊙" in item]
+    assert len(masses) == 6  # two masses in each of the two entries and the current estimate
+    for item in masses:
+        assert item.startswith(("m₁ (detector frame): ", "m₂ (detector frame): ")), item
+    alt = alt_texts(page)["TEST-2-history.svg"]
+    assert "m₁ (detector frame): " in alt and "m₂ (detector frame): " in alt
+    assert "m₁:" not in alt and "m₂:" not in alt
+
+
+def test_masses_figure_states_the_catalogue_credible_level(tmp_path):
+    cat = write_catalogue(
+        tmp_path / "cat", {"a.yaml": VALID_EVENT, "catalogue.yaml": "credible_level: 0.68\n"}
+    )
+    build(cat, tmp_path / "out", jobs=1)
+    alt = alt_texts(tmp_path / "out" / "events" / "TEST-1.html")["TEST-1-masses.svg"]
+    assert "68 %" in alt and "90 %" not in alt

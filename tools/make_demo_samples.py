@@ -6,12 +6,12 @@ that a rerun rewrites the identical file. Run from anywhere:
 
     python tools/make_demo_samples.py
 
-File layout (read by the loader, see DESIGN.md section 4):
+File layout (read by the loader, see docs/samples-files.md):
 
 * lines starting with ``#`` are comments;
-* the first other line is the header: one cell per parameter, written ``name [unit]`` with an
-  astropy unit string (``Msun`` and ``Mpc`` are the input-format aliases); a dimensionless
-  column has no bracket, e.g. ``spin_1z``;
+* the first other line is the header: one cell per value, written ``path [unit]`` with the
+  path of the value in an estimate and an astropy unit string (``Msun`` and ``Mpc`` are the
+  input-format aliases); a dimensionless column has no bracket, e.g. ``heavier.spin``;
 * every further line is one sample, values rounded to 5 significant digits.
 
 How the samples are drawn (a toy model of how a compact-binary measurement looks, not a fit):
@@ -38,21 +38,27 @@ OUT = Path(__file__).resolve().parent.parent / "events_demo" / "mer34-001.csv"
 CHIRP_MASS = 26.5  # Msun, source frame, median of the invented measurement
 CHIRP_MASS_REL_SD = 0.025
 Q_BETA = (9.0, 2.6)  # beta-distribution shape parameters of q (mean ~0.78)
-SPIN_1Z = (0.05, 0.20)  # mean, standard deviation before the q tilt
-SPIN_2Z = (0.00, 0.33)
-SPIN_Q_TILT = -0.35  # spin_1z shift per unit of q above its mean
+HEAVIER_SPIN = (0.05, 0.20)  # mean, standard deviation before the q tilt
+LIGHTER_SPIN = (0.00, 0.33)
+SPIN_Q_TILT = -0.35  # shift of the heavier body's spin per unit of q above its mean
 DISTANCE_MEDIAN = 1290.0  # Mpc
 DISTANCE_LOG_SD = 0.25
 
-HEADER = ["mass_1 [Msun]", "mass_2 [Msun]", "spin_1z", "spin_2z", "luminosity_distance [Mpc]"]
+HEADER = [
+    "heavier.mass [Msun]",
+    "lighter.mass [Msun]",
+    "heavier.spin",
+    "lighter.spin",
+    "distance [Mpc]",
+]
 COMMENT = (  # no commas, so that a plain CSV reader sees one cell if it does not skip comments
     "# MER34-001 posterior samples invented for the factsheet demo (not a real measurement);"
-    " header cells read: name [astropy unit]; a cell without a bracket is dimensionless"
+    " header cells read: path [astropy unit]; a cell without a bracket is dimensionless"
 )
 
 
 def components_from_chirp(chirp_mass: np.ndarray, q: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
-    """Component masses from chirp mass and q = m2/m1 <= 1 (definition of the chirp mass)."""
+    """The bodies' masses from chirp mass and q = m2/m1 <= 1 (definition of the chirp mass)."""
     m1 = chirp_mass * (1.0 + q) ** 0.2 / q**0.6
     return m1, q * m1
 
@@ -73,9 +79,9 @@ def draw(rng: np.random.Generator, n: int) -> dict[str, np.ndarray]:
     chirp = CHIRP_MASS * (1.0 + CHIRP_MASS_REL_SD * rng.standard_normal(n))
     q = rng.beta(*Q_BETA, size=n)
     m1, m2 = components_from_chirp(chirp, q)
-    spin1_mean = SPIN_1Z[0] + SPIN_Q_TILT * (q - q.mean())
-    spin1 = bounded_normal(rng, spin1_mean, SPIN_1Z[1])
-    spin2 = bounded_normal(rng, np.full(n, SPIN_2Z[0]), SPIN_2Z[1])
+    spin1_mean = HEAVIER_SPIN[0] + SPIN_Q_TILT * (q - q.mean())
+    spin1 = bounded_normal(rng, spin1_mean, HEAVIER_SPIN[1])
+    spin2 = bounded_normal(rng, np.full(n, LIGHTER_SPIN[0]), LIGHTER_SPIN[1])
     distance = DISTANCE_MEDIAN * np.exp(DISTANCE_LOG_SD * rng.standard_normal(n))
     return dict(zip(HEADER, (m1, m2, spin1, spin2, distance), strict=True))
 
@@ -92,7 +98,7 @@ def write_csv(columns: dict[str, np.ndarray], path: Path) -> None:
 
 
 def summarise(columns: dict[str, np.ndarray], level: float = 0.9) -> None:
-    """Print median and equal-tailed credible offsets, to copy into the event's parameters."""
+    """Print median and equal-tailed credible offsets, to copy into the event's estimate."""
     tail = 50.0 * (1.0 - level)
     for name, values in columns.items():
         low, mid, high = np.percentile(values, [tail, 50.0, 100.0 - tail])

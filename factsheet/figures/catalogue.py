@@ -7,6 +7,7 @@ import numpy as np
 from matplotlib.axes import Axes
 from matplotlib.patches import Patch
 
+from factsheet import labels
 from factsheet.figures import style
 from factsheet.figures.inputs import DistanceItem, Drawing, PlaneItem
 from factsheet.figures.ticks import set_log_ticks
@@ -14,14 +15,8 @@ from factsheet.figures.words import count_words, value_words
 
 MSUN, MPC = u.Msun, u.Mpc
 LABEL_ALL_UP_TO = 15  # with more events, only the notable ones are labelled
-BAND_TEXT = {
-    "neutron_star": "neutron star",
-    "lower_gap": "lower gap",
-    "black_hole": "black hole",
-    "pair_instability_gap": "pair-instability gap",
-    "above_gap": "above gap",
-}
 STATUS_ORDER = ("confirmed", "candidate", "retracted")
+_SOURCE_FRAME = " (source frame)"
 
 
 def _status_style(status: str, colour: str) -> dict:
@@ -86,16 +81,20 @@ def notable(xs: np.ndarray, ys: np.ndarray, ids: list[str], chosen: set[str] | N
 
 
 def band_ranges(edges: dict[str, float], lo: float, hi: float) -> list[tuple[str, float, float]]:
-    """The five mass bands as (name, start, end) in M⊙, clipped to the axis range lo..hi."""
+    """The five mass bands as (name, start, end) in M⊙, clipped to the axis range lo..hi.
+
+    ``edges`` maps the reference data's edge keys (``neutron_star_max``, ``lower_gap_top``,
+    ``pair_instability_lower``, ``pair_instability_upper``) to masses in M⊙.
+    """
     cuts = [
         lo,
         edges["neutron_star_max"],
-        edges["lower_gap_max"],
-        edges["pair_instability_min"],
-        edges["pair_instability_max"],
+        edges["lower_gap_top"],
+        edges["pair_instability_lower"],
+        edges["pair_instability_upper"],
         hi,
     ]
-    names = list(BAND_TEXT)
+    names = list(labels.BANDS)
     bands = [(names[k], max(cuts[k], lo), min(cuts[k + 1], hi)) for k in range(5)]
     return [b for b in bands if b[2] > b[1]]
 
@@ -107,7 +106,7 @@ def _shade_bands(ax, bands: list[tuple[str, float, float]]) -> list[Patch]:
         shade = style.BAND_SHADE[name]
         ax.axvspan(a, b, color=shade, alpha=0.7, lw=0, zorder=0)
         ax.axhspan(a, b, color=shade, alpha=0.7, lw=0, zorder=0)
-        handles.append(Patch(color=shade, label=BAND_TEXT[name]))
+        handles.append(Patch(color=shade, label=labels.BANDS[name]))
     # m2 > m1 is empty by convention: the shades fade there, and the legend sits there
     ax.fill_between(
         [1e-3, 1e6], [1e-3, 1e6], 1e6, color=style.AXES_FACE, alpha=0.6, lw=0, zorder=0.5
@@ -135,8 +134,8 @@ def _square_log_axes(ax: Axes, lo: float, hi: float) -> None:
         fontsize=7,
         color=style.MUTED,
     )
-    ax.set_xlabel(style.unit_label("Primary mass m₁ (source frame)", MSUN))
-    ax.set_ylabel(style.unit_label("Secondary mass m₂ (source frame)", MSUN))
+    ax.set_xlabel(style.unit_label(labels.QUANTITIES["heavier_mass"].name + _SOURCE_FRAME, MSUN))
+    ax.set_ylabel(style.unit_label(labels.QUANTITIES["lighter_mass"].name + _SOURCE_FRAME, MSUN))
 
 
 @style.styled
@@ -168,13 +167,15 @@ def _status_counts(statuses: list[str]) -> str:
 def _plane_alt(m1: np.ndarray, m2: np.ndarray, statuses: list[str], edges: dict) -> str:
     return (
         f"Component-mass plane of {count_words(len(statuses), 'event')} "
-        f"({_status_counts(statuses)}): primary masses from {value_words(m1[:, 0].min(), MSUN)} "
-        f"to {value_words(m1[:, 0].max(), MSUN)}, secondary masses from "
-        f"{value_words(m2[:, 0].min(), MSUN)} to {value_words(m2[:, 0].max(), MSUN)}. Shaded "
-        f"mass bands: neutron stars up to {value_words(edges['neutron_star_max'], MSUN)}, "
-        f"lower gap to {value_words(edges['lower_gap_max'], MSUN)}, pair-instability gap "
-        f"{value_words(edges['pair_instability_min'], MSUN)} to "
-        f"{value_words(edges['pair_instability_max'], MSUN)}."
+        f"({_status_counts(statuses)}): heavier bodies from "
+        f"{value_words(m1[:, 0].min(), MSUN)} to {value_words(m1[:, 0].max(), MSUN)}, lighter "
+        f"bodies from {value_words(m2[:, 0].min(), MSUN)} to "
+        f"{value_words(m2[:, 0].max(), MSUN)}. Shaded mass bands: "
+        f"{labels.BANDS['neutron_star']} up to {value_words(edges['neutron_star_max'], MSUN)}, "
+        f"{labels.BANDS['lower_gap']} to {value_words(edges['lower_gap_top'], MSUN)}, "
+        f"{labels.BANDS['pair_instability_gap']} "
+        f"{value_words(edges['pair_instability_lower'], MSUN)} to "
+        f"{value_words(edges['pair_instability_upper'], MSUN)}."
     )
 
 
@@ -195,8 +196,8 @@ def distance_mass(events: list[DistanceItem], notable_ids: set[str] | None = Non
     ax.set_ylim(ylo, yhi)
     set_log_ticks(ax.xaxis, xlo, xhi)
     set_log_ticks(ax.yaxis, ylo, yhi)
-    ax.set_xlabel(style.unit_label("Total mass (source frame)", MSUN))
-    ax.set_ylabel(style.unit_label("Luminosity distance", MPC))
+    ax.set_xlabel(style.unit_label(labels.QUANTITIES["total_mass"].name + _SOURCE_FRAME, MSUN))
+    ax.set_ylabel(style.unit_label(labels.QUANTITIES["distance"].name, MPC))
     ax.legend(loc="lower right", fontsize=7, frameon=True, framealpha=0.9)
     style.finish_axes(ax)
     alt = (

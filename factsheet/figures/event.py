@@ -14,6 +14,7 @@ from factsheet.figures import style
 from factsheet.figures.inputs import Drawing, IntervalItem
 from factsheet.figures.ticks import set_log_ticks
 from factsheet.figures.words import interval_words, value_words
+from factsheet.notation import percent
 
 INTERVAL_COLOURS = ("primary", "secondary", "remnant")
 
@@ -25,7 +26,7 @@ def _quantity_name(unit: str) -> str:
 
 @style.styled
 def component_intervals(items: list[IntervalItem]) -> Drawing:
-    """Horizontal error bars of medians and 90 % credible intervals (standard interval plot)."""
+    """Horizontal error bars of medians and credible intervals (standard interval plot)."""
     unit = items[0].unit_str
     names = [style.wrapped(item.label) for item in items]
     height = 0.5 + style.row_height(names, 0.42) * len(items)
@@ -52,7 +53,8 @@ def component_intervals(items: list[IntervalItem]) -> Drawing:
     ax.set_xlabel(style.unit_label(_quantity_name(unit), unit))
     style.finish_axes(ax, grid_axis="x")
     parts = [f"{i.label} {interval_words(i.median, i.low, i.high, unit)}" for i in items]
-    return Drawing(fig, "Medians with 90 % credible intervals: " + "; ".join(parts) + ".")
+    levels = "/".join(dict.fromkeys(percent(i.level) for i in items))
+    return Drawing(fig, f"Medians with {levels} credible intervals: " + "; ".join(parts) + ".")
 
 
 def _cycle(names: tuple[str, ...], n: int) -> list[str]:

@@ -23,13 +23,14 @@ class Drawing(NamedTuple):
 
 
 class IntervalItem(NamedTuple):
-    """One quantity with its median and credible-interval bounds (not offsets)."""
+    """One quantity with its median and the bounds (not offsets) of its credible interval."""
 
     label: str
     median: float
     low: float
     high: float
     unit_str: str
+    level: float  # the credible level of the interval, e.g. 0.9
 
 
 class Track(NamedTuple):
@@ -44,7 +45,8 @@ class Track(NamedTuple):
 
 
 class WindowItem(NamedTuple):
-    """A counterpart window in one band, in days relative to the merger (negative = before)."""
+    """A counterpart window in days relative to the merger (negative = before); ``band`` is a key
+    of :data:`factsheet.labels.WINDOW_BANDS`."""
 
     name: str
     band: str
@@ -65,7 +67,8 @@ class HistoryItem(NamedTuple):
 
 
 class PlaneItem(NamedTuple):
-    """One event on the component-mass plane: medians and interval bounds of m1 and m2."""
+    """One event on the mass plane: medians and interval bounds of the heavier (m1) and the
+    lighter (m2) body."""
 
     id: str
     m1_median: Number

@@ -20,7 +20,7 @@ import matplotlib
 from matplotlib.axes import Axes
 from matplotlib.figure import Figure
 
-from factsheet.formatting import unit_text
+from factsheet.notation import unit_text
 
 PANEL = "#FAFAF7"  # figure face: the light panel every figure sits on
 AXES_FACE = "#FFFFFF"
@@ -43,18 +43,17 @@ ROLE = {
 BAND_SHADE = {  # pale tints, only ever behind labelled regions
     "neutron_star": "#CDE6F5",
     "lower_gap": "#F4EDB0",
-    "black_hole": "#DCEFE7",
+    "stellar_black_hole": "#DCEFE7",
     "pair_instability_gap": "#F5D9AE",
     "above_gap": "#EAD3E2",
 }
 
-WINDOW = {
-    "gamma": "#A8487F",
-    "xray_radio": "#0072B2",
-    "optical": "#009E73",
+WINDOW = {  # by window band (the keys of factsheet.labels.WINDOW_BANDS)
+    "gamma_ray": "#A8487F",
+    "x_ray_radio": "#0072B2",
+    "optical_ultraviolet": "#009E73",
     "infrared": "#D55E00",
     "neutrino": "#56B4E9",
-    "flare": "#E69F00",
 }
 
 RC = {

@@ -13,15 +13,8 @@ from factsheet.figures import style
 from factsheet.figures.inputs import Drawing, HistoryItem, WindowItem
 from factsheet.figures.ticks import plain_number
 from factsheet.figures.words import interval_words
+from factsheet.labels import WINDOW_BANDS
 
-BAND_NAME = {
-    "gamma": "gamma rays",
-    "xray_radio": "X-ray / radio",
-    "optical": "optical",
-    "infrared": "infrared",
-    "neutrino": "neutrinos",
-    "flare": "flare",
-}
 # Tick marks of the window axis, in seconds, named as people say them.
 _MARKS = [
     (u.s, "1 s"),
@@ -66,7 +59,7 @@ def _window_axis(ax: Axes, left: float, right: float, merger_utc: str) -> None:
 
 def _band_legend(fig: Figure, windows: list[WindowItem], left: float) -> None:
     bands = list(dict.fromkeys(w.band for w in windows))
-    handles = [Patch(color=style.WINDOW[b], label=BAND_NAME.get(b, b)) for b in bands]
+    handles = [Patch(color=style.WINDOW[b], label=WINDOW_BANDS[b]) for b in bands]
     fig.legend(
         handles=handles,
         loc="upper left",
@@ -104,8 +97,7 @@ def window_timeline(windows: list[WindowItem], merger_utc: str) -> Drawing:
     _band_legend(fig, windows, left)
     style.finish_axes(ax, grid_axis="x")
     parts = [
-        f"{w.name} ({BAND_NAME.get(w.band, w.band)}) from {duration_words(s)} to "
-        f"{duration_words(e)}"
+        f"{w.name} ({WINDOW_BANDS[w.band]}) from {duration_words(s)} to {duration_words(e)}"
         for w, s, e in zip(windows, starts, ends, strict=True)
     ]
     alt = f"Counterpart windows relative to the merger at {merger_utc}: " + "; ".join(parts)

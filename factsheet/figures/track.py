@@ -11,6 +11,7 @@ from factsheet.figures import style
 from factsheet.figures.inputs import Drawing, Track
 from factsheet.figures.ticks import plain_number, set_log_ticks, symlog_tick_values
 from factsheet.figures.words import value_words
+from factsheet.labels import QUANTITIES
 
 MAX_TRACK_POINTS = 600  # the track is thinned to this many points for the drawing
 LINTHRESH_S = 1e-2  # the time axis is linear within ±10 ms of the merger, logarithmic beyond
@@ -28,10 +29,12 @@ def _marks(track: Track) -> list[tuple[str, float, str, str]]:
     """(name, frequency, palette role, line style) of each marked frequency."""
     marks = [
         ("band edge", track.f_low_hz, "band_edge", "--"),
-        ("ISCO", track.f_isco_hz, "isco", ":"),
+        (QUANTITIES["isco_frequency"].short, track.f_isco_hz, "isco", ":"),
     ]
     if track.f_ringdown_hz is not None:
-        marks.append(("ringdown", track.f_ringdown_hz, "ringdown", "-."))
+        marks.append(
+            (QUANTITIES["ringdown_frequency"].short, track.f_ringdown_hz, "ringdown", "-.")
+        )
     return marks
 
 

@@ -6,7 +6,7 @@ import math
 
 import astropy.units as u
 
-from factsheet.formatting import decimal_place, format_value, unit_text
+from factsheet.notation import decimal_place, format_value, unit_text
 
 
 def _fmt(x: float, place: int) -> str:

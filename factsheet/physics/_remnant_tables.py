@@ -55,8 +55,8 @@ HBR16 = {
     (1, 2): (0.41616, ((None, -1.2019, -1.20764), (3.79245, 1.18385, 4.90494))),
 }
 
-# Equal-mass non-spinning final spin, numerical relativity (Scheel et al. 2009, PRD 79, 024003).
-EQUAL_MASS_FINAL_SPIN = 0.68646
+# Equal-mass non-spinning remnant spin, numerical relativity (Scheel et al. 2009, PRD 79, 024003).
+EQUAL_MASS_REMNANT_SPIN = 0.68646
 
 BR09 = {"s4": -0.1229, "s5": 0.4537, "t0": -2.8904, "t2": -3.5171, "t3": 2.5763}
 

@@ -1,4 +1,4 @@
-"""Mass bands and source classes, computed from mass samples (METHODS.md §11).
+"""Mass bands and source classes, computed from mass samples (docs/methods.md §11).
 
 Band edges are source-frame masses passed in as a mapping from the edge names in
 :data:`EDGE_KEYS` to Quantities (the packaged reference data supplies them, ``catalogue.yaml``
@@ -24,10 +24,11 @@ EDGE_KEYS = (
     "pair_instability_lower",
     "pair_instability_upper",
 )
-#: Threshold of the remnant's intermediate-mass label (overlaps the other bands).
+#: Threshold of intermediate mass: a separate question, not a band (it overlaps the bands).
 INTERMEDIATE_KEY = "intermediate_mass_min"
-#: Bands in order of mass; ``BANDS[i]`` lies between ``EDGE_KEYS[i-1]`` and ``EDGE_KEYS[i]``.
-BANDS = ("neutron_star", "lower_gap", "black_hole", "pair_instability_gap", "above_gap")
+#: Bands in order of mass; ``BANDS[i]`` lies between ``EDGE_KEYS[i-1]`` and ``EDGE_KEYS[i]``, so
+#: the bands partition the mass axis and their probabilities sum to 1.
+BANDS = ("neutron_star", "lower_gap", "stellar_black_hole", "pair_instability_gap", "above_gap")
 SOURCE_CLASSES = ("BNS", "NSBH", "BBH")
 
 register(
@@ -43,14 +44,14 @@ register(
         formula="P(band) = fraction of samples with lower edge <= m < upper edge",
         validity="source-frame masses; the edges themselves are uncertain by tens of per cent",
         accuracy="sampling error ~ sqrt(P(1-P)/N); edge uncertainty dominates",
-        quantities=("mass_bands",),
+        quantities=("mass_bands", "intermediate_mass"),
     )
 )
 register(
     Method(
         id=SOURCE_CLASS,
         title="Source class from component masses",
-        citation="maximum neutron-star mass as for the mass bands (METHODS.md §11)",
+        citation="maximum neutron-star mass as for the mass bands (docs/methods.md §11)",
         formula="BNS: m1, m2 < M_NS,max; NSBH: m2 < M_NS,max <= m1; BBH: m1, m2 >= M_NS,max",
         validity="by mass alone; says nothing about matter seen in the signal",
         quantities=("source_class",),
@@ -66,11 +67,12 @@ def _edge(edges: Mapping[str, u.Quantity], key: str) -> float:
 
 
 def band_probabilities(
-    mass_samples: u.Quantity,
-    edges: Mapping[str, u.Quantity],
-    remnant: bool = False,
+    mass_samples: u.Quantity, edges: Mapping[str, u.Quantity]
 ) -> dict[str, float]:
-    """Fraction of mass samples in each band (METHODS.md §11; edges from the reference data)."""
+    """Fraction of mass samples in each band (docs/methods.md §11; edges from the reference data).
+
+    The bands partition the mass axis: the probabilities sum to 1.
+    """
     m = np.atleast_1d(require(mass_samples, "mass", "mass_samples")).ravel()
     cuts = [-np.inf, *(_edge(edges, k) for k in EDGE_KEYS), np.inf]
     if np.any(np.diff(cuts) < 0):
@@ -79,9 +81,16 @@ def band_probabilities(
         band: float(np.mean((m >= low) & (m < high)))
         for band, low, high in zip(BANDS, cuts[:-1], cuts[1:], strict=True)
     }
-    if remnant:
-        result["intermediate_mass"] = float(np.mean(m >= _edge(edges, INTERMEDIATE_KEY)))
     return result
+
+
+def intermediate_mass_probability(
+    mass_samples: u.Quantity, edges: Mapping[str, u.Quantity]
+) -> float:
+    """Fraction of mass samples at or above the intermediate-mass threshold (docs/methods.md
+    §11); a separate question from the bands, which it overlaps."""
+    m = np.atleast_1d(require(mass_samples, "mass", "mass_samples")).ravel()
+    return float(np.mean(m >= _edge(edges, INTERMEDIATE_KEY)))
 
 
 def straddles(probabilities: Mapping[str, float], threshold: float = 0.05) -> list[str]:
@@ -98,7 +107,7 @@ def straddles(probabilities: Mapping[str, float], threshold: float = 0.05) -> li
 def source_class_probabilities(
     m1: u.Quantity, m2: u.Quantity, ns_max: u.Quantity
 ) -> dict[str, float]:
-    """Fractions of samples that are BNS, NSBH and BBH by mass (METHODS.md §11 edge)."""
+    """Fractions of samples that are BNS, NSBH and BBH by mass (docs/methods.md §11 edge)."""
     a, b = np.broadcast_arrays(require(m1, "mass", "m1"), require(m2, "mass", "m2"))
     limit = float(require(ns_max, "mass", "ns_max"))
     n_stars = (np.minimum(a, b) < limit).astype(int) + (np.maximum(a, b) < limit).astype(int)

@@ -1,4 +1,4 @@
-"""Radiated energy and peak luminosity against familiar sources (METHODS.md §8 and §14).
+"""Radiated energy and peak luminosity against familiar sources (docs/methods.md §8 and §14).
 
 The comparison objects come from the reference data as a mapping of keys to Quantities (an
 energy or a power); :data:`DERIVED_VALUES` holds the ones computed from astropy's constants
@@ -36,7 +36,7 @@ register(
         formula="ratio = E / E_object or L / L_object; duration = E / L_object",
         validity="order-of-magnitude context; many comparison values are approximate",
         accuracy="as good as the comparison value (a factor of ~2 for the approximate ones)",
-        quantities=("radiated_energy", "peak_luminosity"),
+        quantities=("energy_radiated", "peak_luminosity"),
     )
 )
 
@@ -60,14 +60,14 @@ def _require(value, unit: u.UnitBase, kind: str, name: str) -> u.Quantity:
 def energy_ratios(
     energy: u.Quantity, references: Mapping[str, u.Quantity]
 ) -> dict[str, np.ndarray]:
-    """Radiated energy over each comparison energy (METHODS.md §14 objects)."""
+    """Radiated energy over each comparison energy (docs/methods.md §14 objects)."""
     return _ratios(_require(energy, u.J, "an energy", "energy"), references)
 
 
 def luminosity_ratios(
     luminosity: u.Quantity, references: Mapping[str, u.Quantity]
 ) -> dict[str, np.ndarray]:
-    """Peak luminosity over each comparison luminosity (METHODS.md §14 objects)."""
+    """Peak luminosity over each comparison luminosity (docs/methods.md §14 objects)."""
     return _ratios(_require(luminosity, u.W, "a power", "luminosity"), references)
 
 

@@ -1,4 +1,4 @@
-"""Counterpart windows in UTC from rest-frame time scales (METHODS.md §13).
+"""Counterpart windows in UTC from rest-frame time scales (docs/methods.md §13).
 
 A literature time scale is a rest-frame delay; the window in UTC is ``t_merger + (1+z) Δt_src``,
 computed with :class:`astropy.time.Time` and :class:`~astropy.time.TimeDelta` so that leap
@@ -23,6 +23,8 @@ from factsheet.physics.registry import Method, register
 
 REST_FRAME_WINDOW = "counterpart-window-rest-frame"
 AGN_DISK = "agn-disk-kicked-remnant"
+#: Keys of the two windows of a kicked remnant in an AGN disk, and their band.
+AGN_FLARE, AGN_REPEAT_FLARE, AGN_BAND = "agn_flare", "agn_repeat_flare", "optical_ultraviolet"
 
 #: Why a black-hole pair in vacuum gets no window.
 VACUUM_REASON = (
@@ -34,7 +36,8 @@ register(
     Method(
         id=REST_FRAME_WINDOW,
         title="Counterpart window from a rest-frame time scale",
-        citation="cosmological time dilation; time scales as listed per window (METHODS.md §13)",
+        citation="cosmological time dilation; time scales as listed per window "
+        "(docs/methods.md §13)",
         formula="t_UTC = t_merger + (1+z) Δt_src (astropy Time/TimeDelta, leap seconds handled)",
         validity="a planning aid: the rest-frame ranges are indicative, not predictions",
         quantities=("counterpart_windows",),
@@ -46,7 +49,7 @@ register(
         title="Flare windows of a kicked remnant in the disk of an active galactic nucleus",
         citation=(
             "mechanism: McKernan et al. 2019, Astrophys. J. Lett. 884, L50; time scales: "
-            "Newtonian orbit, Hill sphere and disk crossing (METHODS.md §13)"
+            "Newtonian orbit, Hill sphere and disk crossing (docs/methods.md §13)"
         ),
         arxiv="1907.03746",
         formula=(
@@ -63,28 +66,27 @@ register(
 
 
 class RestFrameSpec(Protocol):
-    """What a window needs from the reference data (``factsheet.reference.WindowSpec``)."""
+    """What a window needs from the reference data (``factsheet.model.WindowSpec``)."""
 
-    name: str
+    key: str
     band: str
     scenario: str
     start: u.Quantity
     end: u.Quantity
     basis: str
-    plain: str
 
 
 @dataclass(frozen=True)
 class Window:
-    """A counterpart window in UTC, with its basis and a plain-language line."""
+    """A counterpart window in UTC with its basis; ``key`` names it (readers' names are kept
+    with the other labels, outside the physics), ``band`` is a band key."""
 
-    name: str
+    key: str
     band: str
     scenario: str
     start: Time
     end: Time
     basis: str
-    plain: str
 
 
 @dataclass(frozen=True)
@@ -117,7 +119,7 @@ def observed_delay(delay: u.Quantity, redshift) -> u.Quantity:
 
 
 def utc_window(t_merger: Time, redshift, start: u.Quantity, end: u.Quantity) -> tuple[Time, Time]:
-    """Start and end in UTC of the rest-frame range [start, end] (METHODS.md §13 rule)."""
+    """Start and end in UTC of the rest-frame range [start, end] (docs/methods.md §13 rule)."""
     first_delay = observed_delay(start, redshift)
     last_delay = observed_delay(end, redshift)
     if last_delay < first_delay:
@@ -131,23 +133,23 @@ def utc_window(t_merger: Time, redshift, start: u.Quantity, end: u.Quantity) -> 
 
 
 def window_from_spec(t_merger: Time, redshift, spec: RestFrameSpec) -> Window:
-    """The UTC window of one rest-frame spec (METHODS.md §13, time scales as cited in the spec)."""
+    """The UTC window of one rest-frame spec (docs/methods.md §13; time scales as in the spec)."""
     start, end = utc_window(t_merger, redshift, spec.start, spec.end)
-    return Window(spec.name, spec.band, spec.scenario, start, end, spec.basis, spec.plain)
+    return Window(spec.key, spec.band, spec.scenario, start, end, spec.basis)
 
 
 def rest_frame_windows(t_merger: Time, redshift, specs) -> list[Window]:
-    """UTC windows of every spec, e.g. those of a disrupted neutron star (METHODS.md §13)."""
+    """UTC windows of every spec, e.g. those of a disrupted neutron star (docs/methods.md §13)."""
     return [window_from_spec(t_merger, redshift, spec) for spec in specs]
 
 
 def vacuum_windows() -> tuple[list[Window], str]:
-    """No window for a black-hole pair in vacuum, and the reason to print (METHODS.md §13)."""
+    """No window for a black-hole pair in vacuum, and the reason to print (docs/methods.md §13)."""
     return [], VACUUM_REASON
 
 
 def gravitational_radius(smbh_mass: u.Quantity) -> u.Quantity:
-    """r_g = G M / c², with G M from the IAU 2015 nominal GM_sun (METHODS.md §8)."""
+    """r_g = G M / c², with G M from the IAU 2015 nominal GM_sun (docs/methods.md §8)."""
     return (const.GM_sun * require(smbh_mass, "mass", "smbh_mass") / const.c**2).to(u.m)
 
 
@@ -157,19 +159,19 @@ def _orbit(smbh_mass: u.Quantity, orbit_radius_rg) -> u.Quantity:
 
 
 def orbital_period(smbh_mass: u.Quantity, orbit_radius_rg) -> u.Quantity:
-    """Kepler period P = 2π (G M/c³)(a/r_g)^(3/2) about the central black hole (METHODS §13)."""
+    """Kepler period P = 2π (G M/c³)(a/r_g)^(3/2) about the central black hole (§13)."""
     x = dimensionless(orbit_radius_rg, "orbit_radius_rg")
     return (2 * np.pi * gravitational_radius(smbh_mass) / const.c * x**1.5).to(u.yr)
 
 
 def orbital_speed(smbh_mass: u.Quantity, orbit_radius_rg) -> u.Quantity:
-    """Circular Keplerian speed v = c (a/r_g)^(-1/2) (Newtonian, METHODS.md §13)."""
+    """Circular Keplerian speed v = c (a/r_g)^(-1/2) (Newtonian, docs/methods.md §13)."""
     require(smbh_mass, "mass", "smbh_mass")
     return (const.c / np.sqrt(dimensionless(orbit_radius_rg, "orbit_radius_rg"))).to(u.km / u.s)
 
 
 def hill_radius(smbh_mass: u.Quantity, orbit_radius_rg, binary_mass: u.Quantity) -> u.Quantity:
-    """Hill radius R_H = a [M_bin / (3 M_smbh)]^(1/3) of the remnant (METHODS.md §13)."""
+    """Hill radius R_H = a [M_bin / (3 M_smbh)]^(1/3) of the remnant (docs/methods.md §13)."""
     ratio = require(binary_mass, "mass", "binary_mass") / require(smbh_mass, "mass", "smbh_mass")
     return _orbit(smbh_mass, orbit_radius_rg) * np.cbrt(ratio / 3)
 
@@ -177,7 +179,7 @@ def hill_radius(smbh_mass: u.Quantity, orbit_radius_rg, binary_mass: u.Quantity)
 def hill_exit_time(
     smbh_mass: u.Quantity, orbit_radius_rg, binary_mass: u.Quantity, kick_velocity: u.Quantity
 ) -> u.Quantity:
-    """Time t_H ≈ R_H / v_kick for the kicked remnant to leave its Hill sphere (METHODS §13)."""
+    """Time t_H ≈ R_H / v_kick for the kicked remnant to leave its Hill sphere (§13)."""
     speed = _speed(kick_velocity, "kick_velocity") * (u.km / u.s)
     return (hill_radius(smbh_mass, orbit_radius_rg, binary_mass) / speed).to(u.d)
 
@@ -189,7 +191,7 @@ def disk_exit_time(
     kick_velocity: u.Quantity,
     angle: u.Quantity = 0 * u.deg,
 ) -> u.Quantity:
-    """Time t_disk ≈ (H/a) a / (v_kick cos θ) to leave the disk (METHODS.md §13)."""
+    """Time t_disk ≈ (H/a) a / (v_kick cos θ) to leave the disk (docs/methods.md §13)."""
     height = dimensionless(aspect_ratio, "aspect_ratio") * _orbit(smbh_mass, orbit_radius_rg)
     speed = _speed(kick_velocity, "kick_velocity") * (u.km / u.s)
     if not isinstance(angle, u.Quantity) or not angle.unit.is_equivalent(u.rad):
@@ -198,7 +200,7 @@ def disk_exit_time(
 
 
 def return_time(smbh_mass: u.Quantity, orbit_radius_rg) -> u.Quantity:
-    """Half an orbit, P/2: an inclined orbit crosses the disk plane again (METHODS.md §13)."""
+    """Half an orbit, P/2: an inclined orbit crosses the disk plane again (docs/methods.md §13)."""
     return orbital_period(smbh_mass, orbit_radius_rg) / 2
 
 
@@ -264,26 +266,13 @@ def agn_windows(
     aspect_ratio=None,
     credible_level: float = 0.9,
 ) -> list[Window]:
-    """Flare-delay and repeat windows of a kicked remnant in an AGN disk (METHODS.md §13)."""
+    """Flare-delay and repeat windows of a kicked remnant in an AGN disk (docs/methods.md §13)."""
     flare = flare_delay_range(
         smbh_mass, orbit_radius_rg, binary_mass, kick_samples, aspect_ratio, credible_level
     )
     repeat = repeat_delay_range(smbh_mass, orbit_radius_rg, flare, kick_samples, credible_level)
     windows = []
-    for delays, (name, plain) in zip((flare, repeat), _AGN_TEXT, strict=True):
+    for delays, key in ((flare, AGN_FLARE), (repeat, AGN_REPEAT_FLARE)):
         start, end = utc_window(t_merger, redshift, delays.start, delays.end)
-        windows.append(Window(name, "optical", "agn_disk", start, end, delays.basis, plain))
+        windows.append(Window(key, AGN_BAND, "agn_disk", start, end, delays.basis))
     return windows
-
-
-_AGN_TEXT = (
-    (
-        "flare as the kicked remnant leaves its gas",
-        "An optical or ultraviolet flare could appear once the kicked black hole plows out of "
-        "the gas it held around itself.",
-    ),
-    (
-        "repeat flare on the next disk crossing",
-        "Half an orbit later the remnant crosses the disk again and could flare a second time.",
-    ),
-)

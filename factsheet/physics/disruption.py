@@ -1,4 +1,4 @@
-"""Tidal disruption of a neutron star by a black hole (METHODS.md §12).
+"""Tidal disruption of a neutron star by a black hole (docs/methods.md §12).
 
 The remnant baryon mass left outside the black hole follows the fit of Foucart, Hinderer &
 Nissanke 2018; the neutron star's baryon mass comes from its gravitational mass and compactness
@@ -20,7 +20,7 @@ BARYON_MASS = "lp01-baryon-mass"
 #: Remnant mass above which a kilonova and a burst are expected (common practice).
 DISRUPTION_THRESHOLD = 0.01 * u.Msun
 
-# Foucart, Hinderer & Nissanke 2018, eq. (4) coefficients [from memory, checked in METHODS §12].
+# Foucart, Hinderer & Nissanke 2018, eq. (4) coefficients [from memory; docs/methods.md §12].
 _ALPHA, _BETA, _GAMMA, _DELTA = 0.406, 0.139, 0.255, 1.761
 
 register(
@@ -41,7 +41,11 @@ register(
         "C ≈ 0.13–0.18 (from memory)",
         accuracy="about 15 % of the remnant mass or 0.01 M☉, whichever is larger (from memory)",
         quantities=("remnant_baryon_mass", "disruption_probability"),
-        limits={"mass_ratio": (1 / 7, 1.0), "spin_1z": (-0.5, 0.9), "compactness": (0.13, 0.182)},
+        limits={
+            "mass_ratio": (1 / 7, 1.0),
+            "heavier_spin": (-0.5, 0.9),
+            "compactness": (0.13, 0.182),
+        },
     )
 )
 register(
@@ -61,7 +65,7 @@ register(
 
 
 def compactness(m_ns: u.Quantity, ns_radius: u.Quantity) -> u.Quantity:
-    """Compactness C = G M / (R c²), with G M from the IAU 2015 nominal GM_sun (METHODS §8)."""
+    """Compactness C = G M / (R c²), G M from the IAU 2015 nominal GM_sun (docs/methods.md §8)."""
     gm = const.GM_sun * require(m_ns, "mass", "m_ns")
     radius = require(ns_radius, "length", "ns_radius") * u.m
     return (gm / (radius * const.c**2)).to(u.dimensionless_unscaled)
@@ -86,7 +90,7 @@ def remnant_baryon_mass(
 
 
 def disrupted(remnant_mass: u.Quantity, threshold: u.Quantity = DISRUPTION_THRESHOLD) -> np.ndarray:
-    """True per sample where the remnant exceeds 0.01 M☉ (common practice, METHODS.md §12)."""
+    """True per sample where the remnant exceeds 0.01 M☉ (common practice, docs/methods.md §12)."""
     limit = require(threshold, "mass", "threshold")
     return np.asarray(require(remnant_mass, "mass", "remnant_mass") > limit)
 

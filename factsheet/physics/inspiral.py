@@ -21,10 +21,10 @@ CHIRP_METHOD = register(
         citation="Cutler C., Flanagan E. E., 1994, Phys. Rev. D 49, 2658 (chirp mass); Racine E., "
         "2008, Phys. Rev. D 78, 044021 (effective spin)",
         formula="Mc = (m1 m2)^(3/5) / M^(1/5); q = m2/m1; eta = m1 m2 / M^2; "
-        "chi_eff = (m1 chi1z + m2 chi2z)/M",
+        "χ_eff = (m1 chi1z + m2 chi2z)/M",
         validity="definitions; exact",
         accuracy="exact",
-        quantities=("chirp_mass", "mass_ratio", "total_mass", "chi_eff"),
+        quantities=("chirp_mass", "mass_ratio", "total_mass", "effective_spin"),
     )
 ).id
 LEADING_ORDER_METHOD = register(
@@ -66,7 +66,7 @@ def mass_ratio(m1, m2) -> np.ndarray:
 
 
 def effective_spin(m1, m2, chi1z, chi2z) -> np.ndarray:
-    """chi_eff = (m1 chi1z + m2 chi2z)/M (Racine 2008, PRD 78, 044021)."""
+    """χ_eff = (m1 chi1z + m2 chi2z)/M (Racine 2008, PRD 78, 044021)."""
     a, b, x, y = ordered(m1, m2, chi1z, chi2z)
     return (a * x + b * y) / (a + b)
 

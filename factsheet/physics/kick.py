@@ -28,7 +28,11 @@ METHOD = register(
         validity="mass ratio 0.25 to 1 (mass term); spins aligned with the orbit",
         accuracy="mass term within 6 %; largest non-spinning kick 175.2 ± 11 km/s",
         quantities=("kick_velocity",),
-        limits={"mass_ratio": (0.25, 1.0), "spin_1z": (-1.0, 1.0), "spin_2z": (-1.0, 1.0)},
+        limits={
+            "mass_ratio": (0.25, 1.0),
+            "heavier_spin": (-1.0, 1.0),
+            "lighter_spin": (-1.0, 1.0),
+        },
     )
 ).id
 

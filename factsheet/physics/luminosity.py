@@ -25,8 +25,8 @@ METHOD = register(
         quantities=("peak_luminosity",),
         limits={
             "mass_ratio": (1 / 18, 1.0),
-            "spin_1z": (-0.995, 0.995),
-            "spin_2z": (-0.995, 0.995),
+            "heavier_spin": (-0.995, 0.995),
+            "lighter_spin": (-0.995, 0.995),
         },
     )
 ).id

@@ -1,6 +1,6 @@
 """Energy radiated by an aligned-spin black-hole merger, E_rad / (M c^2): two published fits.
 
-The final mass is M (1 - E_rad). Masses in either order; spins follow them.
+The remnant mass is M (1 - E_rad). Masses in either order; spins follow them.
 """
 
 from __future__ import annotations
@@ -23,9 +23,9 @@ JF17_ERAD = register(
         "terms in dchi; P(eta) = (1 - 2 sqrt2/3) eta + a2 eta^2 + a3 eta^3 + a4 eta^4",
         validity="aligned or anti-aligned spins; calibrated on 427 numerical-relativity runs with "
         "the extreme-mass-ratio limit built in",
-        accuracy="equal-mass non-spinning final mass 0.95158 against NR 0.95162",
-        quantities=("radiated_energy", "radiated_mass", "final_mass"),
-        limits={"spin_1z": (-1.0, 1.0), "spin_2z": (-1.0, 1.0)},
+        accuracy="equal-mass non-spinning remnant mass 0.95158 against NR 0.95162",
+        quantities=("energy_radiated", "radiated_mass", "remnant_mass"),
+        limits={"heavier_spin": (-1.0, 1.0), "lighter_spin": (-1.0, 1.0)},
     )
 ).id
 BMR12_ERAD = register(
@@ -39,7 +39,7 @@ BMR12_ERAD = register(
         validity="any mass ratio; test-particle limit built in; calibration predates high-spin "
         "numerical relativity",
         accuracy="within a few per cent of JF17 (down to -7 % at equal mass and spin +0.9)",
-        quantities=("radiated_energy", "radiated_mass", "final_mass"),
+        quantities=("energy_radiated", "radiated_mass", "remnant_mass"),
     )
 ).id
 

@@ -16,8 +16,9 @@ import numpy as np
 class Method:
     """A published method: formula, reference and calibration range.
 
-    ``limits`` maps a parameter name (``mass_ratio`` as m2/m1 <= 1, ``spin_1z``, ``spin_2z``,
-    ``final_spin``, ...) to the closed interval ``(low, high)`` the method was calibrated on.
+    ``limits`` maps a parameter name (``mass_ratio`` as m2/m1 <= 1, ``heavier_spin``,
+    ``lighter_spin``, ``remnant_spin``, ...) to the closed interval ``(low, high)`` the method
+    was calibrated on.
     """
 
     id: str

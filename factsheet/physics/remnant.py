@@ -1,22 +1,22 @@
-"""Remnant of an aligned-spin black-hole merger: final spin and radiated energy fits.
+"""Remnant of an aligned-spin black-hole merger: remnant spin and radiated energy fits.
 
-The functions live in :mod:`.final_spin` and :mod:`.radiated`; this module gathers them and the
-method ids ``derive`` records. Results are dimensionless; final mass = M (1 - E_rad).
+The functions live in :mod:`.remnant_spin` and :mod:`.radiated`; this module gathers them and the
+method ids ``derive`` records. Results are dimensionless; remnant mass = M (1 - E_rad).
 """
 
 from __future__ import annotations
 
-from .final_spin import (
+from .radiated import BMR12_ERAD, JF17_ERAD, radiated_fraction_bmr12, radiated_fraction_jf17
+from .remnant_spin import (
     BR09_SPIN,
     HBR16_SPIN,
     JF17_SPIN,
-    final_spin_br09,
-    final_spin_hbr16,
-    final_spin_jf17,
+    remnant_spin_br09,
+    remnant_spin_hbr16,
+    remnant_spin_jf17,
 )
-from .radiated import BMR12_ERAD, JF17_ERAD, radiated_fraction_bmr12, radiated_fraction_jf17
 
-FINAL_SPIN_METHODS = (JF17_SPIN, HBR16_SPIN)
+REMNANT_SPIN_METHODS = (JF17_SPIN, HBR16_SPIN)
 CROSS_CHECK_SPIN_METHOD = BR09_SPIN
 RADIATED_METHODS = (JF17_ERAD, BMR12_ERAD)
 
@@ -24,14 +24,14 @@ __all__ = [
     "BMR12_ERAD",
     "BR09_SPIN",
     "CROSS_CHECK_SPIN_METHOD",
-    "FINAL_SPIN_METHODS",
     "HBR16_SPIN",
     "JF17_ERAD",
     "JF17_SPIN",
     "RADIATED_METHODS",
-    "final_spin_br09",
-    "final_spin_hbr16",
-    "final_spin_jf17",
+    "REMNANT_SPIN_METHODS",
     "radiated_fraction_bmr12",
     "radiated_fraction_jf17",
+    "remnant_spin_br09",
+    "remnant_spin_hbr16",
+    "remnant_spin_jf17",
 ]

@@ -26,7 +26,7 @@ LEAVER = register(
         validity="remnant spin 0 to 0.9999 (table range); a negative aligned spin is used as |j|",
         accuracy="interpolation better than 1e-6 relative; exact for an isolated Kerr black hole",
         quantities=("ringdown_frequency", "ringdown_damping_time"),
-        limits={"final_spin": (0.0, 0.9999)},
+        limits={"remnant_spin": (0.0, 0.9999)},
     )
 )
 BCW06 = register(
@@ -40,32 +40,32 @@ BCW06 = register(
         validity="remnant spin 0 to 0.99",
         accuracy="within 2 % in frequency and 1 % in quality factor of the exact values",
         quantities=("ringdown_frequency", "ringdown_damping_time"),
-        limits={"final_spin": (0.0, 0.99)},
+        limits={"remnant_spin": (0.0, 0.99)},
     )
 )
 METHOD = LEAVER.id
 FALLBACK_METHOD = BCW06.id
 
 
-def _mass_time(final_mass) -> np.ndarray:
+def _mass_time(remnant_mass) -> np.ndarray:
     """G M_f / c^3 in seconds, from GM_sun (IAU 2015 B3)."""
-    m = require(final_mass, "mass", "final_mass")
+    m = require(remnant_mass, "mass", "remnant_mass")
     return m * (GM_sun / c**3).to_value(u.s)
 
 
-def _spin(final_spin) -> np.ndarray:
-    return np.abs(dimensionless(final_spin, "final_spin"))
+def _spin(remnant_spin) -> np.ndarray:
+    return np.abs(dimensionless(remnant_spin, "remnant_spin"))
 
 
-def qnm_220(final_mass, final_spin) -> tuple[u.Quantity, u.Quantity]:
+def qnm_220(remnant_mass, remnant_spin) -> tuple[u.Quantity, u.Quantity]:
     """Kerr 220 mode (frequency [Hz], damping time [s]), exact (Leaver 1985), from a table.
 
     The mass sets the frame: a source-frame mass gives source-frame values. A negative aligned
-    final spin is taken as |j| (the l = m mode is then counter-rotating with respect to the hole).
+    remnant spin is taken as |j| (the l = m mode is then counter-rotating with respect to the hole).
     Spins beyond the table (|j| > 0.9999) give NaN; the registry's limits flag them.
     """
-    t_m = _mass_time(final_mass)
-    j = _spin(final_spin)
+    t_m = _mass_time(remnant_mass)
+    j = _spin(remnant_spin)
     uu = np.sqrt(np.clip(1 - j, 0, None))
     inside = (j <= 1 - _qnm_table.U_LAST**2) & np.isfinite(j)
     args = (_qnm_table.U_FIRST, _qnm_table.U_LAST, np.where(inside, uu, 1.0))
@@ -75,13 +75,13 @@ def qnm_220(final_mass, final_spin) -> tuple[u.Quantity, u.Quantity]:
     return frequency, t_m / np.abs(w_im) * u.s
 
 
-def qnm_220_bcw06(final_mass, final_spin) -> tuple[u.Quantity, u.Quantity]:
+def qnm_220_bcw06(remnant_mass, remnant_spin) -> tuple[u.Quantity, u.Quantity]:
     """Kerr 220 mode (frequency [Hz], damping time [s]) from the Berti-Cardoso-Will 2006 fit.
 
-    A negative aligned final spin is taken as |j|.
+    A negative aligned remnant spin is taken as |j|.
     """
-    t_m = _mass_time(final_mass)
-    j = _spin(final_spin)
+    t_m = _mass_time(remnant_mass)
+    j = _spin(remnant_spin)
     big_f = 1.5251 - 1.1568 * (1 - j) ** 0.1292
     quality = 0.7000 + 1.4187 * (1 - j) ** -0.4990
     return big_f / (2 * np.pi * t_m) * u.Hz, 2 * quality * t_m / big_f * u.s

@@ -1,16 +1,20 @@
 """Counterpart windows: the (1+z) rule with astropy Time, and the AGN-disk time scales.
 
-Sources: METHODS.md §13 (rest-frame windows and worked AGN numbers) and §16 (test vectors); the
-leap second at the end of 2016 was announced in IERS Bulletin C 52 (bulletin number from memory;
-astropy's leap-second table holds it).
+Sources: docs/methods.md §13 (rest-frame windows and worked AGN numbers) and §16 (test vectors);
+the leap second at the end of 2016 was announced in IERS Bulletin C 52 (bulletin number from
+memory; astropy's leap-second table holds it).
 """
+
+from dataclasses import fields
 
 import astropy.units as u
 import numpy as np
 import pytest
 from astropy.time import Time
 
+from factsheet.load.reference import load_reference
 from factsheet.physics.counterparts import (
+    Window,
     agn_windows,
     disk_exit_time,
     hill_exit_time,
@@ -21,7 +25,6 @@ from factsheet.physics.counterparts import (
     utc_window,
     vacuum_windows,
 )
-from factsheet.reference import load_reference
 
 T_MERGER = Time("2024-06-02T10:15:00", scale="utc")  # an invented time within the leap-second table
 SPECS = {spec.key: spec for spec in load_reference().windows}
@@ -69,9 +72,9 @@ def test_leap_second_counted_iers_bulletin_c_52():
 @pytest.mark.parametrize(
     ("smbh", "radius", "m_bin", "kick", "period_yr", "hill_days", "rel"),
     [
-        (1e8, 1000, 100, 100, 3.101169, 118.5, 1e-3),  # METHODS.md §13 worked numbers
-        (1e7, 1000, 50, 300, 0.310117, 6.8, 1e-2),  # METHODS.md §13 (rounded to 0.1 d)
-        (1e9, 1e4, 100, 200, 980.7, 2750, 1e-3),  # METHODS.md §13
+        (1e8, 1000, 100, 100, 3.101169, 118.5, 1e-3),  # docs/methods.md §13 worked numbers
+        (1e7, 1000, 50, 300, 0.310117, 6.8, 1e-2),  # docs/methods.md §13 (rounded to 0.1 d)
+        (1e9, 1e4, 100, 200, 980.7, 2750, 1e-3),  # docs/methods.md §13
     ],
 )
 def test_agn_worked_numbers(smbh, radius, m_bin, kick, period_yr, hill_days, rel):
@@ -90,7 +93,8 @@ def test_vectors_methods_section_16():
 
 
 def test_disk_exit_closed_form():
-    # t_disk = (H/a) a / (v cos θ), with a = 700 GM/c^2 and GM_sun/c^2 = 1476.625 m (METHODS §8).
+    # t_disk = (H/a) a / (v cos θ) (docs/methods.md §13), with a = 700 GM/c^2 and
+    # GM_sun/c^2 = 1476.625 m (docs/methods.md §8).
     a = 700 * 1e8 * 1476.625
     t = disk_exit_time(1e8 * u.Msun, 700, 0.01, 200 * u.km / u.s, 60 * u.deg)
     assert t.to_value(u.s) == pytest.approx(0.01 * a / (200e3 * 0.5), rel=1e-6)
@@ -103,11 +107,25 @@ def test_agn_windows_span_the_kick_range():
     slow = hill_exit_time(1e8 * u.Msun, 700, 100 * u.Msun, np.quantile(kicks, 0.05))
     assert _days(flare.start) == pytest.approx(1.2 * fast.to_value(u.d), rel=1e-9)
     assert _days(flare.end) == pytest.approx(1.2 * slow.to_value(u.d), rel=1e-9)
-    # The repeat covers the next disk crossing at P/2 followed by the same flare delays (§13).
+    # The repeat covers the next disk crossing at P/2 followed by the same flare delays
+    # (docs/methods.md §13).
     half = return_time(1e8 * u.Msun, 700).to_value(u.d)
     assert _days(repeat.start) < 1.2 * (half + fast.to_value(u.d))
     assert _days(repeat.end) > 1.2 * (half + slow.to_value(u.d))
     assert "McKernan et al. 2019" in flare.basis
+    assert (flare.key, repeat.key) == ("agn_flare", "agn_repeat_flare")
+    assert flare.band == repeat.band == "optical_ultraviolet"
+    assert flare.scenario == repeat.scenario == "agn_disk"
+
+
+def test_windows_carry_keys_not_reader_names():
+    # A window is a key, a band key, its scenario, the UTC range and its basis; names for readers
+    # are kept outside the physics.
+    assert [f.name for f in fields(Window)] == ["key", "band", "scenario", "start", "end", "basis"]
+    w = _windows(0.01)
+    for key, spec in SPECS.items():
+        assert (w[key].key, w[key].band, w[key].scenario) == (spec.key, spec.band, spec.scenario)
+        assert w[key].basis == spec.basis
 
 
 def test_black_hole_pair_in_vacuum_has_no_window():

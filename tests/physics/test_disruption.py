@@ -1,6 +1,6 @@
-"""Tidal disruption against the check values of METHODS.md §12.
+"""Tidal disruption against the check values of docs/methods.md §12.
 
-The check values were computed in METHODS.md from the Foucart, Hinderer & Nissanke 2018 fit
+The check values were computed in docs/methods.md §12 from the Foucart, Hinderer & Nissanke 2018 fit
 (PRD 98, 081501(R)), coefficients from memory, with the Lattimer & Prakash 2001 (ApJ 550, 426)
 baryon mass and R_NS = 12 km.
 """
@@ -23,10 +23,10 @@ R_NS = 12 * u.km
 @pytest.mark.parametrize(
     ("m_bh", "chi", "expected", "abs_tol"),
     [
-        (7.0, 0.0, 0.0, 0.0),  # plunge, METHODS.md §12
-        (7.0, 0.5, 0.005, 0.0005),  # METHODS.md §12, quoted to 1 significant figure
-        (7.0, 0.9, 0.27, 0.005),  # METHODS.md §12, quoted to 2 significant figures
-        (10.0, 0.0, 0.0, 0.0),  # plunge, METHODS.md §12
+        (7.0, 0.0, 0.0, 0.0),  # plunge, docs/methods.md §12
+        (7.0, 0.5, 0.005, 0.0005),  # docs/methods.md §12, quoted to 1 significant figure
+        (7.0, 0.9, 0.27, 0.005),  # docs/methods.md §12, quoted to 2 significant figures
+        (10.0, 0.0, 0.0, 0.0),  # plunge, docs/methods.md §12
     ],
 )
 def test_fhn18_check_values(m_bh, chi, expected, abs_tol):
@@ -44,7 +44,7 @@ def test_elementwise_on_samples():
 
 
 def test_compactness_and_baryon_mass_closed_form():
-    # C = G M / (R c^2) with GM_sun/c^2 = 1476.625 m (METHODS.md §8, IAU 2015 B3):
+    # C = G M / (R c^2) with GM_sun/c^2 = 1476.625 m (docs/methods.md §8, IAU 2015 B3):
     c = compactness(1.4 * u.Msun, R_NS)
     assert c.value == pytest.approx(1.4 * 1476.625 / 12_000, rel=1e-6)
     # Lattimer & Prakash 2001 (ApJ 550, 426) approximation, formula from memory.

@@ -1,4 +1,4 @@
-"""Leading-order inspiral against METHODS.md §10 and §16 test vectors (closed forms of Peters &
+"""Leading-order inspiral against docs/methods.md §10 and §16 test vectors (closed forms of Peters &
 Mathews 1963, Phys. Rev. 131, 435; Peters 1964, Phys. Rev. 136, B1224; Maggiore 2008 §4.1)."""
 
 import astropy.units as u
@@ -44,7 +44,7 @@ def test_solar_time_iau_2015():
     ],
 )
 def test_methods_section_16_vectors(value, expected):
-    # METHODS.md §16 test vectors [N], relative tolerance 1e-6.
+    # docs/methods.md §16 test vectors (computed for this project), relative tolerance 1e-6.
     assert value() == pytest.approx(expected, rel=1e-6)
 
 
@@ -64,7 +64,8 @@ def test_frequency_at_time_inverts_time_to_merger():
     assert np.allclose(inspiral.frequency_at_time(MC_BNS, tau).to_value(u.Hz), f.value)
 
 
-# Worked binaries, METHODS.md §10 [N]: source masses, Planck18 redshift, observed quantities.
+# Worked binaries, docs/methods.md §10 (computed for this project): source masses, Planck18
+# redshift, observed quantities.
 WORKED = [
     (1.4, 1.4, 40, 10, 100, 0.00897, 1.2297, 1556.46, 987.6, 15798, 9.04e-23),
     (10, 1.4, 200, 10, 100, 0.04370, 3.1251, 369.57, 208.7, 3331, 8.55e-23),
@@ -93,7 +94,7 @@ def test_mass_ratio_is_at_most_one_in_either_order():
 
 
 def test_arm_length_change_is_half_h_l_per_arm():
-    # Each arm changes by h L / 2 (METHODS.md §10); 1e-21 on a 4 km arm gives 2e-18 m.
+    # Each arm changes by h L / 2 (docs/methods.md §10); 1e-21 on a 4 km arm gives 2e-18 m.
     got = inspiral.arm_length_change(1e-21, 4 * u.km)
     assert got.unit == u.m
     assert got.value == pytest.approx(2e-18)

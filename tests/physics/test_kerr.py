@@ -24,7 +24,8 @@ def test_limits_bardeen_press_teukolsky_1972(spin, radius, energy, ang_mom):
 
 
 def test_retrograde_values_from_methods_table():
-    # METHODS.md §2 check values [N]: a = -1 gives E = 0.962250, L = 4.233902.
+    # docs/methods.md §2 check values (computed for this project): a = -1 gives E = 0.962250,
+    # L = 4.233902.
     assert isco_energy(-1.0) == pytest.approx(0.962250, abs=5e-7)
     assert isco_angular_momentum(-1.0) == pytest.approx(4.233902, abs=5e-7)
 
@@ -56,7 +57,8 @@ def test_isco_is_the_minimum_of_circular_orbit_energy(spin):
 
 
 def test_vectorised_and_continuous_through_zero():
-    # sign(0) = +1 and the sqrt guard: no jump across a = 0 (METHODS.md §2 implementation notes).
+    # sign(0) = +1 and the sqrt guard: no jump across a = 0 (docs/methods.md §2, implementation
+    # notes).
     a = np.array([-1e-9, 0.0, 1e-9])
     assert np.all(np.isfinite(isco_radius(a)))
     assert np.ptp(isco_radius(a)) < 1e-6

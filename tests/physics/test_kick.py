@@ -1,4 +1,4 @@
-"""Recoil against González et al. 2007 (PRL 98, 091101) and METHODS.md §6 checks."""
+"""Recoil against González et al. 2007 (PRL 98, 091101) and docs/methods.md §6 checks."""
 
 import astropy.units as u
 import numpy as np
@@ -19,13 +19,13 @@ def test_largest_non_spinning_kick_gonzalez_2007():
 
 
 def test_half_mass_ratio_non_spinning():
-    # METHODS.md §6 check [N]: q = 1/2, no spins -> 156.7 km/s.
+    # docs/methods.md §6 check (computed for this project): q = 1/2, no spins -> 156.7 km/s.
     assert kick_velocity(2 * M, M, 0, 0).to_value(u.km / u.s) == pytest.approx(156.7, abs=0.05)
 
 
 def test_equal_mass_opposite_spins():
     # Equal mass, maximal spins opposite each other: |v| = H/16 = 431.2 km/s with H = 6.9e3 km/s
-    # (Lousto & Zlochower 2008, from memory, METHODS.md §6).
+    # (Lousto & Zlochower 2008, from memory, docs/methods.md §6).
     assert kick_velocity(M, M, 1, -1).to_value(u.km / u.s) == pytest.approx(431.25, rel=1e-9)
     assert kick_velocity(M, M, 0, 0).to_value(u.km / u.s) == pytest.approx(0.0, abs=1e-9)
     assert kick_velocity(M, M, 0.5, 0.5).to_value(u.km / u.s) == pytest.approx(0.0, abs=1e-9)

@@ -11,24 +11,26 @@ M = u.Msun
 
 
 def test_planck_luminosity_codata():
-    # c^5/G = 3.628255e52 W (CODATA 2018/2022 G through astropy; METHODS.md §8, §16).
+    # c^5/G = 3.628255e52 W (CODATA 2018/2022 G through astropy; docs/methods.md §8, §16).
     assert planck_luminosity().to_value(u.W) == pytest.approx(3.628255e52, rel=1e-6)
 
 
 def test_solar_mass_energy_codata_iau():
-    # M_sun c^2 = 1.787094e47 J (IAU 2015 B3 GM_sun with CODATA G, via astropy; METHODS.md §16).
+    # M_sun c^2 = 1.787094e47 J (IAU 2015 B3 GM_sun with CODATA G, via astropy;
+    # docs/methods.md §16).
     assert (M_sun * c**2).to_value(u.J) == pytest.approx(1.787094e47, rel=1e-6)
 
 
 def test_equal_mass_non_spinning():
-    # The fit's non-spinning polynomial at eta = 1/4 is 1.00095: L = 1.0247e-3 c^5/G (METHODS §5).
+    # The fit's non-spinning polynomial at eta = 1/4 is 1.00095: L = 1.0247e-3 c^5/G
+    # (docs/methods.md §5).
     lum = peak_luminosity_keitel17(30 * M, 30 * M, 0, 0)
     assert (lum / planck_luminosity()).to_value(u.one) == pytest.approx(1.0247e-3, rel=1e-4)
     assert lum.to_value(u.erg / u.s) == pytest.approx(3.72e56, rel=2e-3)
 
 
 def test_aligned_spin_raises_and_anti_aligned_lowers():
-    # Numerical relativity: aligned spins brighten the peak, anti-aligned dim it; METHODS.md §5
+    # Numerical relativity: aligned spins brighten the peak, anti-aligned dim it; docs/methods.md §5
     # gives 1.70e-3 and 0.76e-3 c^5/G at chi = +-0.8, equal mass.
     up = peak_luminosity_keitel17(M, M, 0.8, 0.8) / planck_luminosity()
     down = peak_luminosity_keitel17(M, M, -0.8, -0.8) / planck_luminosity()

@@ -12,7 +12,7 @@ masses = st.floats(1.0, 200.0)
 ratios = st.floats(1 / 18, 1.0)  # Keitel et al. 2017 calibration: mass ratios up to 18
 spins = st.floats(-0.99, 0.99)
 
-SPIN_FITS = [remnant.final_spin_jf17, remnant.final_spin_hbr16, remnant.final_spin_br09]
+SPIN_FITS = [remnant.remnant_spin_jf17, remnant.remnant_spin_hbr16, remnant.remnant_spin_br09]
 ERAD_FITS = [remnant.radiated_fraction_jf17, remnant.radiated_fraction_bmr12]
 
 
@@ -30,11 +30,11 @@ def test_remnant_bounds(m, q, x, y):
     m1, m2 = m * M, q * m * M
     for fit in SPIN_FITS[:2]:
         assert abs(fit(m1, m2, x, y)) < 1
-    if max(abs(x), abs(y)) <= 0.9:  # BR09 degrades near extremal spins (METHODS.md §3.1)
-        assert abs(remnant.final_spin_br09(m1, m2, x, y)) < 1
+    if max(abs(x), abs(y)) <= 0.9:  # BR09 degrades near extremal spins (docs/methods.md §3.1)
+        assert abs(remnant.remnant_spin_br09(m1, m2, x, y)) < 1
     for fit in ERAD_FITS:
         e_rad = fit(m1, m2, x, y)
-        assert 0 < e_rad < 1  # radiated energy > 0 and final mass < total mass
+        assert 0 < e_rad < 1  # radiated energy > 0 and remnant mass < total mass
     assert luminosity.peak_luminosity_keitel17(m1, m2, x, y).value > 0
     assert np.all(np.isfinite(_all(m1, m2, x, y)))
 

@@ -15,7 +15,7 @@ T_SUN = (GM_sun / c**3).to_value(u.s)
 
 def test_schwarzschild_mode_leaver_1985():
     # l = 2, n = 0 Schwarzschild mode M omega = 0.3736717 - 0.0889623 i (Leaver 1985; from memory,
-    # METHODS.md §16).
+    # docs/methods.md §16).
     omega, sep = leaver.solve_mode(0.0, 0.37 - 0.09j, 4.0)
     assert omega.real == pytest.approx(0.3736717, abs=1e-7)
     assert omega.imag == pytest.approx(-0.0889623, abs=1e-7)
@@ -23,7 +23,8 @@ def test_schwarzschild_mode_leaver_1985():
 
 
 def test_kerr_mode_at_seven_tenths():
-    # Kerr 220 at j = 0.7: 0.53260 - 0.08079 i (METHODS.md §7.2 [N]; Berti's tables, from memory).
+    # Kerr 220 at j = 0.7: 0.53260 - 0.08079 i (docs/methods.md §7.2, computed for this project;
+    # Berti's tables, from memory).
     omega = leaver.mode_220(list(np.linspace(0, 0.7, 8)))[-1]
     assert omega.real == pytest.approx(0.53260, abs=1e-5)
     assert omega.imag == pytest.approx(-0.08079, abs=1e-5)
@@ -50,7 +51,7 @@ def test_interpolation_between_table_points(spin):
 
 def test_worked_remnant_methods_7_2():
     # M_f = 66.74 M_sun, a_f = 0.6750: exact 252.7 Hz, 4.02 ms; BCW06 254.0 Hz, 3.99 ms
-    # (worked example of METHODS.md §7.2 [N]).
+    # (worked example of docs/methods.md §7.2, computed for this project).
     f, tau = qnm_220(66.74 * M, 0.6750)
     assert f.to_value(u.Hz) == pytest.approx(252.7, abs=0.05)
     assert tau.to_value(u.ms) == pytest.approx(4.02, abs=0.005)
@@ -60,7 +61,8 @@ def test_worked_remnant_methods_7_2():
 
 
 def test_bcw06_fit_within_its_accuracy_of_exact_values():
-    # BCW06 claim a few per cent; measured against Leaver: F within 1.85 %, Q within 0.88 %.
+    # BCW06 claim a few per cent; measured against Leaver: F within 1.85 %, Q within 0.88 %
+    # (docs/methods.md §7.1).
     j = np.linspace(0, 0.99, 200)
     f1, t1 = qnm_220(M, j)
     f2, t2 = qnm_220_bcw06(M, j)
@@ -80,3 +82,11 @@ def test_frames_and_negative_spin():
 def test_spin_beyond_table_is_nan():
     f, tau = qnm_220(60 * M, np.array([0.5, 0.99995]))
     assert np.isfinite(f[0]) and np.isnan(f[1]) and np.isnan(tau[1])
+
+
+def test_arguments_are_the_remnant_mass_and_spin():
+    # The arguments are named for the remnant (docs/methods.md §7); by name equals by place.
+    by_name = qnm_220(remnant_mass=66.74 * M, remnant_spin=0.6750)
+    fit_by_name = qnm_220_bcw06(remnant_mass=66.74 * M, remnant_spin=0.6750)
+    assert by_name[0] == qnm_220(66.74 * M, 0.6750)[0]
+    assert fit_by_name[1] == qnm_220_bcw06(66.74 * M, 0.6750)[1]

@@ -1,0 +1,148 @@
+"""Caveats: short records of an assumption or a limit that a reader must know about.
+
+Each rule is a small function of the event and what derive found; it returns a
+:class:`Caveat` or None. :func:`input_caveats` runs the rules that depend only on the input.
+"""
+
+from __future__ import annotations
+
+import astropy.units as u
+
+from factsheet import labels
+from factsheet.derive.sampling import BODY_SPINS, drawn_from_summary, used_paths
+from factsheet.model import Caveat, Event
+
+
+def status_caveat(event: Event) -> Caveat | None:
+    if event.status == "candidate":
+        return Caveat(
+            "candidate",
+            "warning",
+            "This is a candidate: it has not been confirmed as an "
+            "astrophysical signal and may be withdrawn.",
+        )
+    if event.status == "retracted":
+        return Caveat(
+            "retracted",
+            "warning",
+            "This candidate was retracted: it is not considered "
+            "an astrophysical signal. The numbers are kept for the record only.",
+        )
+    return None
+
+
+def sampling_caveat(event: Event) -> Caveat | None:
+    if event.samples is not None:
+        return _partly_drawn_caveat(event)
+    return Caveat(
+        "independent-sampling",
+        "notice",
+        "Each parameter was sampled independently from "
+        "its summary interval, so correlations between parameters (for example between "
+        "the two masses) are lost; derived intervals are approximate.",
+    )
+
+
+def _partly_drawn_caveat(event: Event) -> Caveat | None:
+    """With a samples file: the values drawn from the summary because the file lacks them."""
+    drawn = [
+        labels.QUANTITIES[path.replace(".", "_")].in_prose for path in drawn_from_summary(event)
+    ]
+    if not drawn:
+        return None
+    these, their = ("this value was", "its") if len(drawn) == 1 else ("these values were", "their")
+    return Caveat(
+        "partly-independent-sampling",
+        "notice",
+        f"The samples file does not give {_listed(drawn)}: {these} drawn independently from "
+        f"the summary, so {their} correlations with the other parameters are lost.",
+    )
+
+
+def _listed(words: list[str]) -> str:
+    return words[0] if len(words) == 1 else ", ".join(words[:-1]) + " or " + words[-1]
+
+
+def spin_caveat(event: Event) -> Caveat | None:
+    given = used_paths(event)
+    bodies = [path for path in BODY_SPINS if path in given]
+    if bodies:
+        if len(bodies) == len(BODY_SPINS):
+            return None
+        missing = "lighter" if bodies == ["heavier.spin"] else "heavier"
+        return Caveat(
+            "spin-assumed-zero",
+            "notice",
+            f"The {missing} body's spin was not given: it was taken as zero for the remnant fits.",
+        )
+    if "effective_spin" in given:
+        return Caveat(
+            "spins-from-effective-spin",
+            "notice",
+            "Only the effective spin was given: "
+            "both aligned spin components were set equal to it for the remnant fits.",
+        )
+    return Caveat(
+        "spins-assumed-zero",
+        "notice",
+        "No spins were given: both bodies were taken as non-spinning for the remnant fits.",
+    )
+
+
+def redshift_caveat(event: Event, cosmology: str) -> Caveat | None:
+    if event.estimate.redshift is not None:
+        return None
+    return Caveat(
+        "redshift-from-cosmology",
+        "info",
+        f"The redshift, and from it the source-frame "
+        f"masses, follow from the luminosity distance under the {cosmology} cosmology.",
+    )
+
+
+def editorial_caveats(event: Event) -> list[Caveat]:
+    return [
+        Caveat(f"editorial-{i + 1}", "notice", text, editorial=True)
+        for i, text in enumerate(event.caveats)
+    ]
+
+
+def input_caveats(event: Event, cosmology: str) -> list[Caveat]:
+    """Caveats that follow from the input alone, most important first."""
+    found = [
+        status_caveat(event),
+        sampling_caveat(event),
+        spin_caveat(event),
+        redshift_caveat(event, cosmology),
+    ]
+    return [c for c in found if c is not None] + editorial_caveats(event)
+
+
+def significance_caveats(
+    event: Event, far_threshold: u.Quantity, sky_threshold: u.Quantity
+) -> list[Caveat]:
+    """Low significance and large sky area (thresholds are common practice, not a standard)."""
+    notes = []
+    far, sky = event.detection.false_alarm_rate, event.detection.sky_area
+    if far is not None and far > far_threshold:
+        per = (1 / far).to(u.yr).value
+        notes.append(
+            Caveat(
+                "low-significance",
+                "warning",
+                f"The false-alarm rate is high "
+                f"(one per {per:.2g} years of data): noise could produce a signal "
+                "like this one, so treat it as marginal.",
+            )
+        )
+    if sky is not None and sky > sky_threshold:
+        notes.append(
+            Caveat(
+                "large-sky-area",
+                "notice",
+                f"The source is localised only to "
+                f"{sky.to_value(u.deg**2):.0f} square degrees, a large "
+                "area to search for a counterpart.",
+            )
+        )
+    return notes

@@ -1,0 +1,158 @@
+"""Derive one event: run the physics over its samples and summarise every quantity.
+
+All quantities are computed sample by sample on the same draws (from the summary intervals or
+the samples file), then summarised as a median and the bounds of the catalogue's credible
+interval. Which methods produced each quantity is recorded alongside it. Deterministic: the
+random seed comes from the event's content.
+"""
+
+from __future__ import annotations
+
+import astropy.units as u
+import numpy as np
+from astropy.cosmology import realizations
+
+from factsheet.derive import caveats as cv
+from factsheet.derive.classify import classify, mass_bands, remnant_allowed
+from factsheet.derive.remnant import Computed, inspiral_quantities, remnant_quantities
+from factsheet.derive.sampling import BODY_SPINS, draw_estimate, fill_missing, used_paths
+from factsheet.derive.summaries import summarise
+from factsheet.derive.windows import comparison_values, methods_used, windows
+from factsheet.load.reference import reference_for
+from factsheet.model import DETECTOR, SOURCE, Derived, Event, Reference, Settings, Summary
+from factsheet.physics import cosmology, inspiral
+
+
+def derive_event(event: Event, settings: Settings, reference: Reference | None = None) -> Derived:
+    """Derive every quantity of one event from its estimate and the catalogue settings."""
+    reference = reference or reference_for(settings)
+    level = settings.credible_level
+    s = base_samples(event, settings)
+    quantities = _summarise_base(event, s, level)
+    c = classify(s, reference, settings.neutron_star_radius)
+    computed = Computed()
+    allowed, gate_note = remnant_allowed(c)
+    if allowed:
+        remnant_quantities(s, computed)
+    inspiral_quantities(s, settings.low_frequency, settings.arm_length, computed)
+    s.update(computed.samples)
+    for name, values in computed.samples.items():
+        quantities[name] = summarise(
+            values, level, computed.frames.get(name), computed.methods[name],
+            computed.spreads.get(name),
+        )  # fmt: skip
+    bands, intermediate, band_notes = mass_bands(s, reference)
+    z = float(np.median(s["redshift"].value))
+    found, no_window, window_notes = windows(
+        event, z, c, s.get("kick_velocity"), np.median(s["total_mass"]), reference, level
+    )
+    medians = {k: np.median(s[k]) for k in ("energy_radiated", "peak_luminosity") if k in s}
+    compared = comparison_values(
+        medians.get("energy_radiated"), medians.get("peak_luminosity"), reference
+    )
+    notes = [
+        *cv.input_caveats(event, settings.cosmology),
+        *([gate_note] if gate_note else []),
+        *computed.caveats,
+        *band_notes,
+        *window_notes,
+        *cv.significance_caveats(event, settings.low_significance_rate, settings.large_sky_area),
+    ]
+    return Derived(
+        event=event,
+        settings=settings,
+        reference=reference,
+        quantities=quantities,
+        caveats=tuple(notes),
+        source_class=c.source_class,
+        class_probabilities=c.probabilities,
+        mass_bands=bands,
+        intermediate_mass=intermediate,
+        lookback_time=getattr(realizations, settings.cosmology).lookback_time(z).to(u.Gyr),
+        disruption_probability=c.disruption_probability,
+        windows=found,
+        no_window_reason=no_window,
+        comparisons=compared,
+        other_methods=methods_used(c, found, compared),
+        samples=s,
+    )
+
+
+def input_samples(event: Event, settings: Settings) -> dict[str, np.ndarray]:
+    """Samples of the estimate's values by path, in canonical units (solMass, Mpc, one), from
+    the samples file when there is one (what it lacks drawn from the summary), else drawn."""
+    n, level = settings.samples, settings.credible_level
+    if event.samples is None:
+        return draw_estimate(event.estimate, n, level, event.seed())
+    return fill_missing(dict(event.samples.values), event, level)
+
+
+def base_samples(event: Event, settings: Settings) -> dict[str, u.Quantity]:
+    """The input quantities per sample, source-frame masses, and what follows from them alone."""
+    values = input_samples(event, settings)
+    size = len(values["heavier.mass"])
+    spins = [values.get(path) for path in BODY_SPINS]
+    if "effective_spin" in values and all(x is None for x in spins):
+        spins = [values["effective_spin"]] * 2
+    chi1, chi2 = (np.zeros(size) if x is None else x for x in spins)
+    distance = values["distance"] * u.Mpc
+    z = values.get("redshift")
+    if z is None:
+        z = cosmology.redshift_at_distance(distance, settings.cosmology)
+    given = [values[f"{body}.mass"] * u.Msun for body in ("heavier", "lighter")]
+    if event.frame == DETECTOR:
+        given = [cosmology.to_source_frame(m, z) for m in given]
+    m1, m2 = given
+    s = {
+        "heavier_mass": m1,
+        "lighter_mass": m2,
+        "heavier_spin": chi1 * u.one,
+        "lighter_spin": chi2 * u.one,
+        "distance": distance,
+        "redshift": np.asarray(z) * u.one,
+        "total_mass": m1 + m2,
+        "chirp_mass": inspiral.chirp_mass(m1, m2),
+        "mass_ratio": inspiral.mass_ratio(m1, m2) * u.one,
+        "effective_spin": inspiral.effective_spin(m1, m2, chi1, chi2) * u.one,
+    }
+    for name in ("heavier_mass", "lighter_mass", "total_mass", "chirp_mass"):
+        s[f"{name}_detector"] = cosmology.to_detector_frame(s[name], z)
+    return s
+
+
+#: The input quantities a sheet summarises, with their frames.
+BASE_FRAMES = {
+    "heavier_mass": SOURCE,
+    "lighter_mass": SOURCE,
+    "total_mass": SOURCE,
+    "chirp_mass": SOURCE,
+    "mass_ratio": None,
+    "effective_spin": None,
+    "heavier_spin": None,
+    "lighter_spin": None,
+    "distance": None,
+    "redshift": None,
+    "heavier_mass_detector": DETECTOR,
+    "lighter_mass_detector": DETECTOR,
+    "total_mass_detector": DETECTOR,
+    "chirp_mass_detector": DETECTOR,
+}
+
+
+def _summarise_base(event: Event, s: dict[str, u.Quantity], level: float) -> dict[str, Summary]:
+    """Summaries of the input quantities; spins only where some were given (in the estimate or
+    the samples file), since an assumed spin is not a measurement."""
+    methods = {
+        "chirp_mass": (inspiral.CHIRP_METHOD,),
+        "chirp_mass_detector": (inspiral.CHIRP_METHOD,),
+        "redshift": () if event.estimate.redshift is not None else (cosmology.METHOD,),
+    }
+    given = used_paths(event)
+    skipped = {path.replace(".", "_") for path in BODY_SPINS if path not in given}
+    if not given & {*BODY_SPINS, "effective_spin"}:
+        skipped.add("effective_spin")
+    return {
+        name: summarise(s[name], level, frame, methods.get(name, ()))
+        for name, frame in BASE_FRAMES.items()
+        if name not in skipped
+    }

@@ -1,0 +1,166 @@
+"""Remnant, radiation, ringdown and inspiral quantities on an event's samples.
+
+Where two published fits exist for a quantity (remnant spin; radiated energy) each sample gets
+their mean, and half the difference between the fits (median over samples) is kept as the
+``fit_spread``: a systematic reported apart from the statistical interval.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass, field
+
+import astropy.constants as const
+import astropy.units as u
+import numpy as np
+
+from factsheet import labels
+from factsheet.model import DETECTOR, SOURCE, Caveat
+from factsheet.physics import inspiral, kick, luminosity, remnant, ringdown
+from factsheet.physics.registry import METHODS, fraction_outside
+
+
+@dataclass
+class Computed:
+    """Per-sample results with the methods behind each and the fit spreads."""
+
+    samples: dict[str, u.Quantity] = field(default_factory=dict)
+    methods: dict[str, tuple[str, ...]] = field(default_factory=dict)
+    spreads: dict[str, u.Quantity] = field(default_factory=dict)
+    frames: dict[str, str] = field(default_factory=dict)
+    caveats: list[Caveat] = field(default_factory=list)
+
+    def put(
+        self,
+        name: str,
+        values: u.Quantity,
+        methods: tuple[str, ...],
+        frame: str | None,
+        spread: u.Quantity | None = None,
+    ) -> None:
+        self.samples[name] = values
+        self.methods[name] = methods
+        if frame:
+            self.frames[name] = frame
+        if spread is not None:
+            self.spreads[name] = spread
+
+
+def _mean_and_spread(results: list[np.ndarray]) -> tuple[np.ndarray, float]:
+    stack = np.vstack(results)
+    return stack.mean(axis=0), float(np.median((stack.max(axis=0) - stack.min(axis=0)) / 2))
+
+
+def remnant_quantities(s: dict[str, u.Quantity], out: Computed) -> None:
+    """Remnant spin and mass, energy radiated, peak luminosity, kick and ringdown (BH fits)."""
+    m1, m2 = s["heavier_mass"], s["lighter_mass"]
+    c1, c2 = s["heavier_spin"].value, s["lighter_spin"].value
+    spin, spin_spread = _mean_and_spread(
+        [remnant.remnant_spin_jf17(m1, m2, c1, c2), remnant.remnant_spin_hbr16(m1, m2, c1, c2)]
+    )
+    erad, erad_spread = _mean_and_spread(
+        [
+            remnant.radiated_fraction_jf17(m1, m2, c1, c2),
+            remnant.radiated_fraction_bmr12(m1, m2, c1, c2),
+        ]
+    )
+    total = s["total_mass"]
+    radiated = (erad * total).to(u.Msun)
+    out.put("remnant_spin", spin * u.one, remnant.REMNANT_SPIN_METHODS, None, spin_spread * u.one)
+    out.put(
+        "radiated_mass",
+        radiated,
+        remnant.RADIATED_METHODS,
+        SOURCE,
+        erad_spread * np.median(total),
+    )
+    out.put(
+        "remnant_mass",
+        total - radiated,
+        remnant.RADIATED_METHODS,
+        SOURCE,
+        erad_spread * np.median(total),
+    )
+    out.put(
+        "energy_radiated",
+        (radiated * const.c**2).to(u.J),
+        remnant.RADIATED_METHODS,
+        None,
+        (erad_spread * np.median(total) * const.c**2).to(u.J),
+    )
+    out.put(
+        "peak_luminosity",
+        luminosity.peak_luminosity_keitel17(m1, m2, c1, c2).to(u.W),
+        (luminosity.METHOD,),
+        None,
+    )
+    out.put(
+        "kick_velocity", kick.kick_velocity(m1, m2, c1, c2).to(u.km / u.s), (kick.METHOD,), None
+    )
+    remnant_detector = (total - radiated) * (1 + s["redshift"].value)
+    f_ring, tau_ring = ringdown.qnm_220(remnant_detector, np.abs(spin))
+    out.put("ringdown_frequency", f_ring.to(u.Hz), (ringdown.METHOD,), DETECTOR)
+    out.put("ringdown_damping_time", tau_ring.to(u.s), (ringdown.METHOD,), DETECTOR)
+    _calibration_caveats(s, spin, out)
+
+
+def inspiral_quantities(
+    s: dict[str, u.Quantity], low_frequency: u.Quantity, arm_length: u.Quantity, out: Computed
+) -> None:
+    """ISCO frequency, time and cycles in band, strain and arm-length change (leading order)."""
+    mc_det = s["chirp_mass_detector"]
+    f_isco = inspiral.isco_frequency(s["total_mass_detector"]).to(u.Hz)
+    order = (inspiral.LEADING_ORDER_METHOD,)
+    out.put("isco_frequency", f_isco, order, DETECTOR)
+    out.put("time_in_band", inspiral.time_to_merger(mc_det, low_frequency).to(u.s), order, DETECTOR)
+    cycles = inspiral.cycles_between(mc_det, low_frequency, np.maximum(f_isco, low_frequency))
+    out.put("cycles_in_band", np.asarray(cycles) * u.one, order, None)
+    strain = inspiral.strain_amplitude(mc_det, f_isco, s["distance"])
+    out.put("strain_amplitude", u.Quantity(strain, u.one), order, None)
+    out.put(
+        "arm_length_change", inspiral.arm_length_change(strain, arm_length).to(u.m), order, None
+    )
+    if np.median(f_isco) < low_frequency:
+        out.caveats.append(
+            Caveat(
+                "inspiral-below-band",
+                "notice",
+                f"The inspiral ends (ISCO frequency "
+                f"{np.median(f_isco).to_value(u.Hz):.0f} Hz, observed) below the band edge of "
+                f"{low_frequency.to_value(u.Hz):g} Hz: what the detectors saw is mostly the merger "
+                "and ringdown, and the time and cycles in band are lower limits of little meaning.",
+            )
+        )
+
+
+def _percent(fraction: float) -> str:
+    return (
+        f"{fraction:.0%}"
+        if fraction >= 0.01
+        else f"{fraction:.1%}"
+        if fraction >= 0.001
+        else "<0.1%"
+    )
+
+
+def _calibration_caveats(s: dict[str, u.Quantity], spin: np.ndarray, out: Computed) -> None:
+    values = {
+        "mass_ratio": s["mass_ratio"].value,
+        "heavier_spin": s["heavier_spin"].value,
+        "lighter_spin": s["lighter_spin"].value,
+        "remnant_spin": np.abs(spin),
+    }
+    used = {m for methods in out.methods.values() for m in methods}
+    for method_id in sorted(used):
+        outside = fraction_outside(method_id, **values)
+        if outside:
+            worst = max(outside.values())
+            names = ", ".join(labels.parameter(name) for name in sorted(outside))
+            out.caveats.append(
+                Caveat(
+                    "fit-outside-calibration",
+                    "warning" if worst > 0.5 else "notice",
+                    f"{METHODS[method_id].title}: {_percent(worst)} of the samples lie "
+                    f"outside the range the fit was calibrated on ({names}); its numbers there "
+                    "are extrapolated.",
+                )
+            )

@@ -1,0 +1,100 @@
+"""Samples from summary intervals: the quantile-matched two-piece normal.
+
+A summary ``m +p -n`` at credible level ``c`` is drawn from a two-piece normal joined at the
+median: each half is a half-normal scaled so that the quantiles ``(1 - c)/2`` and ``(1 + c)/2``
+fall exactly on ``m - n`` and ``m + p``, and the median stays ``m``. Physical limits (mass and
+distance > 0, |spin| <= 1) truncate the draw by restricting the uniform variate to the allowed
+part of the distribution (inverse-CDF sampling), so no sample is ever clipped onto a limit.
+After drawing, the bodies are relabelled so that the heavier one is heavier in every sample.
+"""
+
+from __future__ import annotations
+
+import math
+
+import numpy as np
+from scipy.special import ndtr, ndtri
+
+from factsheet.load.samples import heavier_first
+from factsheet.load.schema import physical_range
+from factsheet.model import ESTIMATE_PATHS, Estimate, Event, Interval
+
+
+def draw(
+    value: Interval,
+    n: int,
+    credible_level: float,
+    limits: tuple[float, float],
+    rng: np.random.Generator,
+) -> np.ndarray:
+    """Samples of ``value`` from the quantile-matched two-piece normal, truncated to limits."""
+    if value.exact:
+        return np.full(n, value.median)
+    z = float(ndtri(0.5 + credible_level / 2))
+    left, right = value.minus / z, value.plus / z
+    u_low, u_high = (_cdf(x, value.median, left, right) for x in limits)
+    uniform = rng.uniform(u_low, u_high, n)
+    return _quantile(uniform, value.median, left, right)
+
+
+def _cdf(x: float, median: float, left: float, right: float) -> float:
+    if math.isinf(x):
+        return 0.0 if x < 0 else 1.0
+    scale = left if x < median else right
+    return float(ndtr((x - median) / scale)) if scale > 0 else float(x >= median)
+
+
+def _quantile(p: np.ndarray, median: float, left: float, right: float) -> np.ndarray:
+    z = ndtri(np.clip(p, 1e-300, 1 - 1e-16))
+    return median + np.where(z < 0, left, right) * z
+
+
+def draw_estimate(
+    estimate: Estimate, n: int, credible_level: float, seed: int
+) -> dict[str, np.ndarray]:
+    """Independent draws of every value of an estimate by path, heavier body first."""
+    rng = np.random.default_rng(seed)
+    given = estimate.values()
+    out = {}
+    for path in ESTIMATE_PATHS:  # fixed order, so the draws do not depend on the file's order
+        if path in given:
+            out[path] = draw(given[path], n, credible_level, physical_range(path), rng)
+    return heavier_first(out)
+
+
+BODY_SPINS = ("heavier.spin", "lighter.spin")
+
+
+def used_paths(event: Event) -> set[str]:
+    """The paths of the values the samples come from: the estimate's, or the samples file's
+    columns and what :func:`drawn_from_summary` adds to them."""
+    if event.samples is None:
+        return set(event.estimate.values())
+    return set(event.samples.values) | set(drawn_from_summary(event))
+
+
+def drawn_from_summary(event: Event) -> list[str]:
+    """The values a samples file lacks and the summary gives, drawn independently (in path
+    order). A spin given in one form in the file (the bodies' spins or the effective spin) is
+    not completed from the other form in the summary."""
+    if event.samples is None:
+        return []
+    skipped = set(event.samples.values)
+    if "effective_spin" in skipped:
+        skipped |= set(BODY_SPINS)
+    if skipped & set(BODY_SPINS):
+        skipped.add("effective_spin")
+    return [path for path in event.estimate.values() if path not in skipped]
+
+
+def fill_missing(
+    values: dict[str, np.ndarray], event: Event, credible_level: float
+) -> dict[str, np.ndarray]:
+    """A samples file's values, with draws from the summary for what the file lacks."""
+    rng = np.random.default_rng(event.seed())
+    size = len(values["heavier.mass"])
+    out = dict(values)
+    for path in drawn_from_summary(event):
+        value = event.estimate[path]
+        out[path] = draw(value, size, credible_level, physical_range(path), rng)
+    return out

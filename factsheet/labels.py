@@ -1,0 +1,192 @@
+"""Every label a reader sees for a quantity, a mass band or edge, a subject or a window: one table.
+
+The sheet's tables, its figures and their alt text, the history list, the changes page, the
+feed, the exports' column descriptions and the caveats all take their words from here, so one
+quantity is named the same way everywhere. Keys are the JSON export's (``heavier_mass``, ...)
+and the reference data's (``lower_gap``, ``kilonova_blue``, ...).
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+
+from factsheet.model import DETECTOR
+
+
+@dataclass(frozen=True)
+class QuantityLabel:
+    """How one quantity is named: in full (tables, exports), short (figures, lists), in prose."""
+
+    name: str
+    short: str
+    group: str  # the part of the sheet it belongs to: measured, derived, remnant or signal
+    prose: str = ""  # inside a sentence; the name with a lower-case first letter when empty
+
+    @property
+    def in_prose(self) -> str:
+        return self.prose or self.name[0].lower() + self.name[1:]
+
+
+Q = QuantityLabel
+#: Quantities in the order a sheet lists them.
+QUANTITIES: dict[str, QuantityLabel] = {
+    "heavier_mass": Q("Mass of the heavier body m₁", "m₁", "measured", "the heavier body's mass"),
+    "lighter_mass": Q("Mass of the lighter body m₂", "m₂", "measured", "the lighter body's mass"),
+    "distance": Q("Luminosity distance", "Distance", "measured", "the luminosity distance"),
+    "effective_spin": Q("Effective spin χ_eff", "χ_eff", "measured", "the effective spin"),
+    "heavier_spin": Q(
+        "Aligned spin of the heavier body χ₁", "χ₁", "measured", "the heavier body's spin"
+    ),
+    "lighter_spin": Q(
+        "Aligned spin of the lighter body χ₂", "χ₂", "measured", "the lighter body's spin"
+    ),
+    "redshift": Q("Redshift z", "z", "derived", "the redshift"),
+    "total_mass": Q("Total mass", "Total mass", "derived"),
+    "chirp_mass": Q("Chirp mass", "Chirp mass", "derived"),
+    "mass_ratio": Q("Mass ratio q = m₂/m₁", "q", "derived", "the mass ratio"),
+    "heavier_mass_detector": Q(
+        "Mass of the heavier body (detector frame)", "m₁ (detector frame)", "derived"
+    ),
+    "lighter_mass_detector": Q(
+        "Mass of the lighter body (detector frame)", "m₂ (detector frame)", "derived"
+    ),
+    "total_mass_detector": Q(
+        "Total mass (detector frame)", "Total mass (detector frame)", "derived"
+    ),
+    "chirp_mass_detector": Q(
+        "Chirp mass (detector frame)", "Chirp mass (detector frame)", "derived"
+    ),
+    "remnant_mass": Q("Remnant mass", "Remnant mass", "remnant"),
+    "remnant_spin": Q("Remnant spin", "Remnant spin", "remnant"),
+    "radiated_mass": Q("Mass-energy radiated", "Mass-energy radiated", "remnant"),
+    "energy_radiated": Q("Energy radiated", "Energy radiated", "remnant"),
+    "peak_luminosity": Q("Peak luminosity", "Peak luminosity", "remnant"),
+    "kick_velocity": Q("Recoil kick", "Recoil kick", "remnant", "the recoil kick"),
+    "ringdown_frequency": Q("Ringdown frequency (observed)", "Ringdown", "signal"),
+    "ringdown_damping_time": Q("Ringdown damping time (observed)", "Damping time", "signal"),
+    "isco_frequency": Q(
+        "ISCO frequency, end of inspiral (observed)", "ISCO", "signal", "the ISCO frequency"
+    ),
+    "time_in_band": Q("Time in band (leading order)", "Time in band", "signal"),
+    "cycles_in_band": Q("Cycles in band (leading order)", "Cycles in band", "signal"),
+    "strain_amplitude": Q(
+        "Peak strain, optimally oriented (leading order)", "Peak strain", "signal"
+    ),
+    "arm_length_change": Q(
+        "Arm-length change per arm (leading order)", "Arm-length change", "signal"
+    ),
+}
+del Q
+
+#: Parameters that fits are calibrated on but that are not quantities of a sheet.
+PARAMETERS = {"compactness": "the neutron star's compactness", "spin": "the black hole's spin"}
+
+#: The frame masses were given in, as a suffix of their labels in an estimate.
+FRAME_SUFFIX = {DETECTOR: " (detector frame)"}
+
+#: The subjects of the mass bands.
+SUBJECTS = {"heavier": "Heavier body (m₁)", "lighter": "Lighter body (m₂)", "remnant": "Remnant"}
+
+#: Mass bands, lowest first; they partition the mass axis.
+BANDS = {
+    "neutron_star": "neutron star",
+    "lower_gap": "lower mass gap",
+    "stellar_black_hole": "black hole below the gap",
+    "pair_instability_gap": "pair-instability gap",
+    "above_gap": "above the gap",
+}
+#: The separate question of a mass at or above the intermediate-mass threshold.
+INTERMEDIATE_MASS = "intermediate mass"
+
+#: Mass-band edges of the reference data.
+EDGES = {
+    "neutron_star_max": "maximum neutron-star mass",
+    "lower_gap_top": "top of the lower mass gap",
+    "pair_instability_lower": "lower edge of the pair-instability gap",
+    "pair_instability_upper": "upper edge of the pair-instability gap",
+    "intermediate_mass_min": "lower bound of intermediate-mass black holes",
+}
+
+#: What a source class says in words (a headline starts with it).
+CLASSES = {
+    "BBH": "Two black holes",
+    "BNS": "Two neutron stars",
+    "NSBH": "A black hole and a neutron star",
+}
+
+
+@dataclass(frozen=True)
+class WindowLabel:
+    """A counterpart window's name and one plain sentence on what could be seen."""
+
+    name: str
+    plain: str
+
+
+W = WindowLabel
+#: Counterpart windows by key (the reference data's rest-frame windows, then the AGN-disk ones).
+WINDOWS: dict[str, WindowLabel] = {
+    "gamma_ray_burst": W(
+        "short gamma-ray burst",
+        "A brief flash of gamma rays within seconds of the merger, if a jet points our way.",
+    ),
+    "kilonova_blue": W(
+        "optical and ultraviolet kilonova",
+        "A new point of light in a galaxy, brightest within the first day or two.",
+    ),
+    "kilonova_red": W(
+        "infrared kilonova",
+        "The glow of freshly made heavy elements, fading over about two weeks.",
+    ),
+    "afterglow_rise": W(
+        "X-ray and radio afterglow rise (off-axis)",
+        "A jet seen from the side shows up in X-rays and radio after one to a few weeks.",
+    ),
+    "afterglow_peak": W(
+        "afterglow peak (off-axis)",
+        "The side-on afterglow brightens for months before it fades.",
+    ),
+    "neutrino_coincidence": W(
+        "neutrino coincidence",
+        "High-energy neutrinos arriving within minutes of the merger would be worth a look.",
+    ),
+    "agn_flare": W(
+        "flare as the kicked remnant leaves its gas",
+        "An optical or ultraviolet flare could appear once the kicked black hole plows out of "
+        "the gas it held around itself.",
+    ),
+    "agn_repeat_flare": W(
+        "repeat flare on the next disk crossing",
+        "Half an orbit later the remnant crosses the disk again and could flare a second time.",
+    ),
+}
+del W
+
+#: Bands of light (and neutrinos) the windows are in.
+WINDOW_BANDS = {
+    "gamma_ray": "gamma rays",
+    "optical_ultraviolet": "optical and ultraviolet",
+    "infrared": "infrared",
+    "x_ray_radio": "X-ray and radio",
+    "neutrino": "neutrinos",
+}
+
+
+def estimate_value(path: str, frame: str) -> str:
+    """The short label of a value of an estimate (``heavier.mass`` -> ``m₁``), saying when its
+    masses were given in the detector frame (history lists, history figure, changes, feed)."""
+    key = path.replace(".", "_")
+    text = QUANTITIES[key].short
+    if key.endswith("_mass") and frame in FRAME_SUFFIX:
+        text += FRAME_SUFFIX[frame]
+    return text
+
+
+def parameter(key: str) -> str:
+    """A calibration parameter (a quantity key or one of :data:`PARAMETERS`) in prose."""
+    return QUANTITIES[key].in_prose if key in QUANTITIES else PARAMETERS.get(key, key)
+
+
+def sentence(text: str) -> str:
+    """``text`` with its first letter upper-case, to start a sentence (the rest unchanged)."""
+    return text[:1].upper() + text[1:]

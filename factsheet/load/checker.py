@@ -1,0 +1,174 @@
+"""Check one YAML file against the key tables of :mod:`factsheet.load.schema`.
+
+A :class:`Checker` walks a mapping key by key, converts each value by its kind (plain kinds in
+:mod:`factsheet.load.scalars`, structured ones — detection, estimate, body, history, host,
+limits, file paths — here) and appends a :class:`~factsheet.errors.Problem` with the line and
+key path for each bad value, so one run reports every problem of a file.
+"""
+
+from __future__ import annotations
+
+import difflib
+from pathlib import Path
+from typing import Any
+
+from factsheet.errors import Problem
+from factsheet.load import scalars
+from factsheet.load.scalars import Bad, show
+from factsheet.load.schema import (
+    BODY_KEYS,
+    DETECTION_KEYS,
+    ESTIMATE_KEYS,
+    HISTORY_KEYS,
+    HOST_KEYS,
+    Key,
+)
+from factsheet.load.yaml_lines import LineList, LineMap
+from factsheet.model import Body, Detection, Estimate, HistoryEntry, Host, Limits
+
+
+class Checker:
+    """Validates values from one file, recording problems with their line and key path.
+
+    ``base`` is the folder that relative file names start from, ``root`` the catalogue folder
+    that they must not leave.
+    """
+
+    def __init__(
+        self,
+        path: Path,
+        problems: list[Problem],
+        base: Path | None = None,
+        root: Path | None = None,
+    ):
+        self.path, self.problems = path, problems
+        self.base, self.root = base, root
+
+    def fail(self, line: int | None, key: str, message: str) -> None:
+        self.problems.append(Problem(self.path, line, key, message))
+
+    def mapping(self, data: LineMap, keys: dict[str, Key], prefix: str) -> dict[str, Any]:
+        """Check every key of ``data`` against ``keys``; return the converted good values."""
+        out: dict[str, Any] = {}
+        for name in data:
+            if name not in keys:
+                self._unknown(data, name, keys, prefix)
+        for name, key in keys.items():
+            path = f"{prefix}{name}"
+            if key.kind == "unsupported" and name in data:
+                self.value(data[name], key, path, data.line_of(name))  # even when left empty
+                continue
+            if name not in data or data[name] is None:
+                if key.required:
+                    example = f" (e.g. {name}: {key.example})" if key.example else ""
+                    self.fail(data.line, path, f"missing required key{example}")
+                continue
+            value = self.value(data[name], key, path, data.line_of(name))
+            if value is not None:
+                out[name] = value
+        return out
+
+    def _unknown(self, data: LineMap, name: object, keys: dict[str, Any], prefix: str) -> None:
+        close = difflib.get_close_matches(str(name)[:60], list(keys), n=1)
+        hint = (
+            f" (did you mean '{close[0]}'?)" if close else f" (expected one of: {', '.join(keys)})"
+        )
+        self.fail(data.line_of(name), f"{prefix}{str(name)[:60]}", f"unknown key{hint}")
+
+    def value(self, raw: object, key: Key, path: str, line: int | None) -> Any:
+        """Convert one value by the kind of its key; None after recording a problem."""
+        convert = scalars.CONVERTERS.get(key.kind)
+        if convert is None:
+            return getattr(self, f"_{key.kind}")(raw, key, path, line)
+        try:
+            return convert(raw, key)
+        except Bad as exc:
+            self.fail(line, path, str(exc))
+            return None
+
+    def _section(self, raw: object, keys: dict[str, Key], path: str, line: int | None, what: str):
+        """The checked values of a nested mapping, or None when it or any of its values is bad."""
+        if not isinstance(raw, LineMap):
+            names = ", ".join(k for k, v in keys.items() if v.kind != "unsupported")
+            self.fail(line, path, f"expected a mapping {{{names}}}{what}")
+            return None
+        before = len(self.problems)
+        values = self.mapping(raw, keys, prefix=f"{path}.")
+        return values if len(self.problems) == before else None
+
+    # -- structured kinds ------------------------------------------------------------------
+    def _path(self, raw, key, path, line) -> Path | None:
+        try:
+            return scalars.file_in(raw, self.base or Path("."), self.root)
+        except Bad as exc:
+            self.fail(line, path, str(exc))
+            return None
+
+    def _detection(self, raw, key, path, line) -> Detection | None:
+        values = self._section(raw, DETECTION_KEYS, path, line, "")
+        return None if values is None else Detection(**values)
+
+    def _body(self, raw, key, path, line) -> Body | None:
+        values = self._section(raw, BODY_KEYS, path, line, ", e.g. {mass: 36 +5 -4 Msun}")
+        return None if values is None else Body(**values)
+
+    def _estimate(self, raw, key, path, line) -> Estimate | None:
+        values = self._section(raw, ESTIMATE_KEYS, path, line, "")
+        if values is None:
+            return None
+        heavier, lighter = values["heavier"], values["lighter"]
+        if "effective_spin" in values and (heavier.spin or lighter.spin):
+            self.fail(
+                raw.line_of("effective_spin"),
+                f"{path}.effective_spin",
+                "give either effective_spin or the bodies' spin, not both",
+            )
+            return None
+        if lighter.mass.median > heavier.mass.median:
+            self.fail(
+                raw["lighter"].line_of("mass"),
+                f"{path}.lighter.mass",
+                "the lighter body's mass exceeds the heavier body's (expected "
+                "heavier.mass >= lighter.mass: swap the two bodies)",
+            )
+            return None
+        return Estimate(**values)
+
+    def _history(self, raw, key, path, line) -> tuple[HistoryEntry, ...] | None:
+        if not isinstance(raw, LineList):
+            self.fail(line, path, "expected a list of earlier estimates")
+            return None
+        entries = []
+        for i, item in enumerate(raw):
+            where = f"{path}[{i}]"
+            values = self._section(item, HISTORY_KEYS, where, raw.line_of(i), "")
+            if values is not None:
+                entries.append(
+                    HistoryEntry(
+                        values["date"], values["label"], values.get("note", ""), values["estimate"]
+                    )
+                )
+        return tuple(sorted(entries, key=lambda e: e.date.unix))
+
+    def _host(self, raw, key, path, line) -> Host | None:
+        values = self._section(raw, HOST_KEYS, path, line, "")
+        return None if values is None else Host(**values)
+
+    def _limits(self, raw, key, path, line) -> Limits | None:
+        if not isinstance(raw, LineMap):
+            self.fail(line, path, "expected a mapping of limits")
+            return None
+        known = {f: getattr(Limits(), f) for f in Limits.__dataclass_fields__}
+        out = {}
+        for name, value in raw.items():
+            if name not in known:
+                self._unknown(raw, name, known, f"{path}.")
+            elif isinstance(value, bool) or not isinstance(value, int) or value < 1:
+                self.fail(
+                    raw.line_of(name),
+                    f"{path}.{name}",
+                    f"expected a positive whole number, got {show(value)}",
+                )
+            else:
+                out[name] = value
+        return Limits(**out)

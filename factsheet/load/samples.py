@@ -1,0 +1,232 @@
+"""Read and check a posterior-samples file (CSV whose header cells read ``path [unit]``).
+
+Columns are named by the paths of the estimate (``heavier.mass [Msun]``, ``distance [Mpc]``,
+``effective_spin``); values come back in canonical units (solMass, Mpc, dimensionless), the
+bodies relabelled so that the heavier one is heavier in every sample. The file is read once, in
+binary, line by line: every line is bounded, hashed (the build cache keys on the digest) and
+decoded, so a bad byte or row is reported with its line. Columns the format does not name are
+ignored with a warning.
+"""
+
+from __future__ import annotations
+
+import csv
+import hashlib
+import re
+from array import array
+from collections.abc import Iterator
+from pathlib import Path
+from typing import BinaryIO
+
+import numpy as np
+
+from factsheet.errors import InputError, Problem
+from factsheet.load.schema import physical_range, value_key
+from factsheet.load.values import ValueParseError, parse_unit
+from factsheet.model import ESTIMATE_PATHS, Limits, SamplesFile
+
+REQUIRED_COLUMNS = ("heavier.mass", "lighter.mass", "distance")
+#: Columns of the format whose feature is not built yet.
+NOT_YET = (
+    "heavier.spin_magnitude",
+    "heavier.tilt",
+    "lighter.spin_magnitude",
+    "lighter.tilt",
+    "precession_spin",
+    "chirp_mass",
+    "mass_ratio",
+)
+HEADER_CELL = re.compile(r"^\s*([A-Za-z_][A-Za-z0-9_.]*)\s*(?:\[(.*)\])?\s*$")
+MAX_LINE = 4096  # bytes in one line; seven numbers need far fewer
+DEFAULT_LIMITS = Limits()
+
+
+def heavier_first(values: dict[str, np.ndarray]) -> dict[str, np.ndarray]:
+    """Relabel the bodies per sample so that the heavier one comes first, spins following."""
+    swap = values["lighter.mass"] > values["heavier.mass"]
+    if not swap.any():
+        return values
+    out = dict(values)
+    for a, b in (("heavier.mass", "lighter.mass"), ("heavier.spin", "lighter.spin")):
+        if a in values and b in values:
+            out[a] = np.where(swap, values[b], values[a])
+            out[b] = np.where(swap, values[a], values[b])
+    return out
+
+
+def read_samples(
+    path: Path, limits: Limits = DEFAULT_LIMITS, warnings: list[Problem] | None = None
+) -> SamplesFile:
+    """Read and check a samples file; :class:`InputError` names its line and column."""
+    lines = _Lines()
+    try:
+        with Path(path).open("rb") as handle:
+            lines.handle = handle
+            values = _read_table(Path(path), csv.reader(lines), limits.max_sample_rows, warnings)
+    except csv.Error as exc:
+        message = f"not valid CSV ({exc})"
+    except OSError as exc:
+        message = f"cannot read ({exc.strerror})"
+    else:
+        return SamplesFile(Path(path), lines.digest.hexdigest(), values)
+    raise InputError(problems=[Problem(path, max(lines.line, 1), "file", message)]) from None
+
+
+def check_samples(
+    path: Path, limits: Limits, problems: list[Problem], warnings: list[Problem]
+) -> SamplesFile | None:
+    """Read a samples file for the load stage; record its problems and warnings."""
+    try:
+        return read_samples(path, limits, warnings)
+    except InputError as exc:
+        problems.extend(exc.problems)
+        return None
+
+
+class _Lines:
+    """Decoded lines of a binary file: bounded, hashed, refusing NUL bytes and bad UTF-8."""
+
+    def __init__(self) -> None:
+        self.handle: BinaryIO | None = None
+        self.line = 0
+        self.digest = hashlib.sha256()
+
+    def __iter__(self) -> Iterator[str]:
+        assert self.handle is not None, "open the file first"
+        while data := self.handle.readline(MAX_LINE + 1):
+            self.line += 1
+            self.digest.update(data)
+            if b"\x00" in data:
+                raise csv.Error("the file contains NUL bytes (binary, not CSV)")
+            if len(data) > MAX_LINE and not data.endswith(b"\n"):
+                raise csv.Error(f"a line longer than {MAX_LINE} bytes")
+            try:
+                yield data.decode("utf-8")
+            except UnicodeDecodeError:
+                raise csv.Error("samples file is not UTF-8 text") from None
+
+
+def _read_table(path: Path, reader, max_rows: int, warnings) -> dict[str, np.ndarray]:
+    header = next(_data_rows(reader), None)
+    if header is None:
+        raise InputError(problems=[Problem(path, 1, "file", "samples file is empty")])
+    problems: list[Problem] = []
+    columns = _read_header(path, header, problems, reader.line_num, warnings)
+    if problems:
+        raise InputError(problems=problems)
+    flat, lines = _read_rows(path, reader, len(header), list(columns), max_rows)
+    data = np.frombuffer(flat, dtype=float).reshape(-1, len(columns))
+    out = {name: data[:, j] * factor for j, (name, factor) in enumerate(columns.values())}
+    _check_values(path, out, lines)
+    return heavier_first(out)
+
+
+def _read_header(
+    path: Path, header: list[str], problems: list[Problem], line: int, warnings
+) -> dict[int, tuple[str, float]]:
+    columns: dict[int, tuple[str, float]] = {}
+    seen: set[str] = set()
+    for i, cell in enumerate(header):
+        m = HEADER_CELL.match(cell)
+        name = m.group(1) if m else cell[:60]
+        if name in seen:
+            problems.append(Problem(path, line, name, "column given twice"))
+            continue
+        seen.add(name)
+        if m and name in NOT_YET:
+            problems.append(Problem(path, line, name, "not supported yet in samples files"))
+        elif not m or name not in ESTIMATE_PATHS:
+            if warnings is not None:
+                warnings.append(Problem(path, line, f"column {cell[:60]!r}", _IGNORED))
+        elif (column := _column(path, name, m.group(2) or "", line, problems)) is not None:
+            columns[i] = column
+    missing = [c for c in REQUIRED_COLUMNS if c not in seen]
+    if missing:
+        problems.append(Problem(path, line, "header", f"missing column(s): {', '.join(missing)}"))
+    if "effective_spin" in seen and seen & {"heavier.spin", "lighter.spin"}:
+        problems.append(
+            Problem(
+                path,
+                line,
+                "effective_spin",
+                "give either effective_spin or the bodies' spin columns, not both",
+            )
+        )
+    return columns
+
+
+_IGNORED = (
+    "unknown column, ignored (the columns read are 'path [unit]' with a path from: "
+    f"{', '.join(ESTIMATE_PATHS)})"
+)
+
+
+def _column(path: Path, name: str, unit_text: str, line: int, problems: list[Problem]):
+    key = value_key(name)
+    try:
+        unit = parse_unit(unit_text)
+    except ValueParseError as exc:
+        problems.append(Problem(path, line, name, str(exc)))
+        return None
+    if unit.physical_type != (key.physical_type or "dimensionless"):
+        example = f"{name} [{key.canonical_unit}]" if key.canonical_unit else name
+        problems.append(
+            Problem(
+                path,
+                line,
+                name,
+                f"unit {unit or 'none'} is not a {key.physical_type} (e.g. '{example}')",
+            )
+        )
+        return None
+    return name, unit.to(key.canonical_unit or "")
+
+
+def _data_rows(reader):
+    """Rows that are neither blank nor comments (a first cell starting with '#')."""
+    for row in reader:
+        if row and not row[0].lstrip().startswith("#"):
+            yield row
+
+
+def _row_problem(path: Path, line: int, message: str) -> InputError:
+    return InputError(problems=[Problem(path, line, "row", message)])
+
+
+def _read_rows(
+    path: Path, reader, width: int, read: list[int], max_rows: int
+) -> tuple[array, array]:
+    """The cells of the columns ``read`` of every row, flat, and the line of each row."""
+    flat, lines = array("d"), array("q")
+    for row in _data_rows(reader):
+        line = reader.line_num
+        if len(lines) >= max_rows:
+            raise _row_problem(
+                path,
+                line,
+                f"more than {max_rows} rows (raise limits.max_sample_rows "
+                "in catalogue.yaml if this is intended)",
+            )
+        if len(row) != width:
+            raise _row_problem(path, line, f"{len(row)} cells, expected {width}")
+        try:
+            flat.extend(float(row[i]) for i in read)
+        except ValueError:
+            raise _row_problem(path, line, f"not a number in {row!r}"[:200]) from None
+        lines.append(line)
+    if not lines:
+        raise InputError(problems=[Problem(path, 2, "row", "no sample rows after the header")])
+    return flat, lines
+
+
+def _check_values(path: Path, values: dict[str, np.ndarray], lines) -> None:
+    for name, x in values.items():
+        low, high = physical_range(name)
+        bad = ~np.isfinite(x) | (x < low) | (x > high) | ((x == low) & (low == 0.0))
+        if bad.any():
+            i = int(np.argmax(bad))
+            raise InputError(
+                problems=[
+                    Problem(path, lines[i], name, f"value {x[i]:g} outside the physical range")
+                ]
+            )

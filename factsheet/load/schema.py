@@ -1,0 +1,248 @@
+"""The input keys, declared once: kind, physical type, limits and one-line meaning.
+
+The loader checks every file against these tables, ``factsheet new`` writes its scaffold from
+them, and docs/input-format.md describes the same keys. The key names are a contract (input
+format version 2). A key of kind ``unsupported`` is named so the schema is whole, but its
+feature is not built yet: ``check`` says so instead of ignoring it.
+"""
+
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass
+
+
+@dataclass(frozen=True)
+class Key:
+    """One input key: how to read it and what it means."""
+
+    kind: str  # text, slug, time, choice, interval, quantity, number, labels, markdown, ...
+    meaning: str
+    required: bool = False
+    physical_type: str | None = None  # astropy physical type for intervals and quantities
+    example: str = ""
+    choices: tuple[str, ...] = ()
+    low: float | None = None  # exclusive lower bound (in the canonical unit)
+    high: float | None = None  # inclusive upper bound
+    low_inclusive: bool = False
+    high_inclusive: bool = True
+    canonical_unit: str = ""
+
+
+def unsupported(meaning: str, instead: str) -> Key:
+    """A key of the format whose feature is not built yet; ``instead`` says what works today."""
+    return Key("unsupported", meaning, example=instead)
+
+
+def spin_key(meaning: str, example: str) -> Key:
+    """A dimensionless spin component from -1 to 1."""
+    return Key(
+        "interval", meaning, False, "dimensionless", example, low=-1.0, high=1.0, low_inclusive=True
+    )
+
+
+EVENT_KEYS: dict[str, Key] = {
+    "id": Key("slug", "slug used in URLs, unique in the catalogue", True, example="DX-0412"),
+    "title": Key("text", "display title", example="A heavy pair in the upper gap"),
+    "time": Key("time", "merger time, UTC, ISO 8601", True, example="2034-04-12T07:26:41.2"),
+    "status": Key(
+        "choice",
+        "candidate, confirmed or retracted",
+        choices=("candidate", "confirmed", "retracted"),
+    ),
+    "frame": Key("choice", "frame of the given masses", choices=("source", "detector")),
+    "detection": Key("detection", "what the search reported: network, snr, significance, sky"),
+    "estimate": Key("estimate", "the current estimate: the two bodies, spins and distance", True),
+    "samples": Key("path", "posterior samples (CSV), relative to this file", example="a.csv"),
+    "counterpart_candidates": unsupported(
+        "transients reported by observers", "describe them in the summary for now"
+    ),
+    "host": Key("host", "host environment for counterpart windows (disk of an active nucleus)"),
+    "what_if_lensed": unsupported("magnifications for the lensing panel", "leave it out"),
+    "visibility": Key("choice", "public or internal", choices=("public", "internal")),
+    "embargo_until": Key("time", "UTC time before which a public build leaves the event out"),
+    "history": Key(
+        "history", "earlier estimates, oldest first, each {date, label, note, estimate}"
+    ),
+    "summary": Key("markdown", "Markdown text for the page"),
+    "caveats": Key("markdown_list", "list of Markdown strings written by the editors"),
+    "internal_notes": Key("markdown", "Markdown shown only in internal builds"),
+}
+
+DETECTION_KEYS: dict[str, Key] = {
+    "network": Key("labels", "site labels (free text)", example="[A1, B1, C1]"),
+    "snr": Key("number", "network signal-to-noise ratio", example="14.3", low=0.0),
+    "false_alarm_rate": Key(
+        "quantity",
+        "false-alarm rate",
+        physical_type="frequency",
+        example="1 / 80 yr",
+        low=0.0,
+        low_inclusive=True,
+        canonical_unit="1/yr",
+    ),
+    "sky_area": Key(
+        "quantity",
+        "area of the 90 % credible sky region",
+        physical_type="solid angle",
+        example="580 deg2",
+        low=0.0,
+        canonical_unit="deg2",
+    ),
+    "sky_map": unsupported("HEALPix FITS sky map", "give the area as sky_area"),
+}
+
+ESTIMATE_KEYS: dict[str, Key] = {
+    "heavier": Key("body", "the heavier body: mass and spin", True),
+    "lighter": Key("body", "the lighter body: mass and spin", True),
+    "effective_spin": spin_key(
+        "effective spin (both bodies' aligned spins are taken equal to it)", "0.05 +0.1 -0.1"
+    ),
+    "precession_spin": unsupported(
+        "effective precession spin", "give the bodies' aligned spins or effective_spin"
+    ),
+    "chirp_mass": unsupported("chirp mass", "give the bodies' masses"),
+    "mass_ratio": unsupported("mass ratio (lighter / heavier)", "give the bodies' masses"),
+    "distance": Key(
+        "interval",
+        "luminosity distance",
+        True,
+        "length",
+        "440 +180 -170 Mpc",
+        low=0.0,
+        canonical_unit="Mpc",
+    ),
+    "redshift": Key(
+        "interval",
+        "redshift (derived from the distance when absent)",
+        False,
+        "dimensionless",
+        "0.09 +0.03 -0.03",
+        low=0.0,
+    ),
+}
+
+BODY_KEYS: dict[str, Key] = {
+    "mass": Key(
+        "interval", "mass", True, "mass", "36 +5 -4 Msun", low=0.0, canonical_unit="solMass"
+    ),
+    "spin": spin_key("spin component along the orbital angular momentum, -1 to 1", "0.1 +0.2 -0.2"),
+    "spin_magnitude": unsupported("spin magnitude, 0 to 1", "give the aligned component as spin"),
+    "tilt": unsupported(
+        "angle of the spin to the orbital angular momentum", "give the aligned component as spin"
+    ),
+}
+
+HISTORY_KEYS: dict[str, Key] = {
+    "date": Key("time", "when this estimate was issued", True, example="2034-04-12"),
+    "label": Key("text", "short name of the estimate", True, example="Rapid estimate"),
+    "note": Key("markdown", "what this estimate was"),
+    "estimate": Key("estimate", "the values of this estimate", True),
+    "status": unsupported("a change of status", "set the event's status"),
+}
+
+HOST_KEYS: dict[str, Key] = {
+    "smbh_mass": Key(
+        "quantity",
+        "mass of the central black hole",
+        True,
+        "mass",
+        "1e8 Msun",
+        low=0.0,
+        canonical_unit="solMass",
+    ),
+    "orbit_radius": Key(
+        "number",
+        "orbit radius of the binary in gravitational radii of the central black hole",
+        True,
+        example="700",
+        low=0.0,
+    ),
+    "disk_aspect_ratio": Key(
+        "number",
+        "disk half-thickness over radius, H/a",
+        False,
+        example="0.01",
+        low=0.0,
+    ),
+}
+
+CATALOGUE_KEYS: dict[str, Key] = {
+    "title": Key("text", "title of the catalogue site", example="First season"),
+    "description": Key("markdown", "Markdown shown on the index page"),
+    "base_url": Key("text", "absolute URL of the published site, for the feed"),
+    "cosmology": Key("cosmology", "astropy cosmology realisation", example="Planck18"),
+    "credible_level": Key(
+        "number",
+        "credible level of the intervals",
+        example="0.9",
+        low=0.0,
+        high=1.0,
+        high_inclusive=False,
+    ),
+    "samples": Key("count", "samples drawn per event", example="4000"),
+    "low_frequency": Key(
+        "quantity",
+        "low-frequency edge of the detector band",
+        physical_type="frequency",
+        example="20 Hz",
+        low=0.0,
+        canonical_unit="Hz",
+    ),
+    "arm_length": Key(
+        "quantity",
+        "detector arm length for the arm-length-change comparison",
+        physical_type="length",
+        example="4 km",
+        low=0.0,
+        canonical_unit="m",
+    ),
+    "mass_bands": Key("mapping", "overrides of the packaged mass-band edges"),
+    "comparisons": Key("mapping", "overrides or additions to the packaged comparison objects"),
+    "energy_units": Key("choice", "units for energies on pages", choices=("SI", "cgs")),
+    "neutron_star_radius": Key(
+        "quantity",
+        "assumed neutron-star radius for the tidal-disruption estimate",
+        physical_type="length",
+        example="12 km",
+        low=0.0,
+        canonical_unit="km",
+    ),
+    "low_significance_rate": Key(
+        "quantity",
+        "false-alarm rate above which a sheet calls the event marginal",
+        physical_type="frequency",
+        example="1 / yr",
+        low=0.0,
+        canonical_unit="1/yr",
+    ),
+    "large_sky_area": Key(
+        "quantity",
+        "sky area above which a sheet says the localisation is poor",
+        physical_type="solid angle",
+        example="1000 deg2",
+        low=0.0,
+        canonical_unit="deg2",
+    ),
+    "limits": Key(
+        "limits", "guards on input size: max_file_bytes, max_depth, max_aliases, max_sample_rows"
+    ),
+    "licence": unsupported("licence text for the footer and the exports", "leave it out"),
+    "citation": unsupported("how to cite the catalogue", "put it in the description"),
+    "languages": unsupported("languages of the site", "leave it out (the site is in English)"),
+    "what_if_lensed": unsupported("default magnifications for the lensing panel", "leave it out"),
+}
+
+
+def value_key(path: str) -> Key:
+    """The key of one value of an estimate by its path (``heavier.mass``, ``distance``)."""
+    body, _, name = path.rpartition(".")
+    return BODY_KEYS[name] if body else ESTIMATE_KEYS[name]
+
+
+def physical_range(path: str) -> tuple[float, float]:
+    """The physical range of an estimate value (samples are drawn and checked inside it)."""
+    key = value_key(path)
+    low = -math.inf if key.low is None else key.low
+    high = math.inf if key.high is None else key.high
+    return low, high

@@ -1,0 +1,78 @@
+"""The Jinja2 environment of the pages, its filters, and Markdown through a sanitiser.
+
+Filters: ``url`` (a site path to a link relative to the page being rendered), ``interval``
+(a :class:`~factsheet.model.Summary` rounded by its uncertainty), ``value`` (one number to
+significant figures with its unit), ``unit`` (a unit as readers write it), ``label`` (the short
+label of a quantity key, from :mod:`factsheet.labels`), ``percent`` (a credible level, ``90 %``)
+and ``markdown`` (sanitised HTML).
+Autoescape is on and undefined variables are errors.
+"""
+
+from __future__ import annotations
+
+import hashlib
+import posixpath
+
+import jinja2
+import markdown as md
+import nh3
+from markupsafe import Markup
+
+from factsheet.labels import QUANTITIES
+from factsheet.notation import format_interval, format_value, percent, unit_text
+from factsheet.resources import templates_dir
+
+ALLOWED_TAGS = {
+    "p", "a", "em", "strong", "code", "pre", "ul", "ol", "li", "blockquote", "br", "sub", "sup",
+    "h3", "h4", "table", "thead", "tbody", "tr", "th", "td", "hr",
+}  # fmt: skip
+ALLOWED_SCHEMES = {"http", "https", "mailto"}
+
+
+def markdown_html(text: str) -> Markup:
+    """Markdown to HTML, passed through the nh3 sanitiser (no scripts, handlers or frames)."""
+    html = md.markdown(text or "", extensions=["sane_lists"])
+    clean = nh3.clean(
+        html,
+        tags=ALLOWED_TAGS,
+        url_schemes=ALLOWED_SCHEMES,
+        link_rel="noopener noreferrer nofollow",
+    )
+    return Markup(clean)
+
+
+@jinja2.pass_context
+def url_filter(context: jinja2.runtime.Context, target: str) -> str:
+    """A link from the page being rendered to ``target`` (a path from the site root)."""
+    here = posixpath.dirname(context["page_path"]) or "."
+    return posixpath.relpath(target, here)
+
+
+def make_environment() -> jinja2.Environment:
+    env = jinja2.Environment(
+        loader=jinja2.FileSystemLoader(templates_dir()),
+        autoescape=jinja2.select_autoescape(["html", "xml"]),
+        undefined=jinja2.StrictUndefined,
+        trim_blocks=True,
+        lstrip_blocks=True,
+    )
+    env.filters.update(
+        url=url_filter,
+        markdown=markdown_html,
+        unit=unit_text,
+        interval=lambda s: format_interval(s.median, s.low, s.high, s.unit),
+        value=format_value,
+        percent=percent,
+        label=lambda key: QUANTITIES[key].short,
+    )
+    return env
+
+
+def templates_fingerprint() -> str:
+    """A hash of every template and static file (every page depends on them)."""
+    digest = hashlib.sha256()
+    for path in sorted(templates_dir().rglob("*")):
+        if path.is_file():
+            digest.update(path.relative_to(templates_dir()).as_posix().encode())
+            digest.update(path.read_bytes())
+    return digest.hexdigest()

@@ -1,0 +1,85 @@
+"""The ``data/<id>.json`` document of one event: the export contract (version 2) other tools read.
+
+``docs/json-export.md`` describes every key. Quantities carry the median and the bounds (not
+offsets) of the credible interval, with astropy unit strings; mass bands are keyed by subject
+(``heavier``, ``lighter``, ``remnant``) and partition the mass axis; ``intermediate_mass`` is
+the separate probability of a mass at or above the intermediate-mass threshold.
+"""
+
+from __future__ import annotations
+
+from typing import Any
+
+import astropy.units as u
+
+from factsheet.labels import WINDOWS
+from factsheet.model import Derived, Detection
+from factsheet.physics.counterparts import Window
+
+#: The version of this contract (docs/json-export.md); it changes when a key is renamed or removed.
+FORMAT_VERSION = 2
+#: The quantity keys of the contract, in order; the ECSV and CSV tables carry the same.
+CONTRACT_QUANTITIES = (
+    "heavier_mass", "lighter_mass", "total_mass", "chirp_mass", "mass_ratio", "effective_spin",
+    "heavier_spin", "lighter_spin", "distance", "redshift", "remnant_mass", "remnant_spin",
+    "radiated_mass", "energy_radiated", "peak_luminosity", "kick_velocity",
+    "ringdown_frequency", "ringdown_damping_time", "isco_frequency", "time_in_band",
+)  # fmt: skip
+#: Keys the JSON carries when the event has them: the contract, then the detector-frame twins
+#: and the other signal quantities.
+JSON_QUANTITIES = (
+    *CONTRACT_QUANTITIES, "heavier_mass_detector", "lighter_mass_detector",
+    "total_mass_detector", "chirp_mass_detector", "cycles_in_band", "strain_amplitude",
+    "arm_length_change",
+)  # fmt: skip
+
+
+def event_json(item: Derived) -> dict[str, Any]:
+    """The JSON document of one event."""
+    q, event = item.quantities, item.event
+    return {
+        "format_version": FORMAT_VERSION,
+        "id": event.id,
+        "title": event.title,
+        "status": event.status,
+        "time_utc": event.time.utc.isot,
+        "source_class": item.source_class,
+        "source_class_probabilities": dict(item.class_probabilities),
+        "disruption_probability": item.disruption_probability,
+        "credible_level": item.credible_level,
+        "cosmology": item.settings.cosmology,
+        "detection": detection_json(event.detection),
+        "quantities": {k: q[k].as_dict() for k in JSON_QUANTITIES if k in q},
+        "mass_bands": {subject: dict(bands) for subject, bands in item.mass_bands.items()},
+        "intermediate_mass": dict(item.intermediate_mass),
+        "counterpart_windows": [window_json(w) for w in item.windows],
+        "caveats": [c.as_dict() for c in item.caveats],
+    }
+
+
+def detection_json(found: Detection) -> dict[str, Any]:
+    """What the search reported: network, SNR, false-alarm rate, sky area (null when absent)."""
+    far, sky = found.false_alarm_rate, found.sky_area
+    return {
+        "network": list(found.network),
+        "snr": found.snr,
+        "false_alarm_rate": None
+        if far is None
+        else {"value": far.to_value(1 / u.yr), "unit": "1 / yr"},
+        "sky_area": None if sky is None else {"value": sky.to_value(u.deg**2), "unit": "deg2"},
+    }
+
+
+def window_json(window: Window) -> dict[str, str]:
+    """One counterpart window: its key and name, UTC bounds as ISO 8601 strings, band and
+    scenario keys, its basis and a plain sentence."""
+    return {
+        "key": window.key,
+        "name": WINDOWS[window.key].name,
+        "start_utc": window.start.utc.isot,
+        "end_utc": window.end.utc.isot,
+        "band": window.band,
+        "scenario": window.scenario,
+        "basis": window.basis,
+        "text": WINDOWS[window.key].plain,
+    }

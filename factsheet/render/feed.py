@@ -1,0 +1,89 @@
+"""The Atom feed of the catalogue's changes (``feed.xml``).
+
+The entries are those of the changes page (:mod:`factsheet.render.history`), dated from the
+inputs, never the build clock. The feed is Atom 1.0 (IETF RFC 4287), written with
+:mod:`xml.etree.ElementTree`, which escapes text; characters XML 1.0 forbids are dropped. Entry
+ids are ``urn:uuid:`` name-based UUIDs (IETF RFC 4122, version 5) of the event id, date, kind
+and origin, so they are stable across builds.
+"""
+
+from __future__ import annotations
+
+import re
+import uuid
+import xml.etree.ElementTree as ET
+
+from factsheet.model import Settings
+from factsheet.render.history import ADDED, ChangeEntry
+
+ATOM = "http://www.w3.org/2005/Atom"
+NAMESPACE = uuid.UUID("d573d04c-89f0-4b52-bf7c-69f004be1040")  # fixed: ids stay stable
+EMPTY_FEED_DATE = "1970-01-01T00:00:00Z"  # a fixed date for a feed with no entries
+_NOT_XML = re.compile("[^\t\n\r\x20-\ud7ff\ue000-\ufffd\U00010000-\U0010ffff]")
+
+
+def entry_id(entry: ChangeEntry) -> str:
+    """A stable Atom id: a name-based UUID (RFC 4122 version 5) of what identifies the entry."""
+    name = f"{entry.event_id}|{entry.timestamp}|{entry.kind}|{entry.origin}"
+    return f"urn:uuid:{uuid.uuid5(NAMESPACE, name)}"
+
+
+def entry_title(entry: ChangeEntry) -> str:
+    return f"{entry.event_id} {entry.kind}: {entry.label} — {entry.title}"
+
+
+def entry_summary(entry: ChangeEntry) -> str:
+    """Plain text: the note, then the values (first estimate) or what changed."""
+    lead = "Values" if entry.kind == ADDED else "Changes"
+    lines = "; ".join(c.text for c in entry.changes) or "no change in the listed values"
+    parts = [entry.note.strip(), f"{lead} (medians as given): {lines}."]
+    return " ".join(p for p in parts if p)
+
+
+def _site_link(base_url: str, path: str) -> str:
+    return f"{base_url.rstrip('/')}/{path}" if base_url else path
+
+
+def _add(parent: ET.Element, tag: str, text: str | None = None, **attrib: str) -> ET.Element:
+    element = ET.SubElement(parent, tag, {k: _clean(v) for k, v in attrib.items()})
+    if text is not None:
+        element.text = _clean(text)
+    return element
+
+
+def _clean(text: str) -> str:
+    return _NOT_XML.sub("", text)
+
+
+def atom_feed(entries: list[ChangeEntry], settings: Settings, base_url: str | None = None) -> bytes:
+    """An Atom 1.0 document (RFC 4287) of ``entries``; links absolute when a base URL is set.
+
+    ``base_url`` defaults to ``settings.base_url``; without one, links are relative to the
+    feed's own place at the site root.
+    """
+    base = settings.base_url if base_url is None else base_url
+    feed = ET.Element("feed", {"xmlns": ATOM})
+    _add(feed, "id", f"urn:uuid:{uuid.uuid5(NAMESPACE, 'feed|' + settings.title)}")
+    _add(feed, "title", settings.title)
+    _add(
+        feed,
+        "subtitle",
+        "Additions and revisions of the catalogue's estimates. Preliminary estimates can change.",
+    )
+    _add(feed, "updated", max((e.timestamp for e in entries), default=EMPTY_FEED_DATE))
+    _add(_add(feed, "author"), "name", settings.title)
+    _add(feed, "link", rel="alternate", type="text/html", href=_site_link(base, "changes.html"))
+    if base:
+        _add(
+            feed, "link", rel="self", type="application/atom+xml", href=_site_link(base, "feed.xml")
+        )
+    _add(feed, "generator", "factsheet")
+    for entry in entries:
+        item = _add(feed, "entry")
+        _add(item, "id", entry_id(entry))
+        _add(item, "title", entry_title(entry), type="text")
+        _add(item, "updated", entry.timestamp)
+        _add(item, "link", rel="alternate", type="text/html", href=_site_link(base, entry.page))
+        _add(item, "summary", entry_summary(entry), type="text")
+    ET.indent(feed)
+    return ET.tostring(feed, encoding="utf-8", xml_declaration=True) + b"\n"

@@ -1,0 +1,140 @@
+"""The catalogue as one table: ``data/catalogue.ecsv`` and ``data/catalogue.csv``.
+
+One row per event; for each main quantity three columns, ``<name>`` (median), ``<name>_low`` and
+``<name>_high`` (bounds of the credible interval, not offsets), with astropy units and masked
+where the event has no such quantity (remnant numbers of a neutron-star pair, for example).
+The ECSV is astropy's Enhanced Character Separated Values format (units, descriptions and table
+meta in a YAML header); the CSV writes each unit into its header cell as ``name [unit]``, the
+convention of our samples files. Both are deterministic: no dates, no build clock.
+"""
+
+from __future__ import annotations
+
+import csv
+import functools
+import io
+import math
+
+import astropy.units as u
+import numpy as np
+from astropy.table import Column, MaskedColumn, Table
+
+from factsheet.labels import QUANTITIES
+from factsheet.model import Derived, Settings
+from factsheet.render.event_json import CONTRACT_QUANTITIES
+
+MAIN_QUANTITIES = CONTRACT_QUANTITIES  # every quantity of the JSON contract
+
+TEXT_COLUMNS = {
+    "id": "event designation (also the page and JSON file name)",
+    "title": "display title",
+    "time_utc": "merger time, UTC, ISO 8601",
+    "status": "candidate, confirmed or retracted",
+    "source_class": "BNS, NSBH or BBH, from the masses and the neutron-star mass bound",
+}
+
+NOTE = (
+    "Numbers are derived from published fits applied to the summary given for each event, "
+    "not from a full re-analysis of the data; preliminary estimates can change."
+)
+
+
+def catalogue_table(derived: list[Derived]) -> Table:
+    """One row per event: text columns and median/low/high of each main quantity, with units."""
+    table = Table()
+    for name, description in TEXT_COLUMNS.items():
+        table[name] = Column([_text(d, name) for d in derived], dtype=str, description=description)
+    settings = derived[0].settings if derived else Settings()
+    level = settings.credible_level
+    for name in MAIN_QUANTITIES:
+        for column in _quantity_columns(derived, name, level):
+            table.add_column(column)
+    table.meta.update(_meta(settings))
+    return table
+
+
+def _text(item: Derived, name: str) -> str:
+    event = item.event
+    values = {"time_utc": event.time.utc.isot, "source_class": item.source_class}
+    return values[name] if name in values else str(getattr(event, name))
+
+
+def _quantity_columns(derived: list[Derived], name: str, level: float) -> list[MaskedColumn]:
+    """Median, low and high of ``name`` in one unit (the first event's), masked where absent."""
+    present = [d.quantities[name] for d in derived if name in d.quantities]
+    unit = u.Unit(present[0].unit) if present else u.dimensionless_unscaled
+    label, frame = QUANTITIES[name].name, (present[0].frame if present else None)
+    where = f", {frame} frame" if frame else ""
+    percent = f"{100 * (present[0].level if present else level):g} %"
+    parts = {
+        "": f"{label}{where}: median",
+        "_low": f"{label}{where}: lower bound of the {percent} credible interval",
+        "_high": f"{label}{where}: upper bound of the {percent} credible interval",
+    }
+    columns = []
+    for suffix, description in parts.items():
+        field = {"": "median", "_low": "low", "_high": "high"}[suffix]
+        values = [_value(d, name, field, unit) for d in derived]
+        data = np.array([np.nan if v is None else v for v in values], dtype=float)
+        mask = np.array([v is None for v in values], dtype=bool)
+        columns.append(
+            MaskedColumn(
+                data,
+                mask=mask,
+                name=name + suffix,
+                unit=None if unit == u.dimensionless_unscaled else unit,
+                description=description,
+            )
+        )
+    return columns
+
+
+def _value(item: Derived, name: str, field: str, unit: u.UnitBase) -> float | None:
+    summary = item.quantities.get(name)
+    if summary is None:
+        return None
+    return getattr(summary, field) * _factor(summary.unit, unit)
+
+
+@functools.cache
+def _factor(source: str, target: u.UnitBase) -> float:
+    return float(u.Unit(source).to(target))
+
+
+def _meta(settings: Settings) -> dict:
+    return {
+        "credible_level": settings.credible_level,
+        "cosmology": settings.cosmology,
+        "low_frequency": f"{settings.low_frequency.to_value(u.Hz):g} Hz",
+        "note": NOTE,
+    }
+
+
+def write_ecsv(table: Table) -> bytes:
+    """The table in astropy's ECSV format (units, descriptions and meta in the YAML header)."""
+    out = io.StringIO()
+    table.write(out, format="ascii.ecsv")
+    return out.getvalue().encode("utf-8")
+
+
+def write_csv(table: Table) -> bytes:
+    """Plain CSV, each header cell ``name [unit]`` (no bracket when dimensionless)."""
+    out = io.StringIO()
+    writer = csv.writer(out, lineterminator="\n")
+    writer.writerow([_header(table[name]) for name in table.colnames])
+    for row in table:
+        writer.writerow([_cell(row[name]) for name in table.colnames])
+    return out.getvalue().encode("utf-8")
+
+
+def _header(column: Column) -> str:
+    return f"{column.name} [{column.unit.to_string()}]" if column.unit else column.name
+
+
+def _cell(value) -> str:
+    if value is np.ma.masked:
+        return ""
+    if isinstance(value, np.floating | float):
+        number = float(value)
+        return repr(number) if math.isfinite(number) else ""
+    return str(value)

@@ -1,0 +1,266 @@
+"""Changes and the Atom feed: one entry per addition or revision, dated from the inputs."""
+
+from __future__ import annotations
+
+import xml.etree.ElementTree as ET
+from dataclasses import replace
+from html.parser import HTMLParser
+
+import pytest
+from astropy.time import Time
+
+from factsheet.build import build_time, select_events
+from factsheet.derive import derive_event
+from factsheet.load import load_catalogue
+from factsheet.load.values import parse_interval
+from factsheet.model import Body, Estimate
+from factsheet.render.contexts import ChangesPage
+from factsheet.render.environment import make_environment
+from factsheet.render.feed import atom_feed, entry_id, entry_summary
+from factsheet.render.history import UNDATED_NOTE, change_entries, changes_between
+from factsheet.render.site import Renderer
+from factsheet.resources import demo_dir
+
+ATOM = "{http://www.w3.org/2005/Atom}"
+ABSURD_EPOCH = "253402300799"  # 9999-12-31T23:59:59 UTC: must never show up
+
+SETTINGS = "title: Test catalogue\nsamples: 200\n"
+NO_HISTORY = """\
+id: A-1
+title: "<script>alert(1)</script> & friends"
+time: "2034-03-01T10:00:00"
+estimate:
+  heavier: {mass: 30 +5 -5 Msun}
+  lighter: {mass: 20 +5 -5 Msun}
+  distance: 500 +100 -100 Mpc
+"""
+REVISED = """\
+id: B-2
+title: "Revised \\x01 twice"
+time: "2034-04-02T08:30:00"
+estimate:
+  heavier: {mass: 38 +4 -4 Msun, spin: 0.2 +0.2 -0.2}
+  lighter: {mass: 30 +4 -4 Msun}
+  distance: 800 +200 -200 Mpc
+history:
+  - {date: "2034-04-02", label: Rapid, note: "First look.",
+     estimate: {heavier: {mass: 40 +8 -8 Msun}, lighter: {mass: 31 +6 -6 Msun},
+                distance: 900 +300 -300 Mpc}}
+  - {date: "2034-05-20", label: Refined, note: "All sites.",
+     estimate: {heavier: {mass: 39 +5 -5 Msun}, lighter: {mass: 30 +4 -4 Msun},
+                distance: 800 +200 -200 Mpc}}
+"""
+SETTLED = """\
+id: C-3
+title: Settled
+time: "2034-06-10T01:00:00"
+estimate:
+  heavier: {mass: 12 +2 -2 Msun}
+  lighter: {mass: 8 +2 -2 Msun}
+  distance: 300 +90 -90 Mpc
+history:
+  - {date: "2034-06-11T12:00:00", label: Rapid,
+     estimate: {heavier: {mass: 13 +3 -3 Msun}, lighter: {mass: 8 +2 -2 Msun},
+                distance: 320 +90 -90 Mpc}}
+  - {date: "2034-07-01", label: Final,
+     estimate: {heavier: {mass: 12 +2 -2 Msun}, lighter: {mass: 8 +2 -2 Msun},
+                distance: 300 +90 -90 Mpc}}
+"""
+UNCHANGED = """\
+id: D-4
+time: "2034-08-01T00:00:00"
+estimate:
+  heavier: {mass: 19 +3 -3 Msun}
+  lighter: {mass: 15 +2 -2 Msun}
+  distance: 600 +90 -90 Mpc
+history:
+  - {date: "2034-08-02", label: Rapid,
+     estimate: {heavier: {mass: 20 +3 -3 Msun}, lighter: {mass: 15 +2 -2 Msun},
+                distance: 600 +90 -90 Mpc}}
+  - {date: "2034-08-09", label: Rechecked,
+     estimate: {heavier: {mass: 20 +3 -3 Msun}, lighter: {mass: 15 +2 -2 Msun},
+                distance: 600 +90 -90 Mpc}}
+"""
+# One addition per event (3); revisions: B-2 "Refined" and its undated current estimate (2),
+# C-3 "Final" (1); C-3's current estimate equals "Final", so it is no revision.
+INPUT_DATES = {
+    ("A-1", "added"): ["2034-03-01T10:00:00.000Z"],  # no history: the merger time
+    ("B-2", "added"): ["2034-04-02T08:30:00.000Z"],  # day-only date before the merger: merger
+    ("B-2", "revised"): ["2034-05-20T00:00:00.000Z", "2034-05-20T00:00:00.000Z"],
+    ("C-3", "added"): ["2034-06-11T12:00:00.000Z"],
+    ("C-3", "revised"): ["2034-07-01T00:00:00.000Z"],
+}
+
+
+@pytest.fixture
+def derived(catalogue, monkeypatch):
+    monkeypatch.setenv("SOURCE_DATE_EPOCH", ABSURD_EPOCH)
+    folder = catalogue(
+        {"catalogue.yaml": SETTINGS, "a.yaml": NO_HISTORY, "b.yaml": REVISED, "c.yaml": SETTLED}
+    )
+    loaded = load_catalogue(folder)
+    events, _, _ = select_events(loaded, "public", build_time())
+    return [derive_event(e, loaded.settings) for e in events]
+
+
+def parse(feed: bytes) -> ET.Element:
+    root = ET.fromstring(feed)
+    assert root.tag == f"{ATOM}feed"
+    return root
+
+
+def test_one_entry_per_addition_or_revision(derived):
+    entries = change_entries(derived)
+    assert len(entries) == 6
+    found: dict = {}
+    for e in entries:
+        found.setdefault((e.event_id, e.kind), []).append(e.timestamp)
+    assert found == INPUT_DATES
+    root = parse(atom_feed(entries, derived[0].settings))
+    assert len(root.findall(f"{ATOM}entry")) == 6
+
+
+def test_entries_newest_first_and_deterministic(derived):
+    entries = change_entries(derived)
+    stamps = [e.timestamp for e in entries]
+    assert stamps == sorted(stamps, reverse=True)
+    same_day = [e for e in entries if e.event_id == "B-2" and e.day == "2034-05-20"]
+    assert [e.label for e in same_day] == ["Current estimate", "Refined"]
+    assert same_day[0].note == UNDATED_NOTE
+    assert atom_feed(entries, derived[0].settings) == atom_feed(
+        change_entries(list(reversed(derived))), derived[0].settings
+    )
+
+
+def test_what_changed_old_to_new(derived):
+    by_label = {(e.event_id, e.label): e for e in change_entries(derived)}
+    refined = [c.text for c in by_label["B-2", "Refined"].changes]
+    assert refined == ["m₁: 40 → 39 M⊙", "m₂: 31 → 30 M⊙", "Distance: 900 → 800 Mpc"]
+    current = [c.text for c in by_label["B-2", "Current estimate"].changes]
+    assert current == ["m₁: 39 → 38 M⊙", "χ₁: not given → 0.2"]
+    first = [c.text for c in by_label["A-1", "First estimate"].changes]
+    assert first == ["m₁: 30 M⊙", "m₂: 20 M⊙", "Distance: 500 Mpc"]
+
+
+def test_feed_dates_come_from_the_inputs_not_the_clock(derived):
+    feed = atom_feed(change_entries(derived), derived[0].settings)
+    root = parse(feed)
+    assert b"9999-12-31" not in feed
+    assert Time.now().utc.isot[:10].encode() not in feed
+    assert root.find(f"{ATOM}updated").text == "2034-07-01T00:00:00.000Z"
+    dates = sorted(e.find(f"{ATOM}updated").text for e in root.findall(f"{ATOM}entry"))
+    assert dates == sorted(d for ds in INPUT_DATES.values() for d in ds)
+
+
+def test_feed_has_the_required_atom_elements(derived):
+    root = parse(atom_feed(change_entries(derived), derived[0].settings))
+    for tag in ("id", "title", "updated", "author/" + ATOM + "name"):
+        assert root.find(ATOM + tag).text
+    ids = []
+    for entry in root.findall(f"{ATOM}entry"):
+        for tag in ("id", "title", "updated", "summary"):
+            assert entry.find(ATOM + tag).text, tag
+        ids.append(entry.find(f"{ATOM}id").text)
+        assert entry.find(f"{ATOM}link").get("href").startswith("events/")
+    assert len(set(ids)) == len(ids)
+    assert all(i.startswith("urn:uuid:") for i in ids)
+
+
+def test_entry_ids_are_stable_across_builds(derived, monkeypatch):
+    first = [entry_id(e) for e in change_entries(derived)]
+    monkeypatch.setenv("SOURCE_DATE_EPOCH", "1")  # another build, another clock
+    folder = derived[0].event.source.parent
+    rebuilt = [
+        derive_event(e, d.settings)
+        for e, d in zip(load_catalogue(folder).events, derived, strict=True)
+    ]
+    assert [entry_id(e) for e in change_entries(rebuilt)] == first
+
+
+def test_hostile_text_is_escaped(derived):
+    feed = atom_feed(change_entries(derived), derived[0].settings)
+    assert b"<script>" not in feed and b"\x01" not in feed
+    assert b"&lt;script&gt;alert(1)&lt;/script&gt; &amp; friends" in feed
+    root = parse(feed)
+    titles = [e.find(f"{ATOM}title").text for e in root.findall(f"{ATOM}entry")]
+    assert "A-1 added: First estimate — <script>alert(1)</script> & friends" in titles
+    assert any(t.endswith("Revised  twice") for t in titles)
+
+
+def test_absolute_links_with_a_base_url(derived):
+    settings = replace(derived[0].settings, base_url="https://example.org/cat/")
+    root = parse(atom_feed(change_entries(derived), settings))
+    links = [e.find(f"{ATOM}link").get("href") for e in root.findall(f"{ATOM}entry")]
+    assert "https://example.org/cat/events/A-1.html" in links
+    self_link = [x for x in root.findall(f"{ATOM}link") if x.get("rel") == "self"]
+    assert self_link[0].get("href") == "https://example.org/cat/feed.xml"
+
+
+class Page(HTMLParser):
+    def __init__(self):
+        super().__init__()
+        self.links: list[str] = []
+        self.times: list[str] = []
+        self.text: list[str] = []
+
+    def handle_starttag(self, tag, attrs):
+        attrs = dict(attrs)
+        if tag == "a":
+            self.links.append(attrs["href"])
+        if tag == "time":
+            self.times.append(attrs["datetime"])
+        assert tag != "script"
+
+    def handle_data(self, data):
+        self.text.append(data)
+
+
+def test_changes_page(derived):
+    entries = change_entries(derived)
+    renderer = Renderer(make_environment(), derived[0].settings, "public", "")
+    html = renderer.page("changes.html", "changes.html", ChangesPage(tuple(entries)))
+    page = Page()
+    page.feed(html.decode("utf-8"))
+    assert "feed.xml" in page.links and "events/B-2.html" in page.links
+    assert page.times == [e.timestamp for e in entries]
+    text = " ".join("".join(page.text).split())
+    assert "<script>alert(1)</script> & friends" in text
+    assert "m₁: 40 → 39 M⊙" in text
+    assert "not from a full re-analysis" in text
+
+
+def test_demo_history_event():
+    catalogue = load_catalogue(demo_dir())
+    event = next(e for e in catalogue.events if e.id == "MER34-006")
+    item = derive_event(event, replace(catalogue.settings, samples=200))
+    entries = change_entries([item])
+    assert [(e.kind, e.label) for e in reversed(entries)] == [
+        ("added", "Rapid estimate"),
+        ("revised", "Refined estimate"),
+        ("revised", "Current estimate"),
+    ]
+    assert entries[-1].timestamp == event.time.utc.isot + "Z"
+
+
+def test_detector_frame_masses_are_labelled_as_such():
+    estimate = Estimate(
+        heavier=Body(parse_interval("30 +3 -3 Msun")),
+        lighter=Body(parse_interval("20 +2 -2 Msun")),
+        distance=parse_interval("400 +100 -100 Mpc"),
+    )
+    labels = [c.label for c in changes_between(None, estimate, "detector")]
+    assert labels == ["m₁ (detector frame)", "m₂ (detector frame)", "Distance"]
+    assert [c.label for c in changes_between(None, estimate)] == ["m₁", "m₂", "Distance"]
+
+
+def test_a_revision_without_change_says_so(catalogue):
+    folder = catalogue({"catalogue.yaml": SETTINGS, "d.yaml": UNCHANGED})
+    loaded = load_catalogue(folder)
+    entries = change_entries([derive_event(e, loaded.settings) for e in loaded.events])
+    (rechecked,) = [e for e in entries if e.label == "Rechecked"]
+    assert rechecked.changes == ()
+    assert "no change in the listed values" in entry_summary(rechecked)
+    renderer = Renderer(make_environment(), loaded.settings, "public", "")
+    page = Page()
+    page.feed(renderer.page("changes.html", "changes.html", ChangesPage(tuple(entries))).decode())
+    assert "No change in the listed values." in " ".join("".join(page.text).split())

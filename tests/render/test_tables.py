@@ -1,0 +1,190 @@
+"""The catalogue table: ECSV (astropy's format, units in the header) and CSV read back."""
+
+from __future__ import annotations
+
+import csv
+import io
+from dataclasses import replace
+
+import astropy.units as u
+import numpy as np
+import pytest
+from astropy.table import Table
+from astropy.time import Time
+
+from factsheet.derive import derive_event
+from factsheet.load import load_catalogue
+from factsheet.load.samples import HEADER_CELL
+from factsheet.render.tables import MAIN_QUANTITIES, catalogue_table, write_csv, write_ecsv
+from factsheet.resources import demo_dir
+
+UNITS = {
+    "heavier_mass": u.solMass,
+    "chirp_mass": u.solMass,
+    "distance": u.Mpc,
+    "energy_radiated": u.J,
+    "peak_luminosity": u.W,
+    "kick_velocity": u.km / u.s,
+    "ringdown_frequency": u.Hz,
+    "time_in_band": u.s,
+}
+DIMENSIONLESS = ("mass_ratio", "effective_spin", "redshift", "remnant_spin")
+#: The quantities of the export contract (version 2), in their order (docs/json-export.md).
+CONTRACT = (
+    "heavier_mass",
+    "lighter_mass",
+    "total_mass",
+    "chirp_mass",
+    "mass_ratio",
+    "effective_spin",
+    "heavier_spin",
+    "lighter_spin",
+    "distance",
+    "redshift",
+    "remnant_mass",
+    "remnant_spin",
+    "radiated_mass",
+    "energy_radiated",
+    "peak_luminosity",
+    "kick_velocity",
+    "ringdown_frequency",
+    "ringdown_damping_time",
+    "isco_frequency",
+    "time_in_band",
+)
+TEXT_COLUMNS = ["id", "title", "time_utc", "status", "source_class"]
+
+
+@pytest.fixture(scope="module")
+def derived():
+    catalogue = load_catalogue(demo_dir())
+    settings = replace(catalogue.settings, samples=400)
+    return [derive_event(e, settings) for e in catalogue.events]
+
+
+@pytest.fixture(scope="module")
+def ecsv(derived):
+    return Table.read(write_ecsv(catalogue_table(derived)).decode("utf-8"), format="ascii.ecsv")
+
+
+def test_ecsv_has_one_row_per_event_and_three_columns_per_quantity(derived, ecsv):
+    assert list(ecsv["id"]) == [d.event.id for d in derived]
+    for name in MAIN_QUANTITIES:
+        assert {name, f"{name}_low", f"{name}_high"} <= set(ecsv.colnames)
+
+
+def test_columns_are_the_contract_quantities_in_order(derived, ecsv):
+    assert tuple(MAIN_QUANTITIES) == CONTRACT
+    expected = [*TEXT_COLUMNS, *(f"{q}{s}" for q in CONTRACT for s in ("", "_low", "_high"))]
+    assert ecsv.colnames == expected
+    header = next(csv.reader(io.StringIO(write_csv(catalogue_table(derived)).decode())))
+    assert [HEADER_CELL.match(cell).group(1) for cell in header] == expected
+    assert header[5:8] == [
+        "heavier_mass [solMass]",
+        "heavier_mass_low [solMass]",
+        "heavier_mass_high [solMass]",
+    ]
+
+
+def test_ecsv_units_survive_the_round_trip(ecsv):
+    for name, unit in UNITS.items():
+        for column in (name, f"{name}_low", f"{name}_high"):
+            assert ecsv[column].unit == unit, column
+    for name in DIMENSIONLESS:
+        assert ecsv[name].unit is None
+
+
+def test_ecsv_values_equal_the_summaries(derived, ecsv):
+    for row, item in zip(ecsv, derived, strict=True):
+        for name in MAIN_QUANTITIES:
+            if name not in item.quantities:
+                continue
+            s = item.quantities[name]
+            assert u.Unit(s.unit) == (ecsv[name].unit or u.dimensionless_unscaled)
+            assert [row[name], row[f"{name}_low"], row[f"{name}_high"]] == [s.median, s.low, s.high]
+
+
+def test_ecsv_masks_quantities_an_event_lacks(derived, ecsv):
+    lacking = [(i, d) for i, d in enumerate(derived) if "remnant_mass" not in d.quantities]
+    assert lacking, "the demo has neutron-star pairs without remnant numbers"
+    for i, item in lacking:
+        assert item.source_class in {"BNS", "NSBH"}
+        for column in ("remnant_mass", "remnant_mass_low", "remnant_mass_high", "kick_velocity"):
+            assert ecsv[column].mask[i], (item.event.id, column)
+    having = [i for i, d in enumerate(derived) if "remnant_mass" in d.quantities]
+    assert not np.any(ecsv["remnant_mass"].mask[having])
+
+
+def test_ecsv_masks_exactly_the_quantities_an_event_lacks(derived, ecsv):
+    # the bodies' spins are quantities only where the input gave them
+    assert any("heavier_spin" not in d.quantities for d in derived)
+    for i, item in enumerate(derived):
+        for name in CONTRACT:
+            masked = bool(np.ma.getmaskarray(ecsv[name])[i])
+            assert masked == (name not in item.quantities), (item.event.id, name)
+
+
+def test_ecsv_meta_and_descriptions(derived, ecsv):
+    assert ecsv.meta["credible_level"] == derived[0].settings.credible_level
+    assert ecsv.meta["cosmology"] == "Planck18"
+    assert "not from a full re-analysis" in ecsv.meta["note"]
+    assert "credible interval" in ecsv["remnant_mass_low"].description
+    assert "source frame" in ecsv["heavier_mass"].description
+    assert "detector frame" in ecsv["ringdown_frequency"].description
+
+
+def test_ecsv_is_deterministic_and_undated(derived, monkeypatch):
+    monkeypatch.setenv("SOURCE_DATE_EPOCH", "253402300799")  # 9999-12-31, an absurd clock
+    first = write_ecsv(catalogue_table(derived))
+    second = write_ecsv(catalogue_table(derived))
+    assert first == second
+    assert b"9999-12-31" not in first
+    assert Time.now().utc.isot[:10].encode() not in first
+    assert first.startswith(b"# %ECSV")
+
+
+def test_csv_header_cells_carry_units(derived):
+    text = write_csv(catalogue_table(derived)).decode("utf-8")
+    rows = list(csv.reader(io.StringIO(text)))
+    header = rows[0]
+    assert "heavier_mass [solMass]" in header
+    assert "kick_velocity [km / s]" in header
+    assert "mass_ratio" in header and "id" in header
+    for cell in header:  # the samples-file convention: name [astropy unit]
+        match = HEADER_CELL.match(cell)
+        assert match, cell
+        if match.group(2):
+            u.Unit(match.group(2))
+    assert len(rows) == len(derived) + 1
+
+
+def test_csv_values_and_empty_cells(derived):
+    rows = list(csv.DictReader(io.StringIO(write_csv(catalogue_table(derived)).decode())))
+    for row, item in zip(rows, derived, strict=True):
+        assert row["id"] == item.event.id
+        assert float(row["heavier_mass [solMass]"]) == item.quantities["heavier_mass"].median
+        if "remnant_mass" in item.quantities:
+            assert float(row["remnant_mass_high [solMass]"]) == item.quantities["remnant_mass"].high
+        else:
+            assert row["remnant_mass [solMass]"] == ""
+
+
+def test_hostile_title_round_trips(derived):
+    item = derived[0]
+    hostile = 'A "quoted", comma\'d <b>title</b> & more'
+    odd = replace(item, event=replace(item.event, title=hostile))
+    table = catalogue_table([odd])
+    rows = list(csv.DictReader(io.StringIO(write_csv(table).decode())))
+    assert rows[0]["title"] == hostile
+    back = Table.read(write_ecsv(table).decode(), format="ascii.ecsv")
+    assert back["title"][0] == hostile
+
+
+def test_empty_catalogue_gives_header_only():
+    table = catalogue_table([])
+    assert len(table) == 0
+    back = Table.read(write_ecsv(table).decode(), format="ascii.ecsv")
+    assert (
+        back["heavier_mass"].unit is None or back["heavier_mass"].unit == u.dimensionless_unscaled
+    )
+    assert write_csv(table).decode().count("\n") == 1

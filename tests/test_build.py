@@ -1,0 +1,64 @@
+"""The build does each piece of work once: every input file is read once, every event's cache
+key and the templates' fingerprint are computed once per build."""
+
+from __future__ import annotations
+
+import pathlib
+
+import numpy as np
+from helpers import VALID_EVENT
+
+from factsheet import build as build_module
+from factsheet.build import build
+from factsheet.render import site as render_site_module
+
+SAMPLES = "heavier.mass [Msun],lighter.mass [Msun],distance [Mpc]\n"
+
+
+def _catalogue(catalogue):
+    rng = np.random.default_rng(3)
+    rows = "".join(
+        f"{36 + rng.normal():.4f},{29 + rng.normal():.4f},{440 + 50 * rng.normal():.2f}\n"
+        for _ in range(200)
+    )
+    second = VALID_EVENT.replace("TEST-1", "TEST-2") + "samples: two.csv\n"
+    return catalogue({"one.yaml": VALID_EVENT, "two.yaml": second, "two.csv": SAMPLES + rows})
+
+
+def _count_calls(monkeypatch, owner, name) -> list:
+    calls = []
+    original = getattr(owner, name)
+
+    def counted(*args, **kwargs):
+        calls.append(args)
+        return original(*args, **kwargs)
+
+    monkeypatch.setattr(owner, name, counted)
+    return calls
+
+
+def test_each_input_file_is_read_once_per_build(catalogue, tmp_path, monkeypatch):
+    folder = _catalogue(catalogue)
+    opened = []
+    original = pathlib.Path.open
+
+    def spy(self, *args, **kwargs):
+        if self.parent.resolve() == folder.resolve():
+            opened.append(self.name)
+        return original(self, *args, **kwargs)
+
+    monkeypatch.setattr(pathlib.Path, "open", spy)
+    build(folder, tmp_path / "site", jobs=1)
+    assert sorted(opened) == ["one.yaml", "two.csv", "two.yaml"]
+    opened.clear()
+    build(folder, tmp_path / "site", jobs=1)  # a rebuild reads them once again, no more
+    assert sorted(opened) == ["one.yaml", "two.csv", "two.yaml"]
+
+
+def test_keys_and_fingerprints_are_computed_once(catalogue, tmp_path, monkeypatch):
+    folder = _catalogue(catalogue)
+    keys = _count_calls(monkeypatch, build_module, "event_key")
+    prints = _count_calls(monkeypatch, render_site_module, "templates_fingerprint")
+    build(folder, tmp_path / "site", jobs=1)
+    assert len(keys) == 2
+    assert len(prints) == 1
