@@ -27,6 +27,43 @@ summary: A *test* event.
 """
 
 
+#: The quantities of the export contract (version 2) in their order, written out here from
+#: docs/json-export.md so that the tests check the code against the documented contract.
+CONTRACT_QUANTITIES = (
+    "heavier_mass",
+    "lighter_mass",
+    "total_mass",
+    "chirp_mass",
+    "mass_ratio",
+    "effective_spin",
+    "heavier_spin",
+    "lighter_spin",
+    "distance",
+    "redshift",
+    "remnant_mass",
+    "remnant_spin",
+    "radiated_mass",
+    "energy_radiated",
+    "peak_luminosity",
+    "kick_velocity",
+    "ringdown_frequency",
+    "ringdown_damping_time",
+    "isco_frequency",
+    "time_in_band",
+)
+#: Every quantity key a JSON document may carry: the contract, then the other quantities.
+EXPORT_QUANTITIES = (
+    *CONTRACT_QUANTITIES,
+    "heavier_mass_detector",
+    "lighter_mass_detector",
+    "total_mass_detector",
+    "chirp_mass_detector",
+    "cycles_in_band",
+    "strain_amplitude",
+    "arm_length_change",
+)
+
+
 def write_catalogue(folder: Path, files: dict[str, str]) -> Path:
     """Write ``files`` (name -> text) into ``folder`` and return it."""
     folder.mkdir(parents=True, exist_ok=True)

@@ -8,7 +8,7 @@ from urllib.parse import urlsplit
 
 import astropy.units as u
 import pytest
-from helpers import VALID_EVENT, write_catalogue
+from helpers import EXPORT_QUANTITIES, VALID_EVENT, write_catalogue
 
 from factsheet.build import build
 from factsheet.load import load_catalogue
@@ -59,36 +59,6 @@ UNITS = {
     "time_in_band": "s",
 }
 
-#: Every quantity key of the version-2 export, in the order the export writes them.
-VERSION_2_QUANTITIES = (
-    "heavier_mass",
-    "lighter_mass",
-    "total_mass",
-    "chirp_mass",
-    "mass_ratio",
-    "effective_spin",
-    "heavier_spin",
-    "lighter_spin",
-    "distance",
-    "redshift",
-    "remnant_mass",
-    "remnant_spin",
-    "radiated_mass",
-    "energy_radiated",
-    "peak_luminosity",
-    "kick_velocity",
-    "ringdown_frequency",
-    "ringdown_damping_time",
-    "isco_frequency",
-    "time_in_band",
-    "heavier_mass_detector",
-    "lighter_mass_detector",
-    "total_mass_detector",
-    "chirp_mass_detector",
-    "cycles_in_band",
-    "strain_amplitude",
-    "arm_length_change",
-)
 BAND_KEYS = {"neutron_star", "lower_gap", "stellar_black_hole", "pair_instability_gap", "above_gap"}
 
 
@@ -213,8 +183,8 @@ def test_exports_use_the_version_2_vocabulary(demo_site):
         data = json.loads(path.read_text())
         assert data["format_version"] == 2, path.name
         keys = list(data["quantities"])
-        assert set(keys) <= set(VERSION_2_QUANTITIES), path.name
-        assert keys == [k for k in VERSION_2_QUANTITIES if k in keys], path.name
+        assert set(keys) <= set(EXPORT_QUANTITIES), path.name
+        assert keys == [k for k in EXPORT_QUANTITIES if k in keys], path.name
         subjects = {"heavier", "lighter"} | ({"remnant"} if "remnant_mass" in keys else set())
         assert set(data["mass_bands"]) == subjects, path.name
         for subject, bands in data["mass_bands"].items():

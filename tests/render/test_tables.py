@@ -11,6 +11,7 @@ import numpy as np
 import pytest
 from astropy.table import Table
 from astropy.time import Time
+from helpers import CONTRACT_QUANTITIES
 
 from factsheet.derive import derive_event
 from factsheet.load import load_catalogue
@@ -29,29 +30,6 @@ UNITS = {
     "time_in_band": u.s,
 }
 DIMENSIONLESS = ("mass_ratio", "effective_spin", "redshift", "remnant_spin")
-#: The quantities of the export contract (version 2), in their order (docs/json-export.md).
-CONTRACT = (
-    "heavier_mass",
-    "lighter_mass",
-    "total_mass",
-    "chirp_mass",
-    "mass_ratio",
-    "effective_spin",
-    "heavier_spin",
-    "lighter_spin",
-    "distance",
-    "redshift",
-    "remnant_mass",
-    "remnant_spin",
-    "radiated_mass",
-    "energy_radiated",
-    "peak_luminosity",
-    "kick_velocity",
-    "ringdown_frequency",
-    "ringdown_damping_time",
-    "isco_frequency",
-    "time_in_band",
-)
 TEXT_COLUMNS = ["id", "title", "time_utc", "status", "source_class"]
 
 
@@ -74,8 +52,11 @@ def test_ecsv_has_one_row_per_event_and_three_columns_per_quantity(derived, ecsv
 
 
 def test_columns_are_the_contract_quantities_in_order(derived, ecsv):
-    assert tuple(MAIN_QUANTITIES) == CONTRACT
-    expected = [*TEXT_COLUMNS, *(f"{q}{s}" for q in CONTRACT for s in ("", "_low", "_high"))]
+    assert tuple(MAIN_QUANTITIES) == CONTRACT_QUANTITIES
+    expected = [
+        *TEXT_COLUMNS,
+        *(f"{q}{s}" for q in CONTRACT_QUANTITIES for s in ("", "_low", "_high")),
+    ]
     assert ecsv.colnames == expected
     header = next(csv.reader(io.StringIO(write_csv(catalogue_table(derived)).decode())))
     assert [HEADER_CELL.match(cell).group(1) for cell in header] == expected
@@ -119,7 +100,7 @@ def test_ecsv_masks_exactly_the_quantities_an_event_lacks(derived, ecsv):
     # the bodies' spins are quantities only where the input gave them
     assert any("heavier_spin" not in d.quantities for d in derived)
     for i, item in enumerate(derived):
-        for name in CONTRACT:
+        for name in CONTRACT_QUANTITIES:
             masked = bool(np.ma.getmaskarray(ecsv[name])[i])
             assert masked == (name not in item.quantities), (item.event.id, name)
 
