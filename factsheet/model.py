@@ -259,6 +259,7 @@ class Catalogue:
     settings: Settings
     events: tuple[Event, ...]
     warnings: tuple[Problem, ...] = ()  # fatal only in strict mode
+    skipped: tuple[tuple[Path, str], ...] = ()  # files and folders not read, with the reason
 
 
 # -- packaged reference data -----------------------------------------------------------------

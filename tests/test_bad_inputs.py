@@ -65,10 +65,13 @@ class Case:
     words: str  # a fragment of the message
     command: str = "check"
     links: dict = field(default_factory=dict)  # name -> target outside the catalogue
+    # name -> "fifo", "folder", or "->TARGET" (a link to TARGET, relative, inside the folder)
+    special: dict = field(default_factory=dict)
 
 
 BOMB = alias_bomb(5, 30)  # more than 100 aliases
-SMALL_BOMB = alias_bomb(9, 9)  # 73 aliases, 9**8 leaves if expanded
+SMALL_BOMB = alias_bomb(9, 9)  # 73 aliases, 9**8 leaves if expanded: over the expanded size
+TINY_BOMB = alias_bomb(4, 9)  # 27 aliases, 9**3 leaves: inside every limit
 CASES = {
     # -- YAML syntax and size -------------------------------------------------------------
     "yaml_unclosed_bracket": Case(
@@ -88,13 +91,13 @@ CASES = {
     ),
     "alias_count": Case({"a.yaml": BOMB + event()}, "a.yaml:5: b4:", "more than 100 YAML aliases"),
     "alias_into_status": Case(
-        {"a.yaml": SMALL_BOMB + event({"status": "status: *b8"})},
-        "a.yaml:13: status:",
+        {"a.yaml": TINY_BOMB + event({"status": "status: *b3"})},
+        "a.yaml:8: status:",
         "invalid value",
     ),
     "alias_into_mass": Case(
-        {"a.yaml": SMALL_BOMB + event({"estimate.heavier.mass": "    mass: *b8"})},
-        "a.yaml:21: estimate.heavier.mass:",
+        {"a.yaml": TINY_BOMB + event({"estimate.heavier.mass": "    mass: *b3"})},
+        "a.yaml:16: estimate.heavier.mass:",
         "expected",
     ),
     "enormous_file": Case({"a.yaml": event() + "#" * 2_100_000 + "\n"}, "a.yaml:1:", "limit"),
@@ -264,7 +267,9 @@ CASES = {
         {"a.yaml": event() + "history: 3\n"}, "a.yaml:19: history:", "list of earlier"
     ),
     "samples_path_nul": Case(
-        {"a.yaml": event() + 'samples: "a\\0b.csv"\n'}, "a.yaml:19: samples:", "file name"
+        {"a.yaml": event() + 'samples: "a\\0b.csv"\n'},
+        "a.yaml:19: samples:",
+        "control character (U+0000 NUL)",
     ),
     "not_supported_yet": Case(
         {"a.yaml": event({"estimate.distance": "  distance: 440 Mpc\n  chirp_mass: 28 Msun"})},
@@ -380,6 +385,311 @@ CASES = {
         "physical range",
         command="build",
     ),
+    # -- files and folders that are not regular files (issue 11) ---------------------------
+    "fifo_event_file": Case(
+        {"a.yaml": event()}, "x.yaml:", "is a named pipe (FIFO)", special={"x.yaml": "fifo"}
+    ),
+    "fifo_catalogue_file": Case(
+        {"a.yaml": event()},
+        "catalogue.yaml:",
+        "is a named pipe (FIFO)",
+        special={"catalogue.yaml": "fifo"},
+    ),
+    "fifo_in_sub_folder": Case(
+        {"a.yaml": event()}, "sub/y.yml:", "named pipe", special={"sub/y.yml": "fifo"}
+    ),
+    "fifo_samples_file": Case(
+        {"a.yaml": event() + "samples: s.csv\n"},
+        "a.yaml:19: samples:",
+        "is a named pipe (FIFO)",
+        special={"s.csv": "fifo"},
+    ),
+    "fifo_in_build": Case(
+        {"a.yaml": event()}, "x.yaml:", "named pipe", command="build", special={"x.yaml": "fifo"}
+    ),
+    "symlink_loop_self": Case(
+        {"a.yaml": event()}, "x.yaml:", "link loop", special={"x.yaml": "->x.yaml"}
+    ),
+    "symlink_loop_pair": Case(
+        {"a.yaml": event()}, "x.yaml:", "link loop", special={"x.yaml": "->y", "y": "->x.yaml"}
+    ),
+    "symlink_loop_catalogue_file": Case(
+        {"a.yaml": event()},
+        "catalogue.yaml:",
+        "link loop",
+        special={"catalogue.yaml": "->catalogue.yaml"},
+    ),
+    "symlink_loop_samples": Case(
+        {"a.yaml": event() + "samples: s.csv\n"},
+        "a.yaml:19: samples:",
+        "link loop",
+        special={"s.csv": "->s.csv"},
+    ),
+    "symlink_dangling": Case(
+        {"a.yaml": event()}, "x.yaml:", "dangling link", special={"x.yaml": "->gone.yaml"}
+    ),
+    "symlink_dangling_catalogue_file": Case(
+        {"a.yaml": event()},
+        "catalogue.yaml:",
+        "dangling link",
+        special={"catalogue.yaml": "->gone.yaml"},
+    ),
+    "symlink_dangling_samples": Case(
+        {"a.yaml": event() + "samples: s.csv\n"},
+        "a.yaml:19: samples:",
+        "dangling link",
+        special={"s.csv": "->gone.csv"},
+    ),
+    "folder_named_yaml": Case(
+        {"a.yaml": event()}, "x.yaml:", "is a folder", special={"x.yaml": "folder"}
+    ),
+    "folder_named_yml_deep": Case(
+        {"a.yaml": event()}, "sub/y.yml:", "is a folder", special={"sub/y.yml": "folder"}
+    ),
+    "folder_named_catalogue_yaml": Case(
+        {"a.yaml": event()}, "catalogue.yaml:", "is a folder", special={"catalogue.yaml": "folder"}
+    ),
+    "folder_as_samples_file": Case(
+        {"a.yaml": event() + "samples: s.csv\n"},
+        "a.yaml:19: samples:",
+        "is a folder",
+        special={"s.csv": "folder"},
+    ),
+    # -- control characters and lone surrogates in any text (issue 11) ----------------------
+    "text_esc_in_title": Case(
+        {"a.yaml": event({"title": 'title: "\\e[31mred"'})},
+        "a.yaml:2: title:",
+        "control character (U+001B ESC)",
+    ),
+    "text_x1b_in_summary": Case(
+        {"a.yaml": event({"summary": 'summary: "a \\x1b]0;owned\\x07 b"'})},
+        "a.yaml:18: summary:",
+        "U+001B ESC",
+    ),
+    "text_nul_in_label": Case(
+        {"a.yaml": event({"detection.network": '  network: [A1, "B\\0"]'})},
+        "a.yaml:6: detection.network[1]:",
+        "U+0000 NUL",
+    ),
+    "text_surrogate_in_title": Case(
+        {"a.yaml": event({"title": 'title: "\\ud800"'})},
+        "a.yaml:2: title:",
+        "lone surrogate U+D800",
+    ),
+    "text_surrogate_in_build": Case(
+        {"a.yaml": event({"title": 'title: "x\\udcff"'})},
+        "a.yaml:2: title:",
+        "lone surrogate",
+        command="build",
+    ),
+    "text_c1_in_caveat": Case(
+        {"a.yaml": event() + 'caveats:\n  - fine\n  - "\\x9b2J"\n'},
+        "a.yaml:21: caveats[1]:",
+        "U+009B",
+    ),
+    "text_control_in_key": Case(
+        {"a.yaml": event() + '"\\e[2J": 1\n'}, "a.yaml:19:", "a key contains a control character"
+    ),
+    "text_control_in_history_note": Case(
+        {
+            "a.yaml": event()
+            + "history:\n  - date: 2034-04-12\n    label: First\n"
+            + '    note: "\\a"\n    estimate: {heavier: {mass: 30 Msun}, '
+            + "lighter: {mass: 20 Msun}, distance: 400 Mpc}\n"
+        },
+        "a.yaml:22: history[0].note:",
+        "U+0007",
+    ),
+    "text_control_in_settings": Case(
+        {"a.yaml": event(), "catalogue.yaml": 'description: "\\e[1mbold"\n'},
+        "catalogue.yaml:1: description:",
+        "U+001B ESC",
+    ),
+    "text_control_in_comparison_label": Case(
+        {
+            "a.yaml": event(),
+            "catalogue.yaml": 'comparisons:\n  sun: {label: "the \\e Sun"}\n',
+        },
+        "catalogue.yaml:2: comparisons.sun.label:",
+        "U+001B ESC",
+    ),
+    "text_control_in_samples_header": Case(
+        with_samples(HEADER.rstrip() + ",note\x1b[31m\n30,20,400,1\n"),
+        "s.csv:1: header:",
+        "column 4's name contains a control character (U+001B ESC)",
+    ),
+    "text_c1_in_samples_header": Case(
+        with_samples("\u009bheavier.mass [Msun],lighter.mass [Msun],distance [Mpc]\n30,20,400\n"),
+        "s.csv:1: header:",
+        "U+009B",
+    ),
+    "text_newline_in_title": Case(
+        {"a.yaml": event({"title": 'title: "one\\ntwo"'})}, "a.yaml:2: title:", "one line"
+    ),
+    "text_newline_in_label": Case(
+        {"a.yaml": event({"detection.network": '  network: [A1, "B\\n1"]'})},
+        "a.yaml:6: detection.network:",
+        "one line",
+    ),
+    # -- YAML means what a person wrote (issue 11) -------------------------------------------
+    "yaml_merge_key": Case(
+        {
+            "a.yaml": "masses: &m {mass: 36 +5 -4 Msun}\n"
+            + event({"estimate.heavier.mass": "    <<: *m"})
+        },
+        "a.yaml:13: estimate.heavier:",
+        "merge keys are not supported: write the keys out",
+    ),
+    "yaml_merge_key_flow": Case(
+        {"a.yaml": event({"detection": "detection: {<<: {snr: 3}}"})},
+        "a.yaml:5: detection:",
+        "merge keys are not supported",
+    ),
+    "yaml_yes_is_text": Case(
+        {"a.yaml": event({"status": "status: yes"})}, "a.yaml:4: status:", "invalid value 'yes'"
+    ),
+    "yaml_sexagesimal_is_text": Case(
+        {"a.yaml": event({"time": "time: 21:24"})}, "a.yaml:3: time:", "bad time '21:24'"
+    ),
+    "yaml_binary_tag": Case(
+        {"a.yaml": event({"title": "title: !!binary aGk="})},
+        "a.yaml:2: title:",
+        "tag !!binary is not supported",
+    ),
+    "yaml_inf_snr": Case(
+        {"a.yaml": event({"detection.snr": "  snr: .inf"})}, "a.yaml:7: detection.snr:", "finite"
+    ),
+    # -- amplification within the limits (issue 11) ------------------------------------------
+    "expanded_alias_bomb": Case(
+        {"a.yaml": SMALL_BOMB + event()}, "a.yaml:7:", "expands to more than 2000000 characters"
+    ),
+    "expanded_big_text": Case(
+        {
+            "a.yaml": event({"summary": "summary: &s " + "x" * 30_000})
+            + "caveats:\n"
+            + "  - *s\n" * 99
+        },
+        "a.yaml:85:",
+        "expands to more than",
+    ),
+    "long_title": Case(
+        {"a.yaml": event({"title": "title: " + "t" * 201})}, "a.yaml:2: title:", "at most 200"
+    ),
+    "long_history_label": Case(
+        {
+            "a.yaml": event()
+            + "history:\n  - date: 2034-04-12\n    label: "
+            + "l" * 300
+            + "\n    estimate: {heavier: {mass: 30 Msun}, lighter: {mass: 20 Msun}, "
+            + "distance: 400 Mpc}\n"
+        },
+        "a.yaml:21: history[0].label:",
+        "at most 200",
+    ),
+    "long_summary": Case(
+        {"a.yaml": event({"summary": "summary: " + "s" * 100_001})},
+        "a.yaml:18: summary:",
+        "at most 100000",
+    ),
+    # -- what check accepts the build must be able to do (issue 11) --------------------------
+    "distance_beyond_table": Case(
+        {"a.yaml": event({"estimate.distance": "  distance: 2e7 Mpc"})},
+        "a.yaml:17: estimate.distance:",
+        "beyond",
+    ),
+    "distance_interval_beyond_table": Case(
+        {"a.yaml": event({"estimate.distance": "  distance: 1.3e7 +2e6 -1e6 Mpc"})},
+        "a.yaml:17: estimate.distance:",
+        "redshift 1000 under Planck18",
+    ),
+    "distance_beyond_table_build": Case(
+        {"a.yaml": event({"estimate.distance": "  distance: 20000 Gpc"})},
+        "a.yaml:17: estimate.distance:",
+        "beyond",
+        command="build",
+    ),
+    "distance_history_beyond_table": Case(
+        {
+            "a.yaml": event()
+            + "history:\n  - date: 2034-04-12\n    label: First\n    estimate:\n"
+            + "      heavier: {mass: 30 Msun}\n      lighter: {mass: 20 Msun}\n"
+            + "      distance: 1e9 Mpc\n"
+        },
+        "a.yaml:25: history[0].estimate.distance:",
+        "beyond",
+    ),
+    "distance_samples_row_beyond_table": Case(
+        with_samples(HEADER + "30,20,400\n30,20,5e7\n"), "s.csv:3: distance:", "beyond"
+    ),
+    "sky_area_above_whole_sky": Case(
+        {"a.yaml": event({"detection.sky_area": "  sky_area: 41253 deg2"})},
+        "a.yaml:9: detection.sky_area:",
+        "the whole sky is 41252.96 deg2",
+    ),
+    "sky_area_in_steradians": Case(
+        {"a.yaml": event({"detection.sky_area": "  sky_area: 13 sr"})},
+        "a.yaml:9: detection.sky_area:",
+        "whole sky",
+    ),
+    "leap_second_that_does_not_exist": Case(
+        {"a.yaml": event({"time": 'time: "2034-04-12T23:59:60"'})},
+        "a.yaml:3: time:",
+        "ends without a leap second",
+    ),
+    "leap_second_in_embargo": Case(
+        {"a.yaml": event() + 'embargo_until: "2017-06-30T23:59:60"\n'},
+        "a.yaml:19: embargo_until:",
+        "ends without a leap second",
+    ),
+    "second_60_mid_day": Case(
+        {"a.yaml": event({"time": 'time: "2034-04-12T12:00:60"'})}, "a.yaml:3: time:", "not exist"
+    ),
+    "year_999": Case(
+        {"a.yaml": event({"time": 'time: "0999-04-12T07:26:41"'})},
+        "a.yaml:3: time:",
+        "year 999 is outside 1960 to 9999",
+    ),
+    "year_1": Case(
+        {"a.yaml": event({"time": 'time: "0001-01-01"'})}, "a.yaml:3: time:", "year 1 is outside"
+    ),
+    "year_1899_history": Case(
+        {
+            "a.yaml": event()
+            + "history:\n  - date: 1899-04-12\n    label: First\n"
+            + "    estimate: {heavier: {mass: 30 Msun}, lighter: {mass: 20 Msun}, "
+            + "distance: 400 Mpc}\n"
+        },
+        "a.yaml:20: history[0].date:",
+        "year 1899",
+    ),
+    "id_trailing_newline": Case(
+        {"a.yaml": event({"id": 'id: "X\\n"'})}, "a.yaml:1: id:", "invalid id"
+    ),
+    "id_trailing_newline_build": Case(
+        {"a.yaml": event({"id": "id: |\n  X"})}, "a.yaml:1: id:", "invalid id", command="build"
+    ),
+    "id_with_space": Case({"a.yaml": event({"id": 'id: "X Y"'})}, "a.yaml:1: id:", "invalid id"),
+    "ids_differ_in_case": Case(
+        {"a.yaml": event(), "b.yaml": event({"id": "id: test-1"})},
+        "b.yaml:1: id:",
+        "only in letter case",
+    ),
+    "base_url_javascript": Case(
+        {"a.yaml": event(), "catalogue.yaml": 'base_url: "javascript:alert(1)//"\n'},
+        "catalogue.yaml:1: base_url:",
+        "expected an http:// or https:// URL with a host",
+    ),
+    "base_url_no_host": Case(
+        {"a.yaml": event(), "catalogue.yaml": "base_url: https:///sheets/\n"},
+        "catalogue.yaml:1: base_url:",
+        "with a host",
+    ),
+    "base_url_build": Case(
+        {"a.yaml": event(), "catalogue.yaml": "base_url: data:text/html,x\n"},
+        "catalogue.yaml:1: base_url:",
+        "http",
+        command="build",
+    ),
 }
 
 
@@ -396,18 +706,26 @@ def _write(root: Path, case: Case) -> Path:
     for name, target in case.links.items():
         (root / target).write_text(event(), encoding="utf-8")
         os.symlink(root / target, folder / name)
+    for name, kind in case.special.items():
+        path = folder / name
+        path.parent.mkdir(parents=True, exist_ok=True)
+        if kind == "fifo":
+            os.mkfifo(path)
+        elif kind == "folder":
+            path.mkdir()
+        else:
+            os.symlink(kind.removeprefix("->"), path)
     return folder
 
 
 def _run(root: Path, case: Case) -> subprocess.CompletedProcess:
     folder = _write(root, case)
     extra = ["-o", str(root / "out")] if case.command == "build" else []
-    return subprocess.run(
-        [sys.executable, "-m", "factsheet.cli", case.command, str(folder), *extra],
-        capture_output=True,
-        text=True,
-        timeout=300,
-    )
+    command = [sys.executable, "-m", "factsheet.cli", case.command, str(folder), *extra]
+    try:
+        return subprocess.run(command, capture_output=True, text=True, timeout=300)
+    except subprocess.TimeoutExpired:  # a reader blocked on a FIFO, say: fail this case only
+        return subprocess.CompletedProcess(command, -1, "", "timed out after 300 s")
 
 
 @pytest.fixture(scope="module")

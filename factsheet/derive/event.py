@@ -82,9 +82,11 @@ def input_samples(event: Event, settings: Settings) -> dict[str, np.ndarray]:
     """Samples of the estimate's values by path, in canonical units (solMass, Mpc, one), from
     the samples file when there is one (what it lacks drawn from the summary), else drawn."""
     n, level = settings.samples, settings.credible_level
+    # distances are drawn inside the redshift table (the loader refuses intervals beyond it)
+    ranges = {"distance": (0.0, cosmology.distance_limit(settings.cosmology).to_value(u.Mpc))}
     if event.samples is None:
-        return draw_estimate(event.estimate, n, level, event.seed())
-    return fill_missing(dict(event.samples.values), event, level)
+        return draw_estimate(event.estimate, n, level, event.seed(), ranges)
+    return fill_missing(dict(event.samples.values), event, level, ranges)
 
 
 def base_samples(event: Event, settings: Settings) -> dict[str, u.Quantity]:

@@ -5,12 +5,15 @@ median: each half is a half-normal scaled so that the quantiles ``(1 - c)/2`` an
 fall exactly on ``m - n`` and ``m + p``, and the median stays ``m``. Physical limits (mass and
 distance > 0, |spin| <= 1) truncate the draw by restricting the uniform variate to the allowed
 part of the distribution (inverse-CDF sampling), so no sample is ever clipped onto a limit.
-After drawing, the bodies are relabelled so that the heavier one is heavier in every sample.
+The caller may narrow a value's range further (``ranges``): the distance is truncated the same
+way at the end of the cosmology's redshift table. After drawing, the bodies are relabelled so
+that the heavier one is heavier in every sample.
 """
 
 from __future__ import annotations
 
 import math
+from collections.abc import Mapping
 
 import numpy as np
 from scipy.special import ndtr, ndtri
@@ -41,7 +44,10 @@ def _cdf(x: float, median: float, left: float, right: float) -> float:
     if math.isinf(x):
         return 0.0 if x < 0 else 1.0
     scale = left if x < median else right
-    return float(ndtr((x - median) / scale)) if scale > 0 else float(x >= median)
+    if scale <= 0:
+        return float(x >= median)
+    with np.errstate(over="ignore"):  # a limit far beyond a tiny spread: the CDF is 0 or 1
+        return float(ndtr(np.float64(x - median) / scale))
 
 
 def _quantile(p: np.ndarray, median: float, left: float, right: float) -> np.ndarray:
@@ -49,16 +55,32 @@ def _quantile(p: np.ndarray, median: float, left: float, right: float) -> np.nda
     return median + np.where(z < 0, left, right) * z
 
 
+Ranges = Mapping[str, tuple[float, float]]
+
+
+def value_range(path: str, ranges: Ranges | None = None) -> tuple[float, float]:
+    """The range a value is drawn in: its physical range, narrowed by ``ranges[path]``."""
+    low, high = physical_range(path)
+    if ranges and path in ranges:
+        low, high = max(low, ranges[path][0]), min(high, ranges[path][1])
+    return low, high
+
+
 def draw_estimate(
-    estimate: Estimate, n: int, credible_level: float, seed: int
+    estimate: Estimate,
+    n: int,
+    credible_level: float,
+    seed: int,
+    ranges: Ranges | None = None,
 ) -> dict[str, np.ndarray]:
-    """Independent draws of every value of an estimate by path, heavier body first."""
+    """Independent draws of every value of an estimate by path, heavier body first; each is
+    truncated to its physical range and to ``ranges`` (by path) where given."""
     rng = np.random.default_rng(seed)
     given = estimate.values()
     out = {}
     for path in ESTIMATE_PATHS:  # fixed order, so the draws do not depend on the file's order
         if path in given:
-            out[path] = draw(given[path], n, credible_level, physical_range(path), rng)
+            out[path] = draw(given[path], n, credible_level, value_range(path, ranges), rng)
     return heavier_first(out)
 
 
@@ -88,7 +110,10 @@ def drawn_from_summary(event: Event) -> list[str]:
 
 
 def fill_missing(
-    values: dict[str, np.ndarray], event: Event, credible_level: float
+    values: dict[str, np.ndarray],
+    event: Event,
+    credible_level: float,
+    ranges: Ranges | None = None,
 ) -> dict[str, np.ndarray]:
     """A samples file's values, with draws from the summary for what the file lacks."""
     rng = np.random.default_rng(event.seed())
@@ -96,5 +121,5 @@ def fill_missing(
     out = dict(values)
     for path in drawn_from_summary(event):
         value = event.estimate[path]
-        out[path] = draw(value, size, credible_level, physical_range(path), rng)
+        out[path] = draw(value, size, credible_level, value_range(path, ranges), rng)
     return out

@@ -15,27 +15,32 @@ import astropy.units as u
 from factsheet.errors import InputError, Problem
 from factsheet.load.checker import Checker
 from factsheet.load.consistency import consistency_warnings
+from factsheet.load.files import CATALOGUE_FILE, FileRefused, event_files, target_of
 from factsheet.load.reference import reference_for
 from factsheet.load.samples import check_samples
 from factsheet.load.schema import CATALOGUE_KEYS, EVENT_KEYS
 from factsheet.load.yaml_lines import LineMap, YamlProblem, read_limited, read_yaml
 from factsheet.model import Catalogue, Estimate, Event, Limits, Settings
 
-CATALOGUE_FILE = "catalogue.yaml"
-EVENT_SUFFIXES = (".yaml", ".yml")
-
 
 def load_catalogue(folder: str | Path) -> Catalogue:
     """Read and validate a catalogue folder; raise :class:`InputError` listing every problem."""
     root = Path(folder)
-    if not root.is_dir():
-        raise InputError(problems=[Problem(root, None, "", "catalogue folder not found")])
+    try:
+        is_folder = root.is_dir()
+    except OSError:  # a name too long, or a link loop on older Pythons
+        is_folder = False
+    if not is_folder:
+        found = root.exists() or root.is_symlink()
+        what = "catalogue folder is not a folder" if found else "catalogue folder not found"
+        raise InputError(problems=[Problem(root, None, "", what)])
     problems: list[Problem] = []
     settings = load_settings(root / CATALOGUE_FILE, problems)
     warnings: list[Problem] = []
+    skipped: list[tuple[Path, str]] = []
     events = [
         e
-        for path in event_files(root, problems)
+        for path in event_files(root, problems, skipped)
         if (e := load_event(path, root, settings, problems, warnings))
     ]
     _check_unique_ids(events, problems)
@@ -44,21 +49,13 @@ def load_catalogue(folder: str | Path) -> Catalogue:
     if problems:
         raise InputError(problems=problems)
     events.sort(key=lambda e: (e.time.unix, e.id))
-    return Catalogue(root=root, settings=settings, events=tuple(events), warnings=tuple(warnings))
-
-
-def event_files(root: Path, problems: list[Problem]) -> list[Path]:
-    """Every event file under ``root``, sorted; links leading outside the folder are refused."""
-    base = root.resolve()
-    found = []
-    for path in sorted(root.rglob("*")):
-        if path.suffix not in EVENT_SUFFIXES or path == root / CATALOGUE_FILE:
-            continue
-        if not path.resolve().is_relative_to(base):
-            problems.append(Problem(path, None, "", "link points outside the catalogue folder"))
-        elif path.is_file():
-            found.append(path)
-    return found
+    return Catalogue(
+        root=root,
+        settings=settings,
+        events=tuple(events),
+        warnings=tuple(warnings),
+        skipped=tuple(skipped),
+    )
 
 
 def _read_mapping(
@@ -85,11 +82,17 @@ def _read_mapping(
 
 
 def load_settings(path: Path, problems: list[Problem]) -> Settings:
-    """Read ``catalogue.yaml`` if present; defaults otherwise."""
-    if not path.exists():
+    """Read ``catalogue.yaml`` if present; defaults otherwise.
+
+    A ``catalogue.yaml`` that is there but is not a regular file inside the folder (a folder, a
+    FIFO, a link that loops, leads nowhere or leads outside) is a problem, not an absent file.
+    """
+    if not (path.exists() or path.is_symlink()):
         return Settings()
-    if not path.resolve().is_relative_to(path.parent.resolve()):
-        problems.append(Problem(path, 1, "file", "link points outside the catalogue folder"))
+    try:
+        target_of(path, path.parent)
+    except FileRefused as exc:
+        problems.append(Problem(path, None, "", str(exc)))
         return Settings()
     data, _ = _read_mapping(path, problems, Limits())
     if data is None:
@@ -125,12 +128,14 @@ def load_event(
     if data is None:
         return None
     before, noticed = len(problems), list[Problem]()
-    check = Checker(path, problems, base=path.parent, root=root)
+    check = Checker(path, problems, base=path.parent, root=root, cosmology=settings.cosmology)
     values = check.mapping(data, EVENT_KEYS, prefix="")
     if "estimate" in values:
         _check_redshift(check, data["estimate"], values["estimate"], settings.cosmology)
     if "samples" in values:
-        values["samples"] = check_samples(values["samples"], settings.limits, problems, noticed)
+        values["samples"] = check_samples(
+            values["samples"], settings.limits, problems, noticed, settings.cosmology
+        )
     if len(problems) > before:
         return None
     values.setdefault("title", values["id"])
@@ -185,17 +190,20 @@ def _redshift_or(distance_mpc: float, cosmology: str, edge: float) -> float:
 
 
 def _check_unique_ids(events: list[Event], problems: list[Problem]) -> None:
+    """Ids must be unique, also when letter case is ignored: ``DX-1`` and ``dx-1`` would share
+    one file name on a case-insensitive disk or web host."""
     seen: dict[str, Event] = {}
     for event in events:
-        if event.id in seen:
-            first = seen[event.id]
-            problems.append(
-                Problem(
-                    event.source,
-                    event.line,
-                    "id",
-                    f"duplicate id {event.id!r} (also used in {first.source})",
-                )
-            )
+        folded = event.id.lower()  # ids are ASCII (a slug)
+        if folded not in seen:
+            seen[folded] = event
+            continue
+        first = seen[folded]
+        if first.id == event.id:
+            message = f"duplicate id {event.id!r} (also used in {first.source})"
         else:
-            seen[event.id] = event
+            message = (
+                f"id {event.id!r} differs from {first.id!r} (in {first.source}) only in letter "
+                "case; the two would share one file name on case-insensitive disks and web hosts"
+            )
+        problems.append(Problem(event.source, event.line, "id", message))

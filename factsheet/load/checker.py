@@ -31,7 +31,8 @@ class Checker:
     """Validates values from one file, recording problems with their line and key path.
 
     ``base`` is the folder that relative file names start from, ``root`` the catalogue folder
-    that they must not leave.
+    that they must not leave, ``cosmology`` the catalogue's cosmology, under which a distance
+    must lie inside the redshift table (up to d_L(z = 1000)).
     """
 
     def __init__(
@@ -40,9 +41,11 @@ class Checker:
         problems: list[Problem],
         base: Path | None = None,
         root: Path | None = None,
+        cosmology: str | None = None,
     ):
         self.path, self.problems = path, problems
         self.base, self.root = base, root
+        self.cosmology = cosmology
 
     def fail(self, line: int | None, key: str, message: str) -> None:
         self.problems.append(Problem(self.path, line, key, message))
@@ -117,6 +120,11 @@ class Checker:
         if values is None:
             return None
         heavier, lighter = values["heavier"], values["lighter"]
+        if self.cosmology is not None:
+            beyond = distance_beyond_table(values["distance"].high, self.cosmology)
+            if beyond:
+                self.fail(raw.line_of("distance"), f"{path}.distance", beyond)
+                return None
         if "effective_spin" in values and (heavier.spin or lighter.spin):
             self.fail(
                 raw.line_of("effective_spin"),
@@ -172,3 +180,20 @@ class Checker:
             else:
                 out[name] = value
         return Limits(**out)
+
+
+def distance_beyond_table(distance_mpc: float, cosmology: str) -> str:
+    """Why a distance (in Mpc) cannot be turned into a redshift under ``cosmology``, or "".
+
+    The redshift table ends at d_L(z = 1000) (:mod:`factsheet.physics.cosmology`).
+    """
+    from factsheet.physics.cosmology import Z_MAX, distance_limit  # scipy loads when needed
+
+    limit = distance_limit(cosmology).to_value("Mpc")
+    if distance_mpc <= limit:
+        return ""
+    return (
+        f"distance {distance_mpc:.6g} Mpc lies beyond {limit:.6g} Mpc, the luminosity distance "
+        f"at redshift {Z_MAX:g} under {cosmology}, where the redshift table ends (expected a "
+        "distance, and the upper bound of its interval, below it)"
+    )

@@ -33,6 +33,7 @@ import yaml
 
 from factsheet.errors import InputError, Problem
 from factsheet.labels import EDGES
+from factsheet.load.scalars import MAX_LINE_TEXT, MAX_MARKDOWN
 from factsheet.model import Comparison, Edge, MassBands, Reference, Settings, WindowSpec
 from factsheet.physics.bands import EDGE_KEYS, INTERMEDIATE_KEY
 from factsheet.physics.comparisons import DERIVED_VALUES
@@ -95,8 +96,24 @@ def _override_edge(edge: Edge, entry: Any) -> Edge:
     value = _quantity(entry["value"], key, (u.Msun,), "2.5 Msun").to(u.Msun)
     if value <= 0 * u.Msun:
         raise _invalid(key, "must be positive", "2.5 Msun")
+    _check_texts(key, entry)
     source = str(entry.get("source", "set in catalogue.yaml"))
     return replace(edge, value=value, source=source, overridden=True)
+
+
+def _check_texts(where: str, entry: dict[str, Any]) -> None:
+    """A label is one line of at most 200 characters, a source at most 100 000 characters."""
+    for name, limit, lines in (("label", MAX_LINE_TEXT, False), ("source", MAX_MARKDOWN, True)):
+        if name not in entry:
+            continue
+        text = entry[name]
+        if not isinstance(text, str) or not text.strip():
+            raise _invalid(f"{where}.{name}", f"expected text, got {text!r}"[:100], '"..."')
+        if len(text) > limit:
+            message = f"text is {len(text)} characters long (at most {limit})"
+            raise _invalid(f"{where}.{name}", message, '"..."')
+        if not lines and "\n" in text.strip():
+            raise _invalid(f"{where}.{name}", "expected one line of text", '"..."')
 
 
 def _windows() -> tuple[WindowSpec, ...]:
@@ -142,6 +159,7 @@ def _comparisons(overrides: dict[str, Any]) -> tuple[Comparison, ...]:
             raise _invalid(
                 where, "a new comparison needs value, label and source", _COMPARISON_EXAMPLE
             )
+        _check_texts(where, entry)
         replaced = {"computed", "low", "high"} if "value" in entry else set()
         base = {k: v for k, v in data.get(key, {}).items() if k not in replaced}
         data[key] = {**base, **entry, "overridden": True}

@@ -5,7 +5,10 @@ Columns are named by the paths of the estimate (``heavier.mass [Msun]``, ``dista
 bodies relabelled so that the heavier one is heavier in every sample. The file is read once, in
 binary, line by line: every line is bounded, hashed (the build cache keys on the digest) and
 decoded, so a bad byte or row is reported with its line. Columns the format does not name are
-ignored with a warning.
+ignored with a warning. Only a regular file is opened (never a FIFO or a device); a header
+cell holding a control character is refused, and so is a distance beyond the end of the redshift
+table under the catalogue's cosmology. Memory stays bounded: only the columns read are kept, as
+8-byte floats (about 40 MB for a million rows of five columns).
 """
 
 from __future__ import annotations
@@ -21,8 +24,11 @@ from typing import BinaryIO
 import numpy as np
 
 from factsheet.errors import InputError, Problem
+from factsheet.load import files
+from factsheet.load.checker import distance_beyond_table
 from factsheet.load.schema import physical_range, value_key
 from factsheet.load.values import ValueParseError, parse_unit
+from factsheet.load.yaml_lines import bad_character
 from factsheet.model import ESTIMATE_PATHS, Limits, SamplesFile
 
 REQUIRED_COLUMNS = ("heavier.mass", "lighter.mass", "distance")
@@ -41,30 +47,48 @@ MAX_LINE = 4096  # bytes in one line; seven numbers need far fewer
 DEFAULT_LIMITS = Limits()
 
 
-def heavier_first(values: dict[str, np.ndarray]) -> dict[str, np.ndarray]:
-    """Relabel the bodies per sample so that the heavier one comes first, spins following."""
+def heavier_first(values: dict[str, np.ndarray], in_place: bool = False) -> dict[str, np.ndarray]:
+    """Relabel the bodies per sample so that the heavier one comes first, spins following.
+
+    With ``in_place`` the arrays given are swapped where needed instead of copied (the samples
+    reader owns its arrays and keeps memory down this way).
+    """
     swap = values["lighter.mass"] > values["heavier.mass"]
     if not swap.any():
         return values
     out = dict(values)
     for a, b in (("heavier.mass", "lighter.mass"), ("heavier.spin", "lighter.spin")):
         if a in values and b in values:
-            out[a] = np.where(swap, values[b], values[a])
-            out[b] = np.where(swap, values[a], values[b])
+            if in_place:
+                kept = values[a][swap]
+                values[a][swap] = values[b][swap]
+                values[b][swap] = kept
+            else:
+                out[a] = np.where(swap, values[b], values[a])
+                out[b] = np.where(swap, values[a], values[b])
     return out
 
 
 def read_samples(
-    path: Path, limits: Limits = DEFAULT_LIMITS, warnings: list[Problem] | None = None
+    path: Path,
+    limits: Limits = DEFAULT_LIMITS,
+    warnings: list[Problem] | None = None,
+    cosmology: str | None = None,
 ) -> SamplesFile:
-    """Read and check a samples file; :class:`InputError` names its line and column."""
+    """Read and check a samples file; :class:`InputError` names its line and column.
+
+    With ``cosmology``, every distance must lie inside that cosmology's redshift table.
+    """
     lines = _Lines()
     try:
-        with Path(path).open("rb") as handle:
+        with files.open_regular(Path(path)) as handle:
             lines.handle = handle
-            values = _read_table(Path(path), csv.reader(lines), limits.max_sample_rows, warnings)
+            reader = csv.reader(lines)
+            values = _read_table(Path(path), reader, limits.max_sample_rows, warnings, cosmology)
     except csv.Error as exc:
         message = f"not valid CSV ({exc})"
+    except files.FileRefused as exc:
+        message = str(exc)
     except OSError as exc:
         message = f"cannot read ({exc.strerror})"
     else:
@@ -73,11 +97,15 @@ def read_samples(
 
 
 def check_samples(
-    path: Path, limits: Limits, problems: list[Problem], warnings: list[Problem]
+    path: Path,
+    limits: Limits,
+    problems: list[Problem],
+    warnings: list[Problem],
+    cosmology: str | None = None,
 ) -> SamplesFile | None:
     """Read a samples file for the load stage; record its problems and warnings."""
     try:
-        return read_samples(path, limits, warnings)
+        return read_samples(path, limits, warnings, cosmology)
     except InputError as exc:
         problems.extend(exc.problems)
         return None
@@ -106,7 +134,9 @@ class _Lines:
                 raise csv.Error("samples file is not UTF-8 text") from None
 
 
-def _read_table(path: Path, reader, max_rows: int, warnings) -> dict[str, np.ndarray]:
+def _read_table(
+    path: Path, reader, max_rows: int, warnings, cosmology: str | None
+) -> dict[str, np.ndarray]:
     header = next(_data_rows(reader), None)
     if header is None:
         raise InputError(problems=[Problem(path, 1, "file", "samples file is empty")])
@@ -114,11 +144,15 @@ def _read_table(path: Path, reader, max_rows: int, warnings) -> dict[str, np.nda
     columns = _read_header(path, header, problems, reader.line_num, warnings)
     if problems:
         raise InputError(problems=problems)
-    flat, lines = _read_rows(path, reader, len(header), list(columns), max_rows)
-    data = np.frombuffer(flat, dtype=float).reshape(-1, len(columns))
-    out = {name: data[:, j] * factor for j, (name, factor) in enumerate(columns.values())}
-    _check_values(path, out, lines)
-    return heavier_first(out)
+    cells, lines = _read_rows(path, reader, len(header), list(columns), max_rows)
+    out = {}
+    for (name, factor), cell in zip(columns.values(), cells, strict=True):
+        x = np.frombuffer(cell, dtype=float)  # a view of the column as read: no copy
+        if factor != 1:
+            x = x * factor
+        out[name] = x
+    _check_values(path, out, lines, cosmology)
+    return heavier_first(out, in_place=True)
 
 
 def _read_header(
@@ -127,6 +161,9 @@ def _read_header(
     columns: dict[int, tuple[str, float]] = {}
     seen: set[str] = set()
     for i, cell in enumerate(header):
+        if why := bad_character(cell):
+            problems.append(Problem(path, line, "header", f"column {i + 1}'s name contains {why}"))
+            continue
         m = HEADER_CELL.match(cell)
         name = m.group(1) if m else cell[:60]
         if name in seen:
@@ -195,9 +232,10 @@ def _row_problem(path: Path, line: int, message: str) -> InputError:
 
 def _read_rows(
     path: Path, reader, width: int, read: list[int], max_rows: int
-) -> tuple[array, array]:
-    """The cells of the columns ``read`` of every row, flat, and the line of each row."""
-    flat, lines = array("d"), array("q")
+) -> tuple[list[array], array]:
+    """The cells of the columns ``read`` of every row, one array of 8-byte floats per column,
+    and the line of each row; the other columns are dropped as each row is read."""
+    cells, lines = [array("d") for _ in read], array("q")
     for row in _data_rows(reader):
         line = reader.line_num
         if len(lines) >= max_rows:
@@ -210,16 +248,18 @@ def _read_rows(
         if len(row) != width:
             raise _row_problem(path, line, f"{len(row)} cells, expected {width}")
         try:
-            flat.extend(float(row[i]) for i in read)
+            values = [float(row[i]) for i in read]
         except ValueError:
             raise _row_problem(path, line, f"not a number in {row!r}"[:200]) from None
+        for column, value in zip(cells, values, strict=True):
+            column.append(value)
         lines.append(line)
     if not lines:
         raise InputError(problems=[Problem(path, 2, "row", "no sample rows after the header")])
-    return flat, lines
+    return cells, lines
 
 
-def _check_values(path: Path, values: dict[str, np.ndarray], lines) -> None:
+def _check_values(path: Path, values: dict[str, np.ndarray], lines, cosmology) -> None:
     for name, x in values.items():
         low, high = physical_range(name)
         bad = ~np.isfinite(x) | (x < low) | (x > high) | ((x == low) & (low == 0.0))
@@ -230,3 +270,10 @@ def _check_values(path: Path, values: dict[str, np.ndarray], lines) -> None:
                     Problem(path, lines[i], name, f"value {x[i]:g} outside the physical range")
                 ]
             )
+    distance = values["distance"]
+    if cosmology is not None and distance_beyond_table(float(distance.max()), cosmology):
+        from factsheet.physics.cosmology import distance_limit
+
+        i = int(np.argmax(distance > distance_limit(cosmology).to_value("Mpc")))  # the first
+        why = distance_beyond_table(float(distance[i]), cosmology)
+        raise InputError(problems=[Problem(path, lines[i], "distance", why)])

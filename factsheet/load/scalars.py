@@ -14,16 +14,29 @@ import warnings
 from collections.abc import Callable
 from pathlib import Path
 from typing import Any
+from urllib.parse import urlsplit
 
 import astropy.units as u
 from astropy.time import Time
 from erfa import ErfaWarning
 
+from factsheet.load.files import FileRefused, target_of
 from factsheet.load.schema import Key
 from factsheet.load.values import ValueParseError, parse_interval
+from factsheet.load.yaml_lines import written
 from factsheet.model import Interval
 
-SLUG = re.compile(r"^[A-Za-z0-9][A-Za-z0-9._-]{0,99}$")
+#: An id: anchored at both ends with \Z (``$`` would let a trailing newline through).
+SLUG = re.compile(r"^[A-Za-z0-9][A-Za-z0-9._-]{0,99}\Z")
+MAX_LINE_TEXT = 200  # characters of a title, a label or another one-line text
+MAX_MARKDOWN = 100_000  # characters of one Markdown text
+#: Years a time may have: UTC, as astropy's time scales (ERFA) define it, begins on 1960-01-01
+#: (earlier dates are "dubious"), and ISO 8601 writes years with four digits.
+FIRST_YEAR, LAST_YEAR = 1960, 9999
+_LINE_BREAKS = re.compile("[\n\u2028\u2029]")
+_ISO_FIELDS = re.compile(
+    r"(\d{1,4})-(\d{1,2})-(\d{1,2})(?:[T ](\d{1,2}):(\d{1,2})(?::(\d{1,2})(?:\.\d*)?)?)?"
+)
 
 
 class Bad(ValueError):
@@ -31,11 +44,37 @@ class Bad(ValueError):
 
 
 def parse_time(text: str) -> Time:
-    """Parse an ISO 8601 UTC time; years past the leap-second table are expected here."""
+    """Parse an ISO 8601 UTC time; years past the leap-second table are expected here.
+
+    The time must exist as written: years 1960 to 9999, and a second 60 only at 23:59 on a day
+    that astropy's leap-second table ends with a leap second (astropy would otherwise read
+    ``23:59:60`` as the next midnight). :class:`Bad` says what is wrong.
+    """
     text = text.strip().removesuffix("Z")
+    fields = _ISO_FIELDS.fullmatch(text)
+    if fields is None:
+        raise ValueError(text)
+    year = int(fields.group(1))
+    if not FIRST_YEAR <= year <= LAST_YEAR:
+        raise Bad(
+            f"year {year} is outside {FIRST_YEAR} to {LAST_YEAR} (UTC, as astropy's time scales "
+            f"define it, begins in {FIRST_YEAR}, and ISO 8601 writes years with four digits)"
+        )
     with warnings.catch_warnings():
         warnings.simplefilter("ignore", ErfaWarning)
-        return Time(text, format="isot" if "T" in text else "iso", scale="utc")
+        time = Time(text, format="isot" if "T" in text else "iso", scale="utc")
+        got = time.ymdhms
+    wanted = [int(x or 0) for x in fields.groups()]
+    found = [int(got[name]) for name in ("year", "month", "day", "hour", "minute", "second")]
+    if found != wanted:
+        day = f"{wanted[0]:04d}-{wanted[1]:02d}-{wanted[2]:02d}"
+        if wanted[3:] == [23, 59, 60]:
+            raise Bad(
+                f"{day} ends without a leap second in astropy's leap-second table, so "
+                f"{day}T23:59:60 does not exist (it would be read as the next midnight)"
+            )
+        raise Bad(f"{text[:40]!r} does not exist (it would be read as {time.isot})")
+    return time
 
 
 def show(raw: object) -> str:
@@ -49,16 +88,56 @@ def show(raw: object) -> str:
 
 
 def text(raw: object, key: Key) -> str:
-    if not isinstance(raw, str | int | float) or isinstance(raw, bool):
-        raise Bad(f"expected text, got {type(raw).__name__}")
-    value = str(raw).strip()
-    if not value:
-        raise Bad("must not be empty")
+    """One line of text (a title, a label): at most 200 characters, no line break."""
+    value = _text(raw, MAX_LINE_TEXT)
+    one_line(value)
     return value
 
 
+def markdown(raw: object, key: Key) -> str:
+    """A Markdown text: lines, at most 100 000 characters."""
+    return _text(raw, MAX_MARKDOWN)
+
+
+def _text(raw: object, limit: int) -> str:
+    if not isinstance(raw, str | int | float) or isinstance(raw, bool):
+        raise Bad(f"expected text, got {type(raw).__name__}")
+    value = written(raw).strip()
+    if not value:
+        raise Bad("must not be empty")
+    if len(value) > limit:
+        raise Bad(f"text is {len(value)} characters long (at most {limit})")
+    return value
+
+
+def one_line(value: str) -> None:
+    """Raise :class:`Bad` when ``value`` holds a line break."""
+    if _LINE_BREAKS.search(value):
+        raise Bad(f"expected one line of text, got a line break in {show(value)}")
+
+
+def url(raw: object, key: Key) -> str:
+    """An absolute http:// or https:// URL with a host, written as a URL (no spaces)."""
+    value = text(raw, key)
+    try:
+        parts = urlsplit(value)
+        good = parts.scheme in ("http", "https") and bool(parts.hostname)
+        parts.port  # noqa: B018 - raises ValueError on a bad port
+    except ValueError:
+        good = False
+    if not good or not _URL_TEXT.fullmatch(value):
+        raise Bad(
+            f"expected an http:// or https:// URL with a host, e.g. "
+            f"https://example.org/sheets/, got {show(value)}"
+        )
+    return value
+
+
+_URL_TEXT = re.compile(r"[A-Za-z0-9\-._~:/?#\[\]@!$&'()*+,;=%]+")  # RFC 3986 characters
+
+
 def slug(raw: object, key: Key) -> str:
-    if not isinstance(raw, str) or not SLUG.match(raw):
+    if not isinstance(raw, str) or not SLUG.fullmatch(raw):
         raise Bad(
             f"invalid id {show(raw)} (expected a URL-safe slug of letters, "
             "digits, '.', '_' and '-', e.g. DX-0412; no slashes)"
@@ -81,6 +160,8 @@ def time(raw: object, key: Key) -> Time:
         raise Bad(f"expected an ISO 8601 UTC time, got {show(raw)}")
     try:
         return parse_time(raw)
+    except Bad as exc:
+        raise Bad(f"bad time {show(raw)}: {exc}") from None
     except (ValueError, TypeError, OverflowError):
         raise Bad(
             f"bad time {show(raw)} (expected ISO 8601 UTC, e.g. 2034-04-12T07:26:41.2)"
@@ -119,14 +200,28 @@ def cosmology(raw: object, key: Key) -> str:
 
 
 def labels(raw: object, key: Key) -> tuple[str, ...]:
-    if not isinstance(raw, list) or not all(isinstance(x, str | int) for x in raw):
-        raise Bad("expected a list of labels, e.g. [A1, B1]")
-    return tuple(str(x) for x in raw)
+    if not isinstance(raw, list) or not all(
+        isinstance(x, str | int) and not isinstance(x, bool) for x in raw
+    ):
+        raise Bad(
+            "expected a list of labels, e.g. [A1, B1] (quote a label such as 'true' or 'null')"
+        )
+    found = tuple(written(x) for x in raw)
+    for i, label in enumerate(found):
+        if len(label) > MAX_LINE_TEXT:
+            raise Bad(f"label {i + 1} is {len(label)} characters long (at most {MAX_LINE_TEXT})")
+        one_line(label)
+    return found
 
 
 def markdown_list(raw: object, key: Key) -> tuple[str, ...]:
     if not isinstance(raw, list) or not all(isinstance(x, str) and x.strip() for x in raw):
         raise Bad("expected a list of Markdown strings")
+    for i, item in enumerate(raw):
+        if len(item.strip()) > MAX_MARKDOWN:
+            raise Bad(
+                f"item {i + 1} is {len(item.strip())} characters long (at most {MAX_MARKDOWN})"
+            )
     return tuple(x.strip() for x in raw)
 
 
@@ -137,20 +232,23 @@ def mapping(raw: object, key: Key) -> dict:
 
 
 def file_in(raw: object, base: Path, root: Path | None) -> Path:
-    """An existing file named relative to ``base`` that does not lead outside ``root``."""
+    """An existing regular file named relative to ``base`` that does not lead outside ``root``
+    (a folder, a FIFO, a device, a link that loops or leads nowhere are refused)."""
     if not isinstance(raw, str) or not raw.strip() or "\x00" in raw:
         raise Bad(f"expected a file name, got {show(raw)}")
     try:
-        target = (base / raw).resolve()
-        inside = root is None or target.is_relative_to(root.resolve())
-        found = target.is_file()
-    except (OSError, RuntimeError) as exc:
-        raise Bad(f"bad file name {show(raw)} ({exc.__class__.__name__})") from None
-    if not inside:
+        lexical = (base / raw).resolve(strict=False)
+        outside = root is not None and not lexical.is_relative_to(root.resolve())
+    except (OSError, RuntimeError):
+        outside = False  # a loop: reported by target_of below
+    if outside:
         raise Bad(f"{show(raw)} points outside the catalogue folder")
-    if not found:
-        raise Bad(f"samples file {show(raw)} not found (looked in {base})")
-    return target  # read (once) by the samples reader, which reports what it cannot read
+    try:
+        return target_of(base / raw, root)  # read (once) by the samples reader
+    except FileRefused as exc:
+        if str(exc) == "not found":
+            raise Bad(f"samples file {show(raw)} not found (looked in {base})") from None
+        raise Bad(f"samples file {show(raw)}: {exc}") from None
 
 
 def unsupported(raw: object, key: Key) -> None:
@@ -204,7 +302,8 @@ def in_range(x: float, key: Key, what: str) -> None:
     low_bad = key.low is not None and (x < key.low or (x == key.low and not key.low_inclusive))
     high_bad = key.high is not None and (x > key.high or (x == key.high and not key.high_inclusive))
     if low_bad or high_bad:
-        raise Bad(f"{what}value {x:g} out of range (expected {_range_text(key)})")
+        note = f"; {key.range_note}" if key.range_note else ""
+        raise Bad(f"{what}value {x:g} out of range (expected {_range_text(key)}{note})")
 
 
 def _range_text(key: Key) -> str:
@@ -218,7 +317,8 @@ def _range_text(key: Key) -> str:
 #: Converters by key kind (the structured kinds are methods of the Checker).
 CONVERTERS: dict[str, Callable[[object, Key], Any]] = {
     "text": text,
-    "markdown": text,
+    "markdown": markdown,
+    "url": url,
     "slug": slug,
     "choice": choice,
     "time": time,

@@ -11,6 +11,8 @@ from __future__ import annotations
 import math
 from dataclasses import dataclass
 
+import astropy.units as u
+
 
 @dataclass(frozen=True)
 class Key:
@@ -27,6 +29,12 @@ class Key:
     low_inclusive: bool = False
     high_inclusive: bool = True
     canonical_unit: str = ""
+    range_note: str = ""  # why the range ends where it does, for the message
+
+
+#: The whole sky, 4 pi steradians, in square degrees (41 252.96 deg2; astropy units).
+WHOLE_SKY_DEG2 = float((4 * math.pi * u.sr).to_value(u.deg**2))
+_WHOLE_SKY = f"the whole sky is {WHOLE_SKY_DEG2:.2f} deg2"
 
 
 def unsupported(meaning: str, instead: str) -> Key:
@@ -87,7 +95,9 @@ DETECTION_KEYS: dict[str, Key] = {
         physical_type="solid angle",
         example="580 deg2",
         low=0.0,
+        high=WHOLE_SKY_DEG2,
         canonical_unit="deg2",
+        range_note=_WHOLE_SKY,
     ),
     "sky_map": unsupported("HEALPix FITS sky map", "give the area as sky_area"),
 }
@@ -170,7 +180,11 @@ HOST_KEYS: dict[str, Key] = {
 CATALOGUE_KEYS: dict[str, Key] = {
     "title": Key("text", "title of the catalogue site", example="First season"),
     "description": Key("markdown", "Markdown shown on the index page"),
-    "base_url": Key("text", "absolute URL of the published site, for the feed"),
+    "base_url": Key(
+        "url",
+        "absolute http:// or https:// URL of the published site, for the feed",
+        example="https://example.org/sheets/",
+    ),
     "cosmology": Key("cosmology", "astropy cosmology realisation", example="Planck18"),
     "credible_level": Key(
         "number",
@@ -222,7 +236,9 @@ CATALOGUE_KEYS: dict[str, Key] = {
         physical_type="solid angle",
         example="1000 deg2",
         low=0.0,
+        high=WHOLE_SKY_DEG2,
         canonical_unit="deg2",
+        range_note=_WHOLE_SKY,
     ),
     "limits": Key(
         "limits", "guards on input size: max_file_bytes, max_depth, max_aliases, max_sample_rows"

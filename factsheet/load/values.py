@@ -82,7 +82,7 @@ def _parse_text(text: str) -> Interval:
         if plus < 0 or minus < 0:
             raise ValueParseError(f"interval offsets must be non-negative in {text[:80]!r}")
         return Interval(median, plus, minus, parse_unit(m.group(4)))
-    if "+" in text or re.search(rf"{_NUMBER}\s+-", text):
+    if re.search(r"(?<![eE])\+", text) or re.search(rf"{_NUMBER}\s+-", text):  # not 1e+07
         raise ValueParseError(
             f"malformed interval {text[:80]!r} "
             "(expected 'MEDIAN +PLUS -MINUS UNIT', e.g. '42 +7 -5 Msun')"

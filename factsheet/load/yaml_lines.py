@@ -1,19 +1,32 @@
 """Read YAML safely and remember where every key stood (the load stage's YAML reader).
 
 Mappings come back as :class:`LineMap` (a dict that knows the line of each key) and sequences
-as :class:`LineList`. Duplicate keys in one mapping, excessive nesting and alias expansion are
-refused with the line they occur on. Timestamps stay strings (the loader parses them with
-astropy), so ``2034-04-12T07:26:41.2`` keeps its decimal second.
+as :class:`LineList`. Plain scalars follow the YAML 1.2 core schema, so a value means what a
+person wrote: ``on``, ``off``, ``yes``, ``no``, ``y`` and ``n`` stay text, ``021`` is 21 (``0o17``
+is octal, ``0x1f`` hexadecimal), ``21:24`` stays text (no base-60 numbers), only
+``true``/``false`` (any of three capitalisations) are booleans, and timestamps stay text (the
+loader parses them with astropy, so ``2034-04-12T07:26:41.2`` keeps its decimal second).
+A number keeps the text it was written as (``written``), so a title or a label written ``007``
+stays ``007``.
+
+Refused, each with its line and the path of its key: duplicate keys in one mapping, merge keys
+(``<<``), tags other than the core schema's, excessive nesting, more aliases than the limit, a
+document whose text, counted every time an alias repeats it, exceeds the file-size limit, and
+any text (a value or a key) holding a lone surrogate or a control character other than tab and
+newline.
 """
 
 from __future__ import annotations
 
 import re
 from pathlib import Path
+from typing import Any, ClassVar
 
 import yaml
-from yaml.events import AliasEvent
+from yaml.events import AliasEvent, CollectionStartEvent, ScalarEvent
+from yaml.nodes import MappingNode, Node, ScalarNode
 
+from factsheet.load import files
 from factsheet.model import Limits
 
 DEFAULT_LIMITS = Limits()
@@ -48,68 +61,267 @@ class LineList(list):
         return self.lines[index] if 0 <= index < len(self.lines) else self.line
 
 
+class WrittenInt(int):
+    """An integer that remembers the text it was written as (``written``)."""
+
+    written: str
+
+
+class WrittenFloat(float):
+    """A float that remembers the text it was written as (``written``)."""
+
+    written: str
+
+
+def written(raw: object) -> str:
+    """The text a plain value was written as: the string itself, or a number's written form."""
+    return getattr(raw, "written", None) or str(raw)
+
+
+# -- characters ------------------------------------------------------------------------------
+
+_BAD_CHARACTER = re.compile("[\x00-\x08\x0b-\x1f\x7f-\x9f\ud800-\udfff]")
+_CONTROL_NAMES = {0x00: "NUL", 0x0D: "carriage return", 0x1B: "ESC", 0x7F: "DEL", 0x85: "NEL"}
+
+
+def bad_character(text: str) -> str | None:
+    """Why ``text`` cannot be used as text, or None: a lone surrogate, or a control character
+    other than tab and newline (C0, DEL and C1)."""
+    m = _BAD_CHARACTER.search(text)
+    if m is None:
+        return None
+    code = ord(m.group())
+    if 0xD800 <= code <= 0xDFFF:
+        return f"a lone surrogate U+{code:04X}, which is not a character"
+    name = _CONTROL_NAMES.get(code)
+    what = f"U+{code:04X} {name}" if name else f"U+{code:04X}"
+    return f"a control character ({what}); only tab and newline are allowed in text"
+
+
+# -- the YAML 1.2 core schema ------------------------------------------------------------------
+
+_NULL = r"(?:~|null|Null|NULL|)"
+_BOOL = r"(?:true|True|TRUE|false|False|FALSE)"
+_INT = r"(?:[-+]?[0-9]+|0o[0-7]+|0x[0-9a-fA-F]+)"
+_FLOAT = (
+    r"(?:[-+]?(?:\.[0-9]+|[0-9]+(?:\.[0-9]*)?)(?:[eE][-+]?[0-9]+)?"
+    r"|[-+]?\.(?:inf|Inf|INF)|\.(?:nan|NaN|NAN))"
+)
+CORE_SCHEMA = (  # (tag, pattern of a plain scalar, possible first characters), in order
+    ("tag:yaml.org,2002:null", _NULL, ["~", "n", "N", ""]),
+    ("tag:yaml.org,2002:bool", _BOOL, list("tTfF")),
+    ("tag:yaml.org,2002:int", _INT, list("-+0123456789")),
+    ("tag:yaml.org,2002:float", _FLOAT, list("-+.0123456789")),
+)
+_PATTERNS = {tag: re.compile(rf"{pattern}\Z") for tag, pattern, _ in CORE_SCHEMA}
+_TAGS = {"null", "bool", "int", "float", "str", "seq", "map"}
+MERGE_KEY = "merge keys are not supported: write the keys out"
+
+
+def _where(parts: list[object]) -> str:
+    """A key path such as ``history[0].estimate.distance``."""
+    out = ""
+    for part in parts:
+        if isinstance(part, int) and not isinstance(part, bool):
+            out += f"[{part}]"
+        else:
+            out += f".{part}" if out else str(part)
+    return out
+
+
 def _make_loader(limits: Limits) -> type[yaml.SafeLoader]:
     class Loader(yaml.SafeLoader):
-        depth = 0
-        aliases = 0
+        # our own tables, not copies of the YAML 1.1 ones that SafeLoader holds
+        yaml_implicit_resolvers: ClassVar[dict] = {}
+        yaml_constructors: ClassVar[dict] = {}
 
+        def __init__(self, stream: Any) -> None:
+            super().__init__(stream)
+            self.depth = self.aliases = self.total = 0
+            self.open_anchors: set[str] = set()
+            self.sizes: dict[int, int] = {}
+            self.parts: list[object] = []  # the key path being constructed
+            self.reading_key = False
+
+        # -- composing: nesting, aliases and the expanded size --------------------------
         def compose_node(self, parent, index):
-            if self.check_event(AliasEvent):
+            event = self.peek_event()
+            line = event.start_mark.line + 1
+            if isinstance(event, AliasEvent):
                 self.aliases += 1
                 if self.aliases > limits.max_aliases:
-                    mark = self.peek_event().start_mark
                     raise YamlProblem(
                         f"more than {limits.max_aliases} YAML aliases (raise the limit in "
                         "catalogue.yaml if this is intended)",
-                        mark.line + 1,
+                        line,
                     )
+                if event.anchor in self.open_anchors:
+                    raise YamlProblem(
+                        f"the alias *{event.anchor} refers to the list or mapping that holds it",
+                        line,
+                    )
+                if (target := self.anchors.get(event.anchor)) is not None:
+                    self._grow(self._size(target), line)
+                return super().compose_node(parent, index)
             self.depth += 1
             if self.depth > limits.max_depth:
-                mark = self.peek_event().start_mark
-                raise YamlProblem(f"nesting deeper than {limits.max_depth} levels", mark.line + 1)
+                raise YamlProblem(f"nesting deeper than {limits.max_depth} levels", line)
+            anchor = event.anchor if isinstance(event, CollectionStartEvent) else None
+            if anchor is not None:
+                self.open_anchors.add(anchor)
             try:
-                return super().compose_node(parent, index)
+                node = super().compose_node(parent, index)
             finally:
                 self.depth -= 1
+                self.open_anchors.discard(anchor or "")
+            self._grow(len(event.value) + 1 if isinstance(event, ScalarEvent) else 1, line)
+            return node
+
+        def _size(self, node: Node) -> int:
+            """The characters of every text under ``node``, aliases expanded, plus one per
+            node (the same count :meth:`_grow` keeps for the text as written)."""
+            key = id(node)
+            if key not in self.sizes:
+                if isinstance(node, ScalarNode):
+                    size = len(node.value) + 1
+                elif isinstance(node, MappingNode):
+                    size = 1 + sum(self._size(k) + self._size(v) for k, v in node.value)
+                else:
+                    size = 1 + sum(self._size(item) for item in node.value)
+                self.sizes[key] = size
+            return self.sizes[key]
+
+        def _grow(self, size: int, line: int) -> None:
+            self.total += size
+            if self.total > limits.max_file_bytes:
+                raise YamlProblem(
+                    f"the document expands to more than {limits.max_file_bytes} characters "
+                    "when its aliases are written out (the limit is limits.max_file_bytes in "
+                    "catalogue.yaml; write the repeated values out, or raise the limit if this "
+                    "is intended)",
+                    line,
+                )
+
+        # -- constructing ------------------------------------------------------------------
+        def _fail(self, node: Node, message: str) -> YamlProblem:
+            return YamlProblem(message, node.start_mark.line + 1, _where(self.parts))
+
+        def construct_text(self, node):
+            value = self.construct_scalar(node)
+            if why := bad_character(value):
+                raise self._fail(node, f"{'a key' if self.reading_key else 'text'} contains {why}")
+            return value
+
+        def construct_null(self, node):
+            self._core(node, "null")
+            return None
+
+        def construct_bool(self, node):
+            return self._core(node, "bool").lower() == "true"
+
+        def construct_int(self, node):
+            text = self._core(node, "int")
+            digits = text.lstrip("+-")
+            try:
+                if digits.startswith(("0o", "0x")):
+                    value = WrittenInt(int(digits[2:], 8 if digits[1] == "o" else 16))
+                else:
+                    value = WrittenInt(int(text, 10))
+            except ValueError:  # more digits than Python converts
+                raise self._fail(node, f"the number has too many digits ({len(text)})") from None
+            value.written = text
+            return value
+
+        def construct_float(self, node):
+            text = self._core(node, "float")
+            lowered = text.lower()
+            if lowered.endswith(".nan"):
+                value = WrittenFloat("nan")
+            elif lowered.endswith(".inf"):
+                value = WrittenFloat("-inf" if text.startswith("-") else "inf")
+            else:
+                value = WrittenFloat(text)
+            value.written = text
+            return value
+
+        def _core(self, node, name: str) -> str:
+            """The text of a scalar tagged ``name``, which must match the core schema."""
+            text = self.construct_scalar(node)
+            if not _PATTERNS[f"tag:yaml.org,2002:{name}"].match(text):
+                raise self._fail(node, f"{text[:40]!r} is not a YAML 1.2 {name}")
+            return text
+
+        def construct_unknown(self, node):
+            tag = str(node.tag).replace("tag:yaml.org,2002:", "!!")
+            raise self._fail(
+                node,
+                f"the YAML tag {tag[:40]} is not supported (write plain values, lists and "
+                "mappings)",
+            )
 
         def construct_mapping(self, node, deep=False):
             result = LineMap()
             result.line, result.lines = node.start_mark.line + 1, {}
-            self.flatten_mapping(node)
             for key_node, value_node in node.value:
+                if key_node.tag == "tag:yaml.org,2002:merge" or (
+                    isinstance(key_node, ScalarNode)
+                    and key_node.style is None
+                    and key_node.value == "<<"
+                ):
+                    raise self._fail(key_node, MERGE_KEY)
+                self.reading_key = True
                 key = self.construct_object(key_node, deep=True)
+                self.reading_key = False
                 if not isinstance(key, str | int | float | bool) and key is not None:
-                    raise YamlProblem(
-                        "mapping keys must be plain words", key_node.start_mark.line + 1
-                    )
+                    raise self._fail(key_node, "mapping keys must be plain words")
                 if key in result:
                     raise YamlProblem(
                         f"duplicate key (first given on line {result.lines[key]})",
                         key_node.start_mark.line + 1,
                         str(key),
                     )
-                result[key] = self.construct_object(value_node, deep=True)
+                self.parts.append(key)
+                try:
+                    result[key] = self.construct_object(value_node, deep=True)
+                finally:
+                    self.parts.pop()
                 result.lines[key] = key_node.start_mark.line + 1
             return result
 
         def construct_sequence(self, node, deep=False):
-            result = LineList(self.construct_object(child, deep=True) for child in node.value)
+            result = LineList()
+            for i, child in enumerate(node.value):
+                self.parts.append(i)
+                try:
+                    result.append(self.construct_object(child, deep=True))
+                finally:
+                    self.parts.pop()
             result.line = node.start_mark.line + 1
             result.lines = [child.start_mark.line + 1 for child in node.value]
             return result
 
-    Loader.add_constructor("tag:yaml.org,2002:map", Loader.construct_mapping)
-    Loader.add_constructor("tag:yaml.org,2002:seq", Loader.construct_sequence)
-    Loader.add_constructor(
-        "tag:yaml.org,2002:timestamp", lambda loader, node: loader.construct_scalar(node)
-    )
+    for tag, pattern, first in CORE_SCHEMA:
+        Loader.add_implicit_resolver(tag, re.compile(rf"{pattern}\Z"), first)
+    core = "tag:yaml.org,2002:"
+    Loader.add_constructor(f"{core}null", Loader.construct_null)
+    Loader.add_constructor(f"{core}bool", Loader.construct_bool)
+    Loader.add_constructor(f"{core}int", Loader.construct_int)
+    Loader.add_constructor(f"{core}float", Loader.construct_float)
+    Loader.add_constructor(f"{core}str", Loader.construct_text)
+    Loader.add_constructor(f"{core}seq", Loader.construct_sequence)
+    Loader.add_constructor(f"{core}map", Loader.construct_mapping)
+    Loader.add_constructor(None, Loader.construct_unknown)
     return Loader
 
 
 def read_limited(path: Path, max_bytes: int) -> bytes:
-    """Read at most ``max_bytes`` of a file; :class:`YamlProblem` when it is larger."""
-    with path.open("rb") as handle:
-        data = handle.read(max_bytes + 1)
+    """Read at most ``max_bytes`` of a regular file; :class:`YamlProblem` when it is larger or
+    is not a regular file (a FIFO is never opened for blocking reads)."""
+    try:
+        with files.open_regular(path) as handle:
+            data = handle.read(max_bytes + 1)
+    except files.FileRefused as exc:
+        raise YamlProblem(str(exc)) from None
     if len(data) > max_bytes:
         raise YamlProblem(_too_large(max_bytes), 1)
     return data

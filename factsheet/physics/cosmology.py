@@ -1,19 +1,25 @@
 """Luminosity distance to redshift, and the source and detector frames.
 
 d_L(z) comes from astropy's cosmology (Hogg 1999 definitions); it is tabulated once per cosmology
-on a geometric redshift grid and inverted with a cubic spline of ln z against ln d_L, good to
-~1e-11 relative, fast enough for 10^5 samples. Distances outside the grid are an input error.
+on a geometric redshift grid from z = 1e-9 to z = 1000 and inverted with a cubic spline of ln z
+against ln d_L, good to ~1e-11 relative, fast enough for 10^5 samples. Below the table's lower
+end the linear Hubble law z = H0 d_L / c holds to better than 1e-9 relative (the next term of
+the series is (1 - q0) z^2 / 2). Distances beyond d_L(z = 1000) are an input error: the loader
+refuses them (:func:`distance_limit`) and the sampler truncates its draws there.
 """
 
 from __future__ import annotations
 
 import astropy.units as u
 import numpy as np
+from astropy import constants as _constants
 from astropy import cosmology as _cosmology
 from scipy.interpolate import CubicSpline
 
 from ._checks import dimensionless, require
 from .registry import Method, register
+
+Z_MIN, Z_MAX, N_GRID = 1e-9, 1000.0, 2000
 
 METHOD = register(
     Method(
@@ -22,16 +28,30 @@ METHOD = register(
         citation="Planck Collaboration, 2020, A&A 641, A6 (Planck18 parameters, through astropy); "
         "Hogg D. W., 1999, astro-ph/9905116 (distance definitions)",
         formula="d_L = (1+z) (c/H0) integral_0^z dz'/E(z'); inverted by a cubic spline of ln z "
-        "against ln d_L on a geometric grid 1e-6 <= z <= 20; m_src = m_det/(1+z)",
-        validity="distances between d_L(z = 1e-6) and d_L(z = 20)",
-        accuracy="within 1e-10 relative of astropy's z_at_value",
+        "against ln d_L on a geometric grid 1e-9 <= z <= 1000, and by the linear Hubble law "
+        "z = H0 d_L / c below z = 1e-9; m_src = m_det/(1+z)",
+        validity="any distance up to d_L(z = 1000)",
+        accuracy="within 1e-10 relative of astropy's z_at_value on the grid; the linear law "
+        "below it within 1e-9 relative",
         quantities=("redshift",),
-        limits={"redshift": (1e-6, 20.0)},
+        limits={"redshift": (0.0, Z_MAX)},
     )
 ).id
 
-Z_MIN, Z_MAX, N_GRID = 1e-6, 20.0, 1000
-_SPLINES: dict[str, tuple[CubicSpline, float, float]] = {}
+
+class _Table:
+    """ln z as a cubic spline of ln(d_L / m) between the grid's ends, and the Hubble law's
+    H0 / c (per metre) below them."""
+
+    def __init__(self, cosmo) -> None:
+        z = np.geomspace(Z_MIN, Z_MAX, N_GRID)
+        d = cosmo.luminosity_distance(z).to_value(u.m)
+        self.spline = CubicSpline(np.log(d), np.log(z))
+        self.low, self.high = float(d[0]), float(d[-1])
+        self.hubble = float((cosmo.H0 / _constants.c).to_value(1 / u.m))
+
+
+_TABLES: dict[str, _Table] = {}
 
 
 def _resolve(cosmology):
@@ -43,35 +63,41 @@ def _resolve(cosmology):
     return cosmology
 
 
-def _spline(cosmology) -> tuple[CubicSpline, float, float]:
-    """ln z as a cubic spline of ln(d_L / m), built once per cosmology (keyed by its parameters)."""
+def _table(cosmology) -> _Table:
+    """The table of ``cosmology``, built once per cosmology (keyed by its parameters)."""
     cosmo = _resolve(cosmology)
     key = repr(cosmo)
-    if key not in _SPLINES:
-        z = np.geomspace(Z_MIN, Z_MAX, N_GRID)
-        ln_d = np.log(cosmo.luminosity_distance(z).to_value(u.m))
-        _SPLINES[key] = (CubicSpline(ln_d, np.log(z)), ln_d[0], ln_d[-1])
-    return _SPLINES[key]
+    if key not in _TABLES:
+        _TABLES[key] = _Table(cosmo)
+    return _TABLES[key]
+
+
+def distance_limit(cosmology) -> u.Quantity:
+    """d_L(z = 1000) in ``cosmology``, in Mpc: the largest distance turned into a redshift."""
+    return (_table(cosmology).high * u.m).to(u.Mpc)
 
 
 def redshift_at_distance(distance, cosmology) -> np.ndarray:
     """Redshift at luminosity distance d_L in ``cosmology`` (astropy; Hogg 1999), vectorised.
 
-    ``cosmology`` is an astropy Cosmology or a realisation name ("Planck18"). A distance outside
-    d_L(1e-6)..d_L(20) raises ValueError.
+    ``cosmology`` is an astropy Cosmology or a realisation name ("Planck18"). Any positive
+    distance up to d_L(z = 1000) is accepted; a distance that is not positive and finite, or
+    beyond d_L(z = 1000), raises ValueError.
     """
     d = require(distance, "length", "distance")
-    spline, low, high = _spline(cosmology)
-    ln_d = np.log(d, where=d > 0, out=np.full(d.shape, -np.inf))
-    bad = ~((ln_d >= low) & (ln_d <= high))
-    if np.any(bad):
-        worst = (np.atleast_1d(d)[np.atleast_1d(bad)][0] * u.m).to(u.Mpc)
-        lo, hi = (np.exp([low, high]) * u.m).to(u.Mpc)
+    table = _table(cosmology)
+    top = table.high * (1 + 1e-12)  # a value given as d_L(z = 1000) in Mpc, after rounding
+    good = np.isfinite(d) & (d > 0) & (d <= top)
+    if not np.all(good):
+        worst = (np.atleast_1d(d)[~np.atleast_1d(good)][0] * u.m).to(u.Mpc)
+        hi = (table.high * u.m).to(u.Mpc)
         raise ValueError(
             f"distance: {worst:.6g} is outside the redshift table "
-            f"({lo:.3g} to {hi:.4g}, z = {Z_MIN:g} to {Z_MAX:g})"
+            f"(above 0 and up to {hi:.4g}, z = {Z_MAX:g})"
         )
-    return np.exp(spline(ln_d))
+    inside = np.clip(d, table.low, table.high)
+    z = np.exp(table.spline(np.log(inside)))
+    return np.where(d < table.low, d * table.hubble, z)
 
 
 def to_source_frame(mass, z) -> u.Quantity:

@@ -4,8 +4,10 @@ import astropy.units as u
 import numpy as np
 import pytest
 
-from factsheet.derive.sampling import draw, draw_estimate
-from factsheet.model import Body, Estimate, Interval
+from factsheet.api import derive
+from factsheet.derive.sampling import draw, draw_estimate, value_range
+from factsheet.model import Body, Estimate, Interval, Settings
+from factsheet.physics import cosmology
 
 RNG = np.random.default_rng(1)
 
@@ -43,3 +45,56 @@ def test_body_labels_kept_and_seed_reproducible():
     assert (a["heavier.mass"] >= a["lighter.mass"]).all()
     swapped = a["heavier.spin"] < 0  # spins follow their body when labels swap
     assert swapped.any() and (a["lighter.spin"][swapped] == 0.5).all()
+
+
+def test_ranges_truncate_a_draw_like_a_physical_limit():
+    # the distance is drawn inside the redshift table: truncated at d_L(z = 1000) the same way
+    # the physical limits truncate (inverse-CDF sampling, nothing piled onto the limit)
+    limit = cosmology.distance_limit("Planck18").to_value(u.Mpc)
+    estimate = Estimate(
+        heavier=Body(Interval(30.0, 3.0, 3.0, u.solMass)),
+        lighter=Body(Interval(20.0, 3.0, 3.0, u.solMass)),
+        distance=Interval(1.37e7, 1.7e5, 1.0e6, u.Mpc),
+    )
+    free = draw_estimate(estimate, 20_000, 0.9, seed=5)["distance"]
+    assert (free > limit).any()  # without the range, some draws leave the table
+    cut = draw_estimate(estimate, 20_000, 0.9, seed=5, ranges={"distance": (0.0, limit)})
+    d = cut["distance"]
+    assert d.max() <= limit and len(np.unique(d)) == len(d)
+    assert value_range("distance", {"distance": (0.0, limit)}) == (0.0, limit)
+    assert value_range("heavier.spin") == (-1.0, 1.0)
+
+
+def test_ranges_leave_ordinary_draws_unchanged():
+    # far from the table's end the truncation moves no sample (same seed, same numbers)
+    estimate = Estimate(
+        heavier=Body(Interval(36.0, 5.0, 4.0, u.solMass)),
+        lighter=Body(Interval(29.0, 4.0, 5.0, u.solMass)),
+        distance=Interval(440.0, 180.0, 170.0, u.Mpc),
+    )
+    limit = cosmology.distance_limit("Planck18").to_value(u.Mpc)
+    a = draw_estimate(estimate, 4000, 0.9, seed=11)
+    b = draw_estimate(estimate, 4000, 0.9, seed=11, ranges={"distance": (0.0, limit)})
+    assert all(np.array_equal(a[k], b[k]) for k in a)
+
+
+@pytest.mark.parametrize(
+    "distance", ["1.37e7 +1.7e5 -1e6 Mpc", "1e-4 +2e-5 -2e-5 Mpc", "3 pc", "1.3879e7 Mpc"]
+)
+def test_events_at_the_ends_of_the_table_derive(distance):
+    # inside the table (d_L(z = 1000) under Planck18) and below its lower end: these passed
+    # `check` and failed the build before the table was extended
+    result = derive(
+        {
+            "id": "END-1",
+            "time": "2034-01-01T00:00:00",
+            "estimate": {
+                "heavier": {"mass": "36 +5 -4 Msun"},
+                "lighter": {"mass": "29 +4 -5 Msun"},
+                "distance": distance,
+            },
+        },
+        Settings(samples=2000),
+    )
+    z = result.summary("redshift")
+    assert 0 < z.low <= z.median <= z.high <= 1000

@@ -1,5 +1,8 @@
 """The samples-file reader: header cells ``path [unit]``, checked rows, unknown columns ignored."""
 
+import subprocess
+import sys
+
 import pytest
 from helpers import VALID_EVENT
 
@@ -100,3 +103,69 @@ def test_check_prints_the_unknown_column_warning(catalogue, tmp_path, capsys):
     err = capsys.readouterr().err
     assert "warning:" in err and "'bogus'" in err and "ignored" in err
     assert main(["check", "--strict", str(folder)]) == 1
+
+
+def test_header_cell_with_a_control_character_is_refused(tmp_path):
+    path = write(tmp_path, f"{HEADER},note\x1b[2J\n30,20,400,1\n")
+    with pytest.raises(InputError) as info:
+        read_samples(path)
+    (problem,) = [str(p) for p in info.value.problems]
+    assert problem.startswith(f"{path}:1: header: column 4's name contains a control character")
+
+
+def test_distances_beyond_the_redshift_table_are_refused_by_row(tmp_path):
+    # d_L(z = 1000) is 1.388e7 Mpc under Planck18 (astropy); 1.39e7 Mpc lies beyond it
+    path = write(tmp_path, f"{HEADER}\n30,20,400\n30,20,1.39e7\n30,20,2e7\n")
+    read_samples(path)  # without a cosmology, only the physical range is checked
+    with pytest.raises(InputError) as info:
+        read_samples(path, cosmology="Planck18")
+    (problem,) = [str(p) for p in info.value.problems]
+    assert problem.startswith(f"{path}:3: distance: distance 1.39e+07 Mpc lies beyond")
+    with pytest.raises(InputError, match=":4: distance: distance 2e"):  # WMAP9: 1.3997e7 Mpc
+        read_samples(path, cosmology="WMAP9")
+
+
+def test_swapped_bodies_are_relabelled_in_place(tmp_path):
+    path = write(
+        tmp_path, f"{HEADER},heavier.spin,lighter.spin\n20,30,400,0.1,0.2\n30,20,400,0.3,0.4\n"
+    )
+    s = read_samples(path).values
+    assert s["heavier.mass"].tolist() == [30, 30] and s["lighter.mass"].tolist() == [20, 20]
+    assert s["heavier.spin"].tolist() == [0.2, 0.3] and s["lighter.spin"].tolist() == [0.1, 0.4]
+
+
+MEMORY_SCRIPT = """
+import resource, sys
+from pathlib import Path
+from factsheet.load.samples import read_samples
+from factsheet.physics.cosmology import distance_limit
+distance_limit("Planck18")  # the cosmology's modules and table, loaded before the baseline
+before = resource.getrusage(resource.RUSAGE_SELF).ru_maxrss
+samples = read_samples(Path(sys.argv[1]), cosmology="Planck18")
+after = resource.getrusage(resource.RUSAGE_SELF).ru_maxrss
+print(len(samples.values["distance"]), (after - before) * 1024)
+"""
+
+
+def test_a_million_rows_are_read_in_bounded_memory(tmp_path):
+    # 1 000 000 rows of 5 columns read and 3 ignored: what is kept is 5 columns of 8-byte
+    # floats and an 8-byte line number per row, 48 MB; the peak may exceed it by half at most
+    # (ru_maxrss in KiB on Linux)
+    rows = 1_000_000
+    row = "36.5,29.25,0.125,-0.25,440.5,-1234.5678,3.14159,12345\n"
+    header = (
+        "heavier.mass [Msun],lighter.mass [Msun],heavier.spin,lighter.spin,distance [Mpc],"
+        "log_likelihood,phase,step\n"
+    )
+    path = tmp_path / "big.csv"
+    with path.open("w") as handle:
+        handle.write(header)
+        for _ in range(rows // 1000):
+            handle.write(row * 1000)
+    result = subprocess.run(
+        [sys.executable, "-c", MEMORY_SCRIPT, str(path)], capture_output=True, text=True
+    )
+    assert result.returncode == 0, result.stderr
+    count, growth = (int(x) for x in result.stdout.split())
+    kept = rows * (5 + 1) * 8
+    assert count == rows and growth < 1.5 * kept, f"peak grew by {growth / 2**20:.0f} MiB"

@@ -25,6 +25,8 @@ def test_mapping_form_matches_text_form():
         ("580 deg2", 580, u.deg**2),
         ("1.2 Gpc", 1.2, u.Gpc),
         ("14.3", 14.3, u.one),
+        ("1.39e+07 Mpc", 1.39e7, u.Mpc),  # a plus sign in an exponent is not an offset
+        ("2E+3 km", 2000, u.km),
     ],
 )
 def test_exact_values(text, value, unit):
@@ -35,6 +37,11 @@ def test_exact_values(text, value, unit):
 def test_rate_forms():
     assert parse_interval("1 / 80 yr").quantity.to_value(1 / u.yr) == pytest.approx(1 / 80)
     assert parse_interval("2 / yr").quantity.to_value(1 / u.yr) == pytest.approx(2)
+
+
+def test_exponents_with_plus_signs_inside_intervals():
+    interval = parse_interval("1e+3 +1e+2 -50 Mpc")
+    assert (interval.median, interval.plus, interval.minus) == (1000, 100, 50)
 
 
 def test_numbers_in_yaml_are_dimensionless():
