@@ -5,6 +5,11 @@ distinct under the common forms of colour-vision deficiency; the reddish purple 
 lines keep at least 3:1 contrast on the panel. Every colour-coded thing is also named in text, so
 colour is never the only carrier.
 
+Text: every text a figure draws (labels, tick labels, legends, annotations, titles) is plain
+text, never mathtext or TeX: names written by catalogue authors may hold ``$``, ``\\`` or ``^``
+and are drawn as written. Units and symbols are Unicode characters (M⊙, χ, ⁻¹, m₁), which the
+font has, so no text needs maths markup.
+
 Dark mode: each figure is drawn on its own opaque light panel (figure and axes faces below), so
 the dark text and mid-tone lines read the same whether the page around it is light or dark.
 """
@@ -19,6 +24,7 @@ import astropy.units as u
 import matplotlib
 from matplotlib.axes import Axes
 from matplotlib.figure import Figure
+from matplotlib.text import Text
 
 from factsheet.notation import unit_text
 
@@ -57,6 +63,9 @@ WINDOW = {  # by window band (the keys of factsheet.labels.WINDOW_BANDS)
 }
 
 RC = {
+    "text.parse_math": False,  # "$5 to $10" is a price range, not maths: see the docstring
+    "text.usetex": False,
+    "axes.formatter.use_mathtext": False,  # tick labels of a default formatter stay plain too
     "font.family": "sans-serif",
     "font.sans-serif": ["DejaVu Sans"],
     "font.size": 9.0,
@@ -77,6 +86,14 @@ def styled(draw: Callable) -> Callable:
             return draw(*args, **kwargs)
 
     return wrapper
+
+
+def plain_text(figure: Figure) -> None:
+    """Mark every text already in ``figure`` as plain text (the rc settings cover texts made
+    later, such as tick labels made while drawing)."""
+    for text in figure.findobj(Text):
+        text.set_parse_math(False)
+        text.set_usetex(False)
 
 
 def new_figure(width: float, height: float, margins: tuple[float, float, float, float]) -> Figure:

@@ -1,4 +1,7 @@
-"""SVG output that is byte-identical across runs and processes, and carries no links or dates."""
+"""SVG output that is byte-identical across runs and processes, and carries no links or dates.
+
+Every text is written as plain text (no mathtext, no TeX), whatever characters it holds.
+"""
 
 from __future__ import annotations
 
@@ -8,7 +11,7 @@ import re
 import matplotlib
 from matplotlib.figure import Figure
 
-from factsheet.figures.style import RC
+from factsheet.figures.style import RC, plain_text
 
 # What matplotlib writes before the drawing that we do not want: the DTD reference (a URL) and
 # the RDF metadata block (namespace URLs and, unless suppressed, a date and a version).
@@ -21,6 +24,7 @@ def to_svg(figure: Figure, close: bool = True) -> bytes:
     """The figure as SVG bytes (fixed hash salt, no date or creator); clears it when ``close``."""
     buffer = io.BytesIO()
     with matplotlib.rc_context(RC):
+        plain_text(figure)
         figure.savefig(
             buffer, format="svg", facecolor=figure.get_facecolor(), metadata=_NO_METADATA
         )

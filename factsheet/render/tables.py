@@ -6,6 +6,14 @@ where the event has no such quantity (remnant numbers of a neutron-star pair, fo
 The ECSV is astropy's Enhanced Character Separated Values format (units, descriptions and table
 meta in a YAML header); the CSV writes each unit into its header cell as ``name [unit]``, the
 convention of our samples files. Both are deterministic: no dates, no build clock.
+
+The CSV is the file people open in a spreadsheet, which runs a cell starting with ``=``, ``+``,
+``-``, ``@``, a tab or a carriage return as a formula. Every text cell (id, title, status, source
+class, and any text column added later) that starts with one of them is written with a single
+quote ``'`` before it, which spreadsheets read as "this cell is text" (the OWASP guidance on CSV
+injection); number cells, negative ones included, stay numbers. A line break inside a text cell
+is written as one line feed (a carriage return becomes a line feed), so the cell is quoted and
+stays one cell. The ECSV is left as written: it is read by astropy, not by spreadsheets.
 """
 
 from __future__ import annotations
@@ -117,23 +125,39 @@ def write_ecsv(table: Table) -> bytes:
     return out.getvalue().encode("utf-8")
 
 
+#: First characters that make a spreadsheet read a cell as a formula (OWASP, CSV injection);
+#: a leading line feed is quoted too, as the carriage return it may have been.
+FORMULA_STARTS = ("=", "+", "-", "@", "\t", "\r", "\n")
+
+
 def write_csv(table: Table) -> bytes:
-    """Plain CSV, each header cell ``name [unit]`` (no bracket when dimensionless)."""
+    """Plain CSV, each header cell ``name [unit]`` (no bracket when dimensionless); text cells
+    that a spreadsheet would run as a formula are quoted with a leading ``'``."""
     out = io.StringIO()
     writer = csv.writer(out, lineterminator="\n")
     writer.writerow([_header(table[name]) for name in table.colnames])
+    text = {name: table[name].dtype.kind in "USO" for name in table.colnames}
     for row in table:
-        writer.writerow([_cell(row[name]) for name in table.colnames])
+        writer.writerow([_cell(row[name], text[name]) for name in table.colnames])
     return out.getvalue().encode("utf-8")
+
+
+def text_cell(value: str) -> str:
+    """A text cell a spreadsheet shows as text: a leading ``'`` where it would be a formula, and
+    line breaks as line feeds (the CSV writer quotes a cell holding one, not a carriage return)."""
+    value = "'" + value if value.startswith(FORMULA_STARTS) else value
+    return value.replace("\r\n", "\n").replace("\r", "\n")
 
 
 def _header(column: Column) -> str:
     return f"{column.name} [{column.unit.to_string()}]" if column.unit else column.name
 
 
-def _cell(value) -> str:
+def _cell(value, text: bool) -> str:
     if value is np.ma.masked:
         return ""
+    if text:
+        return text_cell(str(value))
     if isinstance(value, np.floating | float):
         number = float(value)
         return repr(number) if math.isfinite(number) else ""

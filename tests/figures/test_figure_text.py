@@ -1,0 +1,174 @@
+"""Figure text is plain text: ``$``, ``\\``, ``^``, ``_`` and braces are drawn as written.
+
+Names reach the figures from catalogue authors (window names, history labels, event ids,
+comparison labels); none of them may be read as mathtext or TeX. Each text a figure draws is
+checked in the SVG itself: matplotlib writes a text drawn as paths as a comment holding the
+string, then one glyph (``<use>``) per character — mathtext would drop the dollar signs and set
+the letters between them in the oblique maths face. All inputs are invented.
+"""
+
+from __future__ import annotations
+
+import html
+import re
+import string
+from collections.abc import Callable
+
+import astropy.units as u
+import numpy as np
+import pytest
+from hypothesis import HealthCheck, given, settings
+from hypothesis import strategies as st
+from matplotlib.text import Text
+
+from factsheet.figures import (
+    DistanceItem,
+    Drawing,
+    HistoryItem,
+    IntervalItem,
+    PlaneItem,
+    Track,
+    WindowItem,
+    comparison_bars,
+    component_intervals,
+    distance_mass,
+    frequency_track,
+    history,
+    mass_plane,
+    style,
+    to_svg,
+    window_timeline,
+)
+
+EDGES = {
+    "neutron_star_max": 2.3,
+    "lower_gap_top": 5.0,
+    "pair_instability_lower": 55.0,
+    "pair_instability_upper": 130.0,
+}
+HOSTILE = ["$5 to $10", "$\\nonexistent$", "\\alpha", "^_{}", "$x^2$ and $$", "a $ b", "\\$7"]
+_COMMENT = re.compile(r"<!-- (.*?) -->", re.S)
+
+
+def intervals(text: str) -> Drawing:
+    return component_intervals(
+        [
+            IntervalItem(text, 36.2, 31.8, 41.3, "solMass", 0.9),
+            IntervalItem("m₂", 29.1, 24.2, 33.0, "solMass", 0.9),
+        ]
+    )
+
+
+def comparison(text: str) -> Drawing:
+    others = [(text, 3.828e26 * u.W), ("other " + text, 2e37 * u.W)]
+    return comparison_bars(text, 3.6e49 * u.W, "this merger " + text, others)
+
+
+def windows(text: str) -> Drawing:
+    items = [WindowItem(text, "gamma_ray", -1e-5, 1e-3), WindowItem("late", "infrared", 0.5, 14.0)]
+    return window_timeline(items, text)
+
+
+def estimates(text: str) -> Drawing:
+    points = [
+        HistoryItem(label, date, text, m, m - 5.0, m + 6.0, "solMass")
+        for label, date, m in ((text, "2034-05-06", 36.0), ("update", "", 34.0))
+    ]
+    return history(points)
+
+
+def plane(text: str) -> Drawing:
+    events = [
+        PlaneItem(text, 36.0, 31.0, 41.0, 29.0, 24.0, 33.0, "confirmed", "BBH"),
+        PlaneItem("Q2", 1.5, 1.4, 1.7, 1.3, 1.2, 1.4, "candidate", "BNS"),
+    ]
+    return mass_plane(events, EDGES)
+
+
+def distance(text: str) -> Drawing:
+    events = [
+        DistanceItem(text, 440.0, 300.0, 600.0, 65.0, 60.0, 70.0, "confirmed"),
+        DistanceItem("Q2", 40.0, 30.0, 50.0, 2.8, 2.7, 2.9, "retracted"),
+    ]
+    return distance_mass(events)
+
+
+#: Every drawing function with a text input, and whether its alt text repeats that text.
+FIGURES: dict[str, tuple[Callable[[str], Drawing], bool]] = {
+    "component_intervals": (intervals, True),
+    "comparison_bars": (comparison, True),
+    "window_timeline": (windows, True),
+    "history": (estimates, True),
+    "mass_plane": (plane, False),  # the alt text counts events, it does not name them
+    "distance_mass": (distance, False),
+}
+
+
+def drawn_texts(svg: bytes) -> dict[str, int]:
+    """Each text drawn in the SVG (from its comment) and the number of glyphs drawn for it."""
+    text = svg.decode()
+    found = {}
+    for match in _COMMENT.finditer(text):
+        end = text.find('<g id="', match.end())
+        group = text[match.end() : end if end >= 0 else len(text)]
+        found[html.unescape(match.group(1))] = group.count("<use ")
+    return found
+
+
+def check_plain(drawing: Drawing, text: str, in_alt: bool) -> bytes:
+    for artist in drawing.figure.findobj(Text):
+        assert not artist.get_usetex()
+    svg = to_svg(drawing.figure)
+    assert b"Oblique" not in svg  # no maths italics: nothing was set as mathtext
+    holding = {drawn: n for drawn, n in drawn_texts(svg).items() if text in drawn}
+    assert holding, f"{text!r} is not drawn"
+    for drawn, glyphs in holding.items():
+        assert glyphs == len(drawn.replace("\n", "")), (drawn, glyphs)  # one glyph a character
+    if in_alt:
+        assert text in drawing.alt
+    return svg
+
+
+@pytest.mark.parametrize("text", HOSTILE)
+@pytest.mark.parametrize("name", list(FIGURES))
+def test_text_with_maths_characters_is_drawn_as_written(name, text):
+    make, in_alt = FIGURES[name]
+    first = check_plain(make(text), text, in_alt)
+    assert to_svg(make(text).figure) == first  # still byte-identical across draws
+
+
+def test_rc_settings_make_every_text_plain():
+    assert style.RC["text.parse_math"] is False and style.RC["text.usetex"] is False
+    drawing = windows("$5 to $10")
+    to_svg(drawing.figure, close=False)  # tick labels exist once the figure has been drawn
+    texts = drawing.figure.findobj(Text)
+    assert len(texts) > 10
+    assert all(not t.get_parse_math() and not t.get_usetex() for t in texts)
+
+
+def test_no_figure_draws_maths_markup_of_its_own():
+    # what the figures write themselves (tick labels, units) is Unicode, never "$10^{2}$";
+    # the frequency track takes no caller text, so it is checked here only
+    tau = np.geomspace(40.0, 1e-3, 50)
+    track = frequency_track(Track(tau, 20.0 * (tau / 40.0) ** -0.375, 20.0, 70.0, 250.0, 4e-3))
+    for drawing in [track, *(make("plain") for make, _ in FIGURES.values())]:
+        to_svg(drawing.figure, close=False)
+        texts = [t.get_text() for t in drawing.figure.findobj(Text)]
+        assert not [t for t in texts if "$" in t or "\\" in t], texts
+
+
+_ALPHABET = string.ascii_letters + string.digits + " $\\^_{}%#&~<>()[]|'\"-−⊙χ⁻¹"
+
+
+@settings(max_examples=30, deadline=None, suppress_health_check=[HealthCheck.too_slow])
+@given(
+    name=st.sampled_from(sorted(FIGURES)),
+    text=st.text(alphabet=_ALPHABET, min_size=1, max_size=20).filter(lambda s: s.strip()),
+)
+def test_fuzz_any_printable_name_is_drawn_as_written(name, text):
+    make, in_alt = FIGURES[name]
+    drawing = make(text)
+    svg = to_svg(drawing.figure)
+    assert b"Oblique" not in svg
+    if in_alt:
+        assert text in drawing.alt
