@@ -8,10 +8,14 @@ are rendered from the bundles and the new site is swapped in whole at the end.
 
 from __future__ import annotations
 
+import contextlib
+import ctypes
 import json
 import multiprocessing
 import os
+import signal
 import sys
+import threading
 import time as clock
 from concurrent.futures import ProcessPoolExecutor
 from dataclasses import dataclass, replace
@@ -33,7 +37,7 @@ from factsheet.model import (
     Settings,
     SiteFigure,
 )
-from factsheet.publish import Staging
+from factsheet.publish import HELD, OutputLock, Staging, check_output
 from factsheet.render import Site, render_site
 from factsheet.render.assets import event_files
 from factsheet.render.site import plane_edges
@@ -51,12 +55,19 @@ class BuildReport:
     figure_seconds: float
     out: Path
     warnings: tuple[Problem, ...] = ()
+    skipped: tuple[tuple[Path, str], ...] = ()  # files of the catalogue folder not read, and why
 
 
 def build_time() -> Time:
     """The build's clock: ``SOURCE_DATE_EPOCH`` when set (reproducible builds), else now."""
     epoch = os.environ.get("SOURCE_DATE_EPOCH")
-    return Time(int(epoch), format="unix") if epoch else Time.now()
+    if not epoch:
+        return Time.now()
+    if not epoch.strip().isdigit():
+        raise BuildError(
+            f"SOURCE_DATE_EPOCH: expected a whole number of seconds since 1970, got {epoch[:40]!r}"
+        )
+    return Time(int(epoch), format="unix")
 
 
 def select_events(catalogue: Catalogue, audience: str, now: Time) -> tuple[list[Event], int, int]:
@@ -82,18 +93,45 @@ def build(
     progress: bool = False,
     strict: bool = False,
 ) -> BuildReport:
-    """Build the site for ``catalogue_dir`` into ``out``; ``strict`` makes warnings fatal."""
+    """Build the site for ``catalogue_dir`` into ``out``; ``strict`` makes warnings fatal.
+
+    Nothing is written before the whole catalogue checks out and the output is known to be a
+    safe place (:func:`~factsheet.publish.check_output`); one build at a time holds the output.
+    """
     start, out = clock.perf_counter(), Path(out)
+    check_output(out, Path(catalogue_dir))
     catalogue = load_catalogue(catalogue_dir)
     if strict and catalogue.warnings:
         raise InputError(problems=list(catalogue.warnings))
     events, internal, embargoed = select_events(catalogue, audience, build_time())
-    settings, cache = catalogue.settings, Cache(out)
+    try:
+        with OutputLock(out):
+            made, index, count = _build_locked(
+                events, catalogue.settings, out, audience, force, jobs, progress
+            )
+    except OSError as exc:
+        raise BuildError(_os_problem(exc, out)) from exc
+    figure_seconds = sum(b.figure_seconds for b in made) + sum(f.seconds for f in index)
+    return BuildReport(
+        count,
+        count - len(made),
+        internal,
+        embargoed,
+        clock.perf_counter() - start,
+        figure_seconds,
+        out,
+        catalogue.warnings,
+        catalogue.skipped,
+    )
+
+
+def _build_locked(events, settings, out, audience, force, jobs, progress):
+    """The part of a build that writes: bundles, pages, the swap; the output's lock is held."""
+    cache = Cache(out)
     with Staging(out, force) as staging:
         bundles, made = make_bundles(events, settings, cache, jobs or os.cpu_count() or 1, progress)
         for bundle in bundles:
-            for name, path in cache.files(bundle.key):
-                staging.link(name, path)
+            cache.copy_files(bundle.key, staging.write)
         index = _index_figures(bundles, settings, cache)
 
         def memo(parts: tuple, make) -> dict[str, bytes]:
@@ -102,17 +140,13 @@ def build(
         render_site(bundles, settings, audience, index, site=StagedSite(staging), memo=memo)
         staging.commit()
     cache.prune()
-    figure_seconds = sum(b.figure_seconds for b in made) + sum(f.seconds for f in index)
-    return BuildReport(
-        len(bundles),
-        len(bundles) - len(made),
-        internal,
-        embargoed,
-        clock.perf_counter() - start,
-        figure_seconds,
-        out,
-        catalogue.warnings,
-    )
+    return made, index, len(bundles)
+
+
+def _os_problem(exc: OSError, out: Path) -> str:
+    """One line for a file-system fault: the path it hit and what the system said."""
+    where = exc.filename or out
+    return f"{where}: {exc.strerror or exc}; the earlier site, if any, is unchanged"
 
 
 class StagedSite(Site):
@@ -131,9 +165,9 @@ def make_bundles(
 ) -> tuple[list[EventBundle], list[EventBundle]]:
     """Every event's bundle, from the cache or made afresh; also the freshly made ones."""
     keys = [event_key(e, settings) for e in events]
-    bundles: list[EventBundle | None] = [cache.load(k) for k in keys]
-    todo = [i for i, b in enumerate(bundles) if b is None]
     reference = reference_for(settings)
+    bundles = [cache.load(k, e, settings, reference) for k, e in zip(keys, events, strict=True)]
+    todo = [i for i, b in enumerate(bundles) if b is None]
     made, failures = [], []
     for done, (i, result) in enumerate(_run(todo, events, settings, reference, jobs), 1):
         if isinstance(result, BaseException):
@@ -187,8 +221,41 @@ def _run(todo: list[int], events: list[Event], settings: Settings, reference: Re
         yield from zip(todo, map(_work, tasks), strict=True)
         return
     context = multiprocessing.get_context("fork" if sys.platform == "linux" else "spawn")
-    with ProcessPoolExecutor(max_workers=min(jobs, len(todo)), mp_context=context) as pool:
+    with ProcessPoolExecutor(
+        max_workers=min(jobs, len(todo)),
+        mp_context=context,
+        initializer=_worker_started,
+        initargs=(os.getpid(),),
+    ) as pool:
         yield from zip(todo, pool.map(_work, tasks, chunksize=1), strict=True)
+
+
+_PR_SET_PDEATHSIG = 1
+
+
+def _worker_started(parent: int) -> None:
+    """Make a worker die with the build that started it, and let go of the output's lock.
+
+    On Linux the kernel sends SIGKILL to the worker when its parent dies (``prctl``
+    ``PR_SET_PDEATHSIG``); everywhere, a watcher thread exits the worker once its parent is
+    gone. A killed build therefore leaves no worker running.
+    """
+    for fd in list(HELD):  # the fork copied the lock's descriptor: only the build holds it
+        with contextlib.suppress(OSError):
+            os.close(fd)
+    HELD.clear()
+    with contextlib.suppress(OSError, AttributeError):
+        libc = ctypes.CDLL(None, use_errno=True)
+        libc.prctl(_PR_SET_PDEATHSIG, signal.SIGKILL)
+    if os.getppid() != parent:  # the parent died before the line above took effect
+        os._exit(1)
+    threading.Thread(target=_exit_when_orphaned, args=(parent,), daemon=True).start()
+
+
+def _exit_when_orphaned(parent: int) -> None:
+    while os.getppid() == parent:
+        clock.sleep(0.5)
+    os._exit(1)
 
 
 def _index_figures(bundles: list[EventBundle], settings: Settings, cache: Cache):

@@ -1,28 +1,51 @@
-"""The build cache: per-event bundles keyed by everything that shapes them.
+"""The build cache: per-event entries keyed by everything that shapes them.
 
 An event's key hashes its YAML file and samples file (the digests the load stage took as it
-read them), the settings that change numbers, the packaged reference data and factsheet's own
-code (every ``.py`` and data file of the package),
-so a change in any of them re-derives exactly what depends on it. Entries live in a folder
-beside the output (``.factsheet-cache-<name>/``), are written atomically and are safe to delete.
+read them), the settings that change numbers and factsheet's own code and data (every ``.py``
+and data file of the package), so a change in any of them re-derives exactly what depends on it.
+Entries live in a folder beside the output (``.factsheet-cache-<name>/``), one folder per key:
+``entry.json`` (what derive found, as plain JSON — nothing in the cache can run code) and the
+entry's files, whose size and SHA-256 the JSON records. An entry whose JSON or files do not
+check out is not used: its event is derived again. Files are copied out of the cache, never
+linked, so the published site and the cache share nothing. Safe to delete.
 """
 
 from __future__ import annotations
 
 import hashlib
+import json
 import os
-import pickle
 import shutil
 import tempfile
-from dataclasses import replace
+from collections.abc import Callable
+from dataclasses import asdict, replace
 from functools import cache
 from pathlib import Path
+from typing import Any
+
+import astropy.units as u
+from astropy.time import Time
 
 from factsheet import __version__
-from factsheet.model import Event, EventBundle, Settings
+from factsheet.errors import BuildError
+from factsheet.model import (
+    Audio,
+    Caveat,
+    Comparisons,
+    Derived,
+    Event,
+    EventBundle,
+    FigureInfo,
+    Reference,
+    Settings,
+    Summary,
+)
+from factsheet.physics.counterparts import Window
 from factsheet.resources import PACKAGE
 
-FORMAT = "2"
+FORMAT = "3"
+ENTRY = "entry.json"
+MAX_ENTRY_BYTES = 4_000_000  # an entry's JSON is a few kilobytes; anything far larger is not ours
 
 
 @cache
@@ -46,53 +69,6 @@ def event_key(event: Event, settings: Settings) -> str:
     return digest.hexdigest()[:32]
 
 
-class Cache:
-    """Pickled event bundles and their asset files, one folder per key."""
-
-    def __init__(self, out: Path):
-        self.root = out.parent / f".factsheet-cache-{out.name}"
-        self.used: set[str] = set()
-
-    def load(self, key: str) -> EventBundle | None:
-        """The bundle stored under ``key`` (its files stay on disk), or None."""
-        path = self.root / key / "bundle.pickle"
-        try:
-            bundle = pickle.loads(path.read_bytes())
-        except (OSError, pickle.UnpicklingError, EOFError, AttributeError, ImportError):
-            return None
-        self.used.add(key)
-        return replace(bundle, key=key)
-
-    def store(self, key: str, bundle: EventBundle) -> EventBundle:
-        """Write the bundle's files and metadata under ``key``; return it without file bytes."""
-        self.root.mkdir(parents=True, exist_ok=True)
-        staging = Path(tempfile.mkdtemp(prefix=".new-", dir=self.root))
-        for name, content in bundle.files.items():
-            target = staging / "files" / name
-            target.parent.mkdir(parents=True, exist_ok=True)
-            target.write_bytes(content)
-        light = replace(bundle, files={}, key=key)
-        (staging / "bundle.pickle").write_bytes(pickle.dumps(light, protocol=5))
-        final = self.root / key
-        shutil.rmtree(final, ignore_errors=True)
-        os.replace(staging, final)
-        self.used.add(key)
-        return light
-
-    def files(self, key: str) -> list[tuple[str, Path]]:
-        """The asset files of an entry as (site path, cached file)."""
-        base = self.root / key / "files"
-        return [(p.relative_to(base).as_posix(), p) for p in sorted(base.rglob("*")) if p.is_file()]
-
-    def prune(self) -> None:
-        """Remove entries this build did not use (and leftovers of interrupted writes)."""
-        if not self.root.is_dir():
-            return
-        for entry in self.root.iterdir():
-            if entry.name not in self.used:
-                shutil.rmtree(entry, ignore_errors=True)
-
-
 def content_key(*parts: object) -> str:
     """A cache key from the repr of some inputs and the code fingerprint."""
     digest = hashlib.sha256(code_fingerprint().encode())
@@ -101,19 +77,221 @@ def content_key(*parts: object) -> str:
     return "x" + digest.hexdigest()[:31]
 
 
-def cached_files(cache_: Cache, key: str, make) -> dict[str, bytes]:
-    """Files from the cache under ``key``, or made by ``make()`` and stored."""
-    found = cache_.files(key) if (cache_.root / key / "files").is_dir() else []
+class Cache:
+    """Entries of JSON and checked files, one folder per key, beside the output."""
+
+    def __init__(self, out: Path):
+        self.root = Path(out).absolute().parent / f".factsheet-cache-{Path(out).name}"
+        if self.root.exists() and (self.root.is_symlink() or not self.root.is_dir()):
+            raise BuildError(
+                f"{self.root}: the build cache's place holds a file or a link; remove it "
+                "(the cache is safe to delete) or choose another output"
+            )
+        self.used: set[str] = set()
+
+    def load(
+        self, key: str, event: Event, settings: Settings, reference: Reference
+    ) -> EventBundle | None:
+        """The bundle stored under ``key`` for ``event``, or None when there is none or it does
+        not check out (its files stay on disk; :meth:`copy_files` places them)."""
+        entry = self._entry(key)
+        if entry is None or entry.get("kind") != "event":
+            return None
+        try:
+            bundle = bundle_from_json(entry["bundle"], event, settings, reference)
+        except (KeyError, TypeError, ValueError, AttributeError, IndexError):
+            return None
+        self.used.add(key)
+        return replace(bundle, key=key)
+
+    def store(self, key: str, bundle: EventBundle) -> EventBundle:
+        """Write the bundle's files and JSON under ``key``; return it without file bytes."""
+        self._write(key, bundle.files, {"kind": "event", "bundle": bundle_to_json(bundle)})
+        return replace(bundle, files={}, key=key)
+
+    def copy_files(self, key: str, write: Callable[[str, bytes], None]) -> None:
+        """Pass each file of an entry to ``write`` (site path, bytes), checked against its
+        recorded size and hash as it is read."""
+        entry = self._entry(key, check_files=False)
+        if entry is None:
+            raise BuildError(f"{self.root / key}: a cache entry vanished during the build")
+        for name, data in self._read_files(key, entry["files"]).items():
+            write(name, data)
+
+    def files(self, key: str) -> dict[str, bytes] | None:
+        """Every file of an entry of plain files (a memoised page), checked; None if none."""
+        entry = self._entry(key, check_files=False)
+        if entry is None or entry.get("kind") != "files":
+            return None
+        try:
+            found = self._read_files(key, entry["files"])
+        except BuildError:
+            return None
+        self.used.add(key)
+        return found
+
+    def store_files(self, key: str, files: dict[str, bytes]) -> None:
+        self._write(key, files, {"kind": "files"})
+
+    def prune(self) -> None:
+        """Remove entries this build did not use (and leftovers of interrupted writes)."""
+        if not self.root.is_dir():
+            return
+        for entry in self.root.iterdir():
+            if entry.name not in self.used:
+                if entry.is_dir() and not entry.is_symlink():
+                    shutil.rmtree(entry, ignore_errors=True)
+                else:
+                    entry.unlink(missing_ok=True)
+
+    # -- the entries on disk -------------------------------------------------------------------
+    def _entry(self, key: str, check_files: bool = True) -> dict[str, Any] | None:
+        """An entry's JSON if it reads back whole (and, if asked, its files check out)."""
+        path = self.root / key / ENTRY
+        try:
+            if path.is_symlink() or path.stat().st_size > MAX_ENTRY_BYTES:
+                return None
+            entry = json.loads(path.read_bytes())
+        except (OSError, ValueError):
+            return None
+        if not isinstance(entry, dict) or entry.get("format") != FORMAT:
+            return None
+        files = entry.get("files")
+        if not isinstance(files, dict) or not all(_recorded(v) for v in files.values()):
+            return None
+        if check_files:
+            try:
+                self._read_files(key, files)
+            except BuildError:
+                return None
+        return entry
+
+    def _read_files(self, key: str, recorded: dict[str, Any]) -> dict[str, bytes]:
+        base = (self.root / key / "files").resolve()
+        found = {}
+        for name, record in recorded.items():
+            path = (base / name).resolve()
+            try:
+                bad = not path.is_relative_to(base) or path.stat().st_size != record["size"]
+                data = b"" if bad else path.read_bytes()
+            except OSError:
+                bad = True
+            if bad or hashlib.sha256(data).hexdigest() != record["sha256"]:
+                raise BuildError(f"{self.root / key}: cache entry damaged ({name})")
+            found[name] = data
+        return found
+
+    def _write(self, key: str, files: dict[str, bytes], entry: dict[str, Any]) -> None:
+        """Write an entry into a fresh folder, then move it into place (atomic per entry)."""
+        try:
+            self.root.mkdir(parents=True, exist_ok=True)
+            staging = Path(tempfile.mkdtemp(prefix=".new-", dir=self.root))
+            for name, content in files.items():
+                target = staging / "files" / name
+                target.parent.mkdir(parents=True, exist_ok=True)
+                target.write_bytes(content)
+            recorded = {
+                name: {"size": len(data), "sha256": hashlib.sha256(data).hexdigest()}
+                for name, data in files.items()
+            }
+            entry = {"format": FORMAT, **entry, "files": recorded}
+            (staging / ENTRY).write_text(json.dumps(entry, sort_keys=True), encoding="utf-8")
+            final = self.root / key
+            shutil.rmtree(final, ignore_errors=True)
+            os.replace(staging, final)
+        except OSError as exc:
+            raise BuildError(f"{self.root}: cannot write the build cache ({exc.strerror})") from exc
+        self.used.add(key)
+
+
+def _recorded(record: object) -> bool:
+    return (
+        isinstance(record, dict)
+        and isinstance(record.get("size"), int)
+        and isinstance(record.get("sha256"), str)
+    )
+
+
+def cached_files(cache_: Cache, key: str, make: Callable[[], dict[str, bytes]]) -> dict[str, bytes]:
+    """Files from the cache under ``key`` (checked), or made by ``make()`` and stored."""
+    found = cache_.files(key)
     if found:
-        cache_.used.add(key)
-        return {name: path.read_bytes() for name, path in found}
+        return found
     files = make()
-    cache_.root.mkdir(parents=True, exist_ok=True)
-    staging = Path(tempfile.mkdtemp(prefix=".new-", dir=cache_.root))
-    for name, content in files.items():
-        (staging / "files" / name).parent.mkdir(parents=True, exist_ok=True)
-        (staging / "files" / name).write_bytes(content)
-    shutil.rmtree(cache_.root / key, ignore_errors=True)
-    os.replace(staging, cache_.root / key)
-    cache_.used.add(key)
+    cache_.store_files(key, files)
     return files
+
+
+# -- what derive found, as JSON and back ------------------------------------------------------
+
+
+def bundle_to_json(bundle: EventBundle) -> dict[str, Any]:
+    """The parts of a bundle that the pages need, as plain JSON values (exact floats)."""
+    d = bundle.derived
+    return {
+        "quantities": {k: asdict(s) for k, s in d.quantities.items()},
+        "caveats": [asdict(c) for c in d.caveats],
+        "source_class": d.source_class,
+        "class_probabilities": dict(d.class_probabilities),
+        "mass_bands": {k: dict(v) for k, v in d.mass_bands.items()},
+        "intermediate_mass": dict(d.intermediate_mass),
+        "lookback_gyr": float(d.lookback_time.to_value(u.Gyr)),
+        "disruption_probability": d.disruption_probability,
+        "windows": [_window_json(w) for w in d.windows],
+        "no_window_reason": d.no_window_reason,
+        "energy": dict(d.comparisons.energy),
+        "luminosity": dict(d.comparisons.luminosity),
+        "sun_years": None if d.comparisons.sun_years is None else d.comparisons.sun_years.value,
+        "other_methods": list(d.other_methods),
+        "figures": [[f.path, f.alt, f.caption] for f in bundle.figures],
+        "audio": [bundle.audio.path, bundle.audio.description],
+        "figure_seconds": bundle.figure_seconds,
+    }
+
+
+def _window_json(w: Window) -> dict[str, Any]:
+    times = {
+        k: [float(t.utc.jd1), float(t.utc.jd2)] for k, t in (("start", w.start), ("end", w.end))
+    }
+    return {"key": w.key, "band": w.band, "scenario": w.scenario, "basis": w.basis, **times}
+
+
+def bundle_from_json(
+    data: dict[str, Any], event: Event, settings: Settings, reference: Reference
+) -> EventBundle:
+    """A bundle from its JSON and the freshly loaded event it belongs to (same key, same
+    content); raises KeyError, TypeError or ValueError when the JSON is not a bundle."""
+    quantities = {
+        k: Summary(**{**v, "methods": tuple(v["methods"])}) for k, v in data["quantities"].items()
+    }
+    sun_years = data["sun_years"]
+    derived = Derived(
+        event=event,
+        settings=settings,
+        reference=reference,
+        quantities=quantities,
+        caveats=tuple(Caveat(**c) for c in data["caveats"]),
+        source_class=str(data["source_class"]),
+        class_probabilities=dict(data["class_probabilities"]),
+        mass_bands={k: dict(v) for k, v in data["mass_bands"].items()},
+        intermediate_mass=dict(data["intermediate_mass"]),
+        lookback_time=float(data["lookback_gyr"]) * u.Gyr,
+        disruption_probability=data["disruption_probability"],
+        windows=tuple(_window(w) for w in data["windows"]),
+        no_window_reason=str(data["no_window_reason"]),
+        comparisons=Comparisons(
+            dict(data["energy"]),
+            dict(data["luminosity"]),
+            None if sun_years is None else float(sun_years) * u.yr,
+        ),
+        other_methods=tuple(data["other_methods"]),
+    )
+    figures = tuple(FigureInfo(*map(str, f)) for f in data["figures"])
+    return EventBundle(
+        derived, figures, Audio(*map(str, data["audio"])), {}, data["figure_seconds"]
+    )
+
+
+def _window(w: dict[str, Any]) -> Window:
+    start, end = (Time(*w[k], format="jd", scale="utc") for k in ("start", "end"))
+    return Window(str(w["key"]), str(w["band"]), str(w["scenario"]), start, end, str(w["basis"]))

@@ -11,7 +11,7 @@ import sys
 from pathlib import Path
 
 from factsheet import __version__
-from factsheet.errors import FactsheetError
+from factsheet.errors import FactsheetError, printable
 from factsheet.resources import demo_dir
 
 DEFAULT_OUT = Path("site")
@@ -27,6 +27,12 @@ def main(argv: list[str] | None = None) -> int:
             raise
         _print_problems(exc)
         return 1
+    except OSError as exc:  # a file-system fault no stage turned into a clearer error
+        if args.debug:
+            raise
+        where = f"{exc.filename}: " if exc.filename else ""
+        print(f"error: {printable(where)}{exc.strerror or exc}", file=sys.stderr)
+        return 1
     except KeyboardInterrupt:
         print("interrupted; the earlier site is untouched", file=sys.stderr)
         return 130
@@ -35,7 +41,7 @@ def main(argv: list[str] | None = None) -> int:
 def _print_problems(exc: FactsheetError) -> None:
     lines = [str(p) for p in exc.problems] or [str(exc)]
     for line in lines:
-        print(f"error: {line}", file=sys.stderr)
+        print(f"error: {printable(line)}", file=sys.stderr)
     if len(lines) > 1:
         print(f"{len(lines)} problems found", file=sys.stderr)
 
@@ -92,7 +98,8 @@ def make_parser() -> argparse.ArgumentParser:
         "--audience",
         choices=("public", "internal"),
         default="internal",
-        help="audience of the preview (default: internal)",
+        help="audience of the preview (default: internal, which shows internal notes and "
+        "embargoed events; public previews the public site)",
     )
     v.set_defaults(run=run_serve)
 
@@ -152,6 +159,7 @@ def run_build(args: argparse.Namespace) -> int:
         progress=sys.stderr.isatty(),
         strict=args.strict,
     )
+    _print_skipped(report.skipped)
     _print_warnings(report.warnings)
     print(summary_line(report))
     return 0
@@ -182,6 +190,7 @@ def run_check(args: argparse.Namespace) -> int:
     from factsheet.load import load_catalogue
 
     catalogue = load_catalogue(args.catalogue or demo_dir())
+    _print_skipped(catalogue.skipped)
     _print_warnings(catalogue.warnings)
     if args.strict and catalogue.warnings:
         print(f"{len(catalogue.warnings)} warnings, fatal with --strict", file=sys.stderr)
@@ -191,9 +200,15 @@ def run_check(args: argparse.Namespace) -> int:
     return 0
 
 
+def _print_skipped(skipped) -> None:
+    """The files and folders of the catalogue folder that were not read, and why."""
+    for path, reason in skipped:
+        print(f"skipped: {printable(str(path))}: {printable(reason)}", file=sys.stderr)
+
+
 def _print_warnings(warnings) -> None:
     for problem in warnings:
-        print(f"warning: {problem}", file=sys.stderr)
+        print(f"warning: {printable(str(problem))}", file=sys.stderr)
 
 
 def run_new(args: argparse.Namespace) -> int:

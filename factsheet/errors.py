@@ -24,6 +24,12 @@ class Problem:
         return f"{where}: {self.key}: {self.message}" if self.key else f"{where}: {self.message}"
 
 
+def printable(text: str) -> str:
+    """``text`` with control characters and lone surrogates written as escapes, so that no
+    input can drive the terminal a message is printed on."""
+    return "".join(c if c.isprintable() or c == " " else ascii(c)[1:-1] for c in text)
+
+
 class FactsheetError(Exception):
     """Base of every error factsheet raises on purpose."""
 

@@ -2,19 +2,28 @@
 
 The staging folder is exchanged with the old output in a single ``renameat2(RENAME_EXCHANGE)``
 call on Linux (two renames elsewhere, with recovery on the next run), so an interrupted or
-failed build never leaves a half-written site. A folder that factsheet did not make is never
-replaced unless the caller forces it.
+failed build never leaves a half-written site. Before anything is touched, :func:`check_output`
+refuses outputs that would put the user's files at risk; :class:`OutputLock` lets one build at a
+time work on an output; and :meth:`Staging.commit` swaps in only a site whose every linked file
+exists. A folder that factsheet did not make is never replaced unless the caller forces it.
 """
 
 from __future__ import annotations
 
 import ctypes
+import errno
 import os
+import re
 import shutil
 import tempfile
 from pathlib import Path, PurePosixPath
 
 from factsheet.errors import BuildError
+
+try:
+    import fcntl
+except ImportError:  # not a POSIX system: see OutputLock
+    fcntl = None  # type: ignore[assignment]
 
 MARKER = ".factsheet-site"
 PLACEHOLDER = "README.txt"
@@ -23,6 +32,123 @@ PLACEHOLDER_TEXT = (
     "Each build replaces its contents; edit the catalogue, not these files.\n"
 )
 _RENAME_EXCHANGE = 2
+
+
+def check_output(out: Path, catalogue: Path | None = None) -> None:
+    """Refuse, before anything is written, an output whose replacement would lose files.
+
+    Refused whatever ``--force`` says: an output that contains the catalogue or lies inside
+    it, the current folder or a parent of it, a file, a link, or a path under a file.
+    """
+    out = Path(out)
+    where = out.absolute()
+    if out.is_symlink():
+        raise BuildError(f"{out}: the output is a link; give the folder it points to, or another")
+    if out.exists() and not out.is_dir():
+        raise BuildError(f"{out}: the output is a file, not a folder; choose a folder")
+    for parent in where.parents:
+        if parent.exists() and not parent.is_dir():
+            raise BuildError(f"{out}: {parent} is a file, so the output cannot be made there")
+    real, here = where.resolve(), Path.cwd().resolve()
+    if here == real or here.is_relative_to(real):
+        raise BuildError(
+            f"{out}: the output would replace the current folder or one around it; "
+            "choose a folder of its own, e.g. -o site"
+        )
+    if catalogue is not None:
+        source = Path(catalogue).resolve()
+        if source == real or source.is_relative_to(real):
+            raise BuildError(
+                f"{out}: the output contains the catalogue {catalogue}; choose another"
+            )
+        if real.is_relative_to(source):
+            raise BuildError(
+                f"{out}: the output lies inside the catalogue {catalogue}; put it beside the "
+                "catalogue instead"
+            )
+
+
+class OutputLock:
+    """One build per output at a time: a lock file beside the output that names its holder.
+
+    The lock is an ``fcntl.flock`` on ``.factsheet-lock-<name>``: the kernel releases it when
+    the holder exits or is killed, so a lock left by a killed build is simply taken over. (Where
+    ``fcntl`` is missing, the file is created exclusively and a holder that no longer runs is
+    detected by its process id.)
+    """
+
+    def __init__(self, out: Path):
+        self.out = Path(out)
+        self.path = self.out.absolute().parent / f".factsheet-lock-{self.out.name}"
+        self.fd: int | None = None
+
+    def __enter__(self) -> OutputLock:
+        self.path.parent.mkdir(parents=True, exist_ok=True)
+        fd = _take(self.path) if fcntl is not None else _take_exclusive(self.path)
+        if fd is None:
+            holder = _holder(self.path)
+            raise BuildError(
+                f"{self.out}: another build into this output is running (process {holder}); "
+                "wait for it to finish, or stop it"
+            )
+        os.ftruncate(fd, 0)
+        os.write(fd, f"{os.getpid()}\n".encode())
+        self.fd = fd
+        HELD.add(fd)
+        return self
+
+    def __exit__(self, *exc: object) -> None:
+        if self.fd is not None:
+            HELD.discard(self.fd)
+            if fcntl is None:
+                self.path.unlink(missing_ok=True)
+            os.close(self.fd)  # releases the lock; the file stays for the next build
+            self.fd = None
+
+
+def _take(path: Path) -> int | None:
+    """The locked file descriptor of ``path``, or None when another process holds the lock."""
+    fd = os.open(path, os.O_RDWR | os.O_CREAT, 0o644)
+    try:
+        fcntl.flock(fd, fcntl.LOCK_EX | fcntl.LOCK_NB)  # type: ignore[union-attr]
+    except OSError as exc:
+        os.close(fd)
+        if exc.errno in (errno.EAGAIN, errno.EACCES, errno.EWOULDBLOCK):
+            return None
+        raise
+    return fd
+
+
+def _take_exclusive(path: Path) -> int | None:
+    """Without fcntl: create ``path`` exclusively, clearing it first if its holder is gone."""
+    holder = _holder(path)
+    if holder.isdigit() and not _running(int(holder)):
+        path.unlink(missing_ok=True)
+    try:
+        return os.open(path, os.O_RDWR | os.O_CREAT | os.O_EXCL, 0o644)
+    except FileExistsError:
+        return None
+
+
+def _holder(path: Path) -> str:
+    try:
+        return path.read_text(encoding="ascii", errors="replace").strip() or "unknown"
+    except OSError:
+        return "unknown"
+
+
+def _running(pid: int) -> bool:
+    try:
+        os.kill(pid, 0)
+    except ProcessLookupError:
+        return False
+    except PermissionError:
+        return True
+    return True
+
+
+#: File descriptors of the locks this process holds (worker processes close their copies).
+HELD: set[int] = set()
 
 
 class Staging:
@@ -34,6 +160,7 @@ class Staging:
 
     def __init__(self, out: Path, force: bool = False):
         self.out = Path(out)
+        self.committed = False
         self.out.parent.mkdir(parents=True, exist_ok=True)
         recover(self.out)
         if not force and not replaceable(self.out):
@@ -44,25 +171,23 @@ class Staging:
         self.folder = Path(
             tempfile.mkdtemp(prefix=f".factsheet-new-{self.out.name}-", dir=self.out.parent)
         )
-        self.committed = False
 
     def write(self, name: str, content: bytes) -> None:
         target = self.folder / _safe_relative(name)
         target.parent.mkdir(parents=True, exist_ok=True)
         target.write_bytes(content)
 
-    def link(self, name: str, source: Path) -> None:
-        """Place an existing file (from the build cache) at ``name``: hard link, else copy."""
-        target = self.folder / _safe_relative(name)
-        target.parent.mkdir(parents=True, exist_ok=True)
-        try:
-            os.link(source, target)
-        except OSError:
-            shutil.copyfile(source, target)
-
     def commit(self) -> None:
+        """Check that every page's links resolve, then swap the staged site in."""
         if not (self.folder / PLACEHOLDER).exists():
             self.write(PLACEHOLDER, PLACEHOLDER_TEXT.encode())
+        missing = missing_links(self.folder)
+        if missing:
+            shown = "; ".join(f"{page} links {target}" for page, target in missing[:5])
+            raise BuildError(
+                f"{self.out}: the new site is incomplete ({len(missing)} missing files: {shown}); "
+                "nothing was published"
+            )
         self.write(MARKER, b"made by factsheet\n")
         self.folder.chmod(0o755)
         _swap_in(self.folder, self.out)
@@ -77,6 +202,27 @@ class Staging:
 
     def __exit__(self, *exc) -> None:
         self.abort()
+
+
+_LINK = re.compile(rb"""(?:href|src)="([^"#?]*)""")
+
+
+def missing_links(folder: Path) -> list[tuple[str, str]]:
+    """Every (page, target) where an HTML page of the site links a file that is not there.
+
+    Links with a scheme (``https:``, ``mailto:``, ``data:``) and fragments are not files of the
+    site and are skipped.
+    """
+    found = []
+    for page in sorted(folder.rglob("*.html")):
+        for match in _LINK.finditer(page.read_bytes()):
+            link = match.group(1).decode("utf-8", "replace")
+            if not link or ":" in link.split("/")[0]:
+                continue
+            target = (page.parent / link).resolve()
+            if not target.is_file():
+                found.append((page.relative_to(folder).as_posix(), link))
+    return found
 
 
 def publish(files: dict[str, bytes], out: Path, force: bool = False) -> None:

@@ -33,7 +33,7 @@ from pathlib import Path
 from urllib.parse import unquote, unquote_to_bytes, urlsplit
 
 from factsheet.build import build
-from factsheet.errors import FactsheetError
+from factsheet.errors import FactsheetError, printable
 
 VERSION_PATH = "/__factsheet/version"
 RELOAD_PATH = "/__factsheet/reload.js"
@@ -180,7 +180,7 @@ class PreviewServer(http.server.ThreadingHTTPServer):
         exc = sys.exc_info()[1]
         if isinstance(exc, ConnectionError | TimeoutError):
             return
-        print(f"preview: a request failed: {exc!r}", file=sys.stderr)
+        print(f"preview: a request failed: {printable(repr(exc))}", file=sys.stderr)
 
 
 def _with_reload(html: bytes) -> bytes:
@@ -237,7 +237,7 @@ def rebuild(catalogue: Path, out: Path, audience: str, state: State) -> bool:
         build(catalogue, out, audience, jobs=1)
     except FactsheetError as exc:
         lines = [str(p) for p in exc.problems] or [str(exc)]
-        print("\n".join(f"error: {line}" for line in lines), file=sys.stderr)
+        print("\n".join(f"error: {printable(line)}" for line in lines), file=sys.stderr)
         print("the last good site is still being served", file=sys.stderr)
         return False
     with state.lock:

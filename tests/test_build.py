@@ -10,6 +10,7 @@ from helpers import VALID_EVENT
 
 from factsheet import build as build_module
 from factsheet.build import build
+from factsheet.load import files
 from factsheet.render import site as render_site_module
 
 SAMPLES = "heavier.mass [Msun],lighter.mass [Msun],distance [Mpc]\n"
@@ -40,14 +41,22 @@ def _count_calls(monkeypatch, owner, name) -> list:
 def test_each_input_file_is_read_once_per_build(catalogue, tmp_path, monkeypatch):
     folder = _catalogue(catalogue)
     opened = []
-    original = pathlib.Path.open
+    original_open, original_regular = pathlib.Path.open, files.open_regular
 
-    def spy(self, *args, **kwargs):
-        if self.parent.resolve() == folder.resolve():
-            opened.append(self.name)
-        return original(self, *args, **kwargs)
+    def spy(path, *args, **kwargs):
+        if pathlib.Path(path).parent.resolve() == folder.resolve():
+            opened.append(pathlib.Path(path).name)
 
-    monkeypatch.setattr(pathlib.Path, "open", spy)
+    def spy_open(self, *args, **kwargs):
+        spy(self)
+        return original_open(self, *args, **kwargs)
+
+    def spy_regular(path, *args, **kwargs):
+        spy(path)
+        return original_regular(path, *args, **kwargs)
+
+    monkeypatch.setattr(pathlib.Path, "open", spy_open)  # any way a file is opened
+    monkeypatch.setattr(files, "open_regular", spy_regular)
     build(folder, tmp_path / "site", jobs=1)
     assert sorted(opened) == ["one.yaml", "two.csv", "two.yaml"]
     opened.clear()

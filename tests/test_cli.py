@@ -76,3 +76,16 @@ def test_help_for_each_command():
     for command in ("build", "check", "new"):
         result = run(command, "--help")
         assert result.returncode == 0 and "usage: factsheet" in result.stdout
+
+
+def test_skipped_files_are_named(catalogue, capsys):
+    cat = catalogue(
+        {
+            "a.yaml": VALID_EVENT,
+            ".github/workflows/ci.yml": "on: push\n",
+            ".hidden.yaml": "anything: 1\n",
+        }
+    )
+    assert main(["check", str(cat)]) == 0
+    err = capsys.readouterr().err
+    assert "skipped: " in err and ".github" in err and ".hidden.yaml" in err

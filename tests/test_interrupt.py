@@ -119,3 +119,49 @@ def test_failed_build_leaves_existing_folder_whole(tmp_path):
     assert failed.returncode == 1 and "Traceback" not in failed.stderr
     assert f"{old / 'mer34-001.csv'}:1: header:" in failed.stderr
     assert _snapshot(out) == before
+
+
+def _alive_with(text: str) -> list[int]:
+    """Processes (not zombies) whose command line mentions ``text``."""
+    found = []
+    for proc in Path("/proc").iterdir():
+        if not proc.name.isdigit():
+            continue
+        try:
+            cmdline = (proc / "cmdline").read_bytes().replace(b"\0", b" ").decode()
+            state = (proc / "status").read_text().split("State:")[1].split()[0]
+        except (OSError, IndexError):
+            continue
+        if text in cmdline and state != "Z":
+            found.append(int(proc.name))
+    return found
+
+
+def test_workers_die_with_a_killed_build(tmp_path):
+    if not Path("/proc/self/cmdline").exists():
+        raise AssertionError("this test reads /proc (Linux)")
+    cat = tmp_path / "cat"
+    shutil.copytree(demo_dir(), cat)
+    out = tmp_path / "unique-output-name"
+    for _attempt in range(5):
+        process = subprocess.Popen(
+            _command(cat, out, "-j", "2"),
+            env=ENV,
+            stdout=subprocess.DEVNULL,
+            stderr=subprocess.DEVNULL,
+        )
+        deadline = time.monotonic() + 60
+        while len(_alive_with(str(out))) < 3 and time.monotonic() < deadline:
+            time.sleep(0.05)  # the build and its two workers are running
+        workers = [pid for pid in _alive_with(str(out)) if pid != process.pid]
+        process.send_signal(signal.SIGKILL)
+        process.wait()
+        deadline = time.monotonic() + 10
+        while _alive_with(str(out)) and time.monotonic() < deadline:
+            time.sleep(0.1)
+        assert not _alive_with(str(out)), f"workers {workers} outlived the killed build"
+        if len(workers) == 2:
+            break
+    else:
+        raise AssertionError("the build never ran two workers to kill")
+    assert _build(cat, out).returncode == 0  # and the next build goes ahead

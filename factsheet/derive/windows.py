@@ -22,7 +22,7 @@ def windows(
     """Counterpart windows in UTC, the reason when there are none, and their caveats."""
     if c.disrupted:
         found = counterparts.rest_frame_windows(event.time, z, ref.windows)
-        return tuple(found), "", [_planning_caveat()]
+        return tuple(found), _none_left(found), _window_notes(len(ref.windows) - len(found))
     if event.host is not None and kick_samples is not None:
         host = event.host
         found = counterparts.agn_windows(
@@ -35,9 +35,29 @@ def windows(
             host.disk_aspect_ratio,
             level,
         )
-        return tuple(found), "", [_planning_caveat()]
+        return tuple(found), _none_left(found), _window_notes(2 - len(found))
     empty, reason = counterparts.vacuum_windows()
     return tuple(empty), reason, []
+
+
+def _none_left(found: list[Window]) -> str:
+    return "" if found else "Every window would end after the year 9999, so none is given."
+
+
+def _window_notes(left_out: int) -> list[Caveat]:
+    """The planning-aid caveat, and one for windows that would end after the year 9999."""
+    notes = [_planning_caveat()]
+    if left_out:
+        notes.append(
+            Caveat(
+                "windows-beyond-calendar",
+                "notice",
+                f"{left_out} counterpart window{'s' if left_out > 1 else ''} would end after the "
+                "year 9999, beyond any date the site can write, and "
+                f"{'are' if left_out > 1 else 'is'} left out.",
+            )
+        )
+    return notes
 
 
 def _planning_caveat() -> Caveat:

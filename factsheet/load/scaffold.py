@@ -64,9 +64,18 @@ def write_new_event(event_id: str, folder: Path) -> Path:
                 )
             ]
         )
-    folder.mkdir(parents=True, exist_ok=True)
     path = folder / f"{event_id}.yaml"
-    if path.exists():
-        raise InputError(problems=[Problem(path, None, "", "file exists; not overwriting it")])
-    path.write_text(TEMPLATE.format(id=event_id), encoding="utf-8")
+    if folder.exists() and not folder.is_dir():
+        raise InputError(problems=[Problem(folder, None, "", "is a file, not a folder")])
+    try:
+        folder.mkdir(parents=True, exist_ok=True)
+        with path.open("x", encoding="utf-8") as handle:  # never overwrite an existing file
+            handle.write(TEMPLATE.format(id=event_id))
+    except FileExistsError:
+        exists = Problem(path, None, "", "file exists; not overwriting it")
+        raise InputError(problems=[exists]) from None
+    except OSError as exc:
+        where = exc.filename or folder
+        message = f"cannot write the new event file here ({exc.strerror})"
+        raise InputError(problems=[Problem(where, None, "", message)]) from None
     return path

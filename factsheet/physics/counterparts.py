@@ -118,12 +118,28 @@ def observed_delay(delay: u.Quantity, redshift) -> u.Quantity:
     return (1 + _redshift(redshift)) * require(delay, "time", "delay") * u.s
 
 
+#: The last UTC time a calendar date can be written for (ISO 8601 has four-digit years).
+LAST_UTC = "9999-12-31T23:59:59"
+
+
+class BeyondCalendar(ValueError):
+    """A window that ends after the last date a calendar can show (year 9999)."""
+
+
 def utc_window(t_merger: Time, redshift, start: u.Quantity, end: u.Quantity) -> tuple[Time, Time]:
-    """Start and end in UTC of the rest-frame range [start, end] (docs/methods.md §13 rule)."""
+    """Start and end in UTC of the rest-frame range [start, end] (docs/methods.md §13 rule).
+
+    A window ending after the year 9999 raises :class:`BeyondCalendar`.
+    """
     first_delay = observed_delay(start, redshift)
     last_delay = observed_delay(end, redshift)
     if last_delay < first_delay:
         raise ValueError(f"window end {end} is before its start {start}")
+    with warnings.catch_warnings():
+        warnings.filterwarnings("ignore", message=".*dubious year")
+        room = (Time(LAST_UTC, scale="utc") - Time(t_merger, scale="utc")).to(u.s)
+    if last_delay > room:
+        raise BeyondCalendar(f"the window ends {last_delay.to(u.yr):.3g} after the merger")
     with warnings.catch_warnings():
         # Past the end of the leap-second table ERFA warns of a "dubious year"; no future
         # leap second is assumed there, which is all a planning window needs.
@@ -139,8 +155,15 @@ def window_from_spec(t_merger: Time, redshift, spec: RestFrameSpec) -> Window:
 
 
 def rest_frame_windows(t_merger: Time, redshift, specs) -> list[Window]:
-    """UTC windows of every spec, e.g. those of a disrupted neutron star (docs/methods.md §13)."""
-    return [window_from_spec(t_merger, redshift, spec) for spec in specs]
+    """UTC windows of every spec, e.g. those of a disrupted neutron star (docs/methods.md §13);
+    windows that would end after the year 9999 are left out."""
+    found = []
+    for spec in specs:
+        try:
+            found.append(window_from_spec(t_merger, redshift, spec))
+        except BeyondCalendar:
+            continue
+    return found
 
 
 def vacuum_windows() -> tuple[list[Window], str]:
@@ -273,6 +296,9 @@ def agn_windows(
     repeat = repeat_delay_range(smbh_mass, orbit_radius_rg, flare, kick_samples, credible_level)
     windows = []
     for delays, key in ((flare, AGN_FLARE), (repeat, AGN_REPEAT_FLARE)):
-        start, end = utc_window(t_merger, redshift, delays.start, delays.end)
+        try:
+            start, end = utc_window(t_merger, redshift, delays.start, delays.end)
+        except BeyondCalendar:  # left out: it would end after the year 9999
+            continue
         windows.append(Window(key, AGN_BAND, "agn_disk", start, end, delays.basis))
     return windows

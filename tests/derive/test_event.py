@@ -343,3 +343,13 @@ def test_every_summary_carries_the_catalogue_credible_level():
     for r in (wide, narrow):
         s = r.quantities["distance"]
         assert [s.low, s.median, s.high] == pytest.approx([270.0, 440.0, 620.0], rel=0.03)
+
+
+def test_windows_past_the_year_9999_are_left_out_with_a_caveat(tmp_path):
+    # A 1e10 Msun central black hole and an orbit of 1e8 gravitational radii: half an orbit
+    # takes about 1.5e10 years (Kepler, docs/methods.md §13), far past any date of the calendar.
+    far = event(host={"smbh_mass": "1e10 Msun", "orbit_radius": 1e8})
+    r = derive(far)
+    assert r.windows == ()
+    assert "windows-beyond-calendar" in codes(r)
+    assert "9999" in r.no_window_reason

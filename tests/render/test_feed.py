@@ -36,7 +36,7 @@ estimate:
 """
 REVISED = """\
 id: B-2
-title: "Revised \\x01 twice"
+title: "Revised ]]> twice"
 time: "2034-04-02T08:30:00"
 estimate:
   heavier: {mass: 38 +4 -4 Msun, spin: 0.2 +0.2 -0.2}
@@ -179,12 +179,21 @@ def test_entry_ids_are_stable_across_builds(derived, monkeypatch):
 
 def test_hostile_text_is_escaped(derived):
     feed = atom_feed(change_entries(derived), derived[0].settings)
-    assert b"<script>" not in feed and b"\x01" not in feed
+    assert b"<script>" not in feed and b"]]>" not in feed
     assert b"&lt;script&gt;alert(1)&lt;/script&gt; &amp; friends" in feed
     root = parse(feed)
     titles = [e.find(f"{ATOM}title").text for e in root.findall(f"{ATOM}entry")]
     assert "A-1 added: First estimate — <script>alert(1)</script> & friends" in titles
-    assert any(t.endswith("Revised  twice") for t in titles)
+    assert any(t.endswith("Revised ]]> twice") for t in titles)
+
+
+def test_characters_xml_forbids_are_dropped(derived):
+    # The loader refuses control characters; the feed drops any that reach it all the same.
+    entries = [replace(e, title="A \x01 b\ufffe") for e in change_entries(derived)]
+    feed = atom_feed(entries, derived[0].settings)
+    assert b"\x01" not in feed and "\ufffe".encode() not in feed
+    titles = [e.find(f"{ATOM}title").text for e in parse(feed).findall(f"{ATOM}entry")]
+    assert all(t.endswith("A  b") for t in titles)
 
 
 def test_absolute_links_with_a_base_url(derived):
