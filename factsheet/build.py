@@ -130,8 +130,15 @@ def _build_locked(events, settings, out, audience, force, jobs, progress):
     cache = Cache(out)
     with Staging(out, force) as staging:
         bundles, made = make_bundles(events, settings, cache, jobs or os.cpu_count() or 1, progress)
-        for bundle in bundles:
-            cache.copy_files(bundle.key, staging.write)
+        for i, bundle in enumerate(bundles):
+            try:
+                cache.copy_files(bundle.key, staging.write)
+            except BuildError:  # its files changed since they were stored: make it again
+                bundles[i] = cache.store(
+                    bundle.key, event_bundle(events[i], settings, bundle.derived.reference)
+                )
+                made.append(bundles[i])
+                cache.copy_files(bundle.key, staging.write)
         index = _index_figures(bundles, settings, cache)
 
         def memo(parts: tuple, make) -> dict[str, bytes]:

@@ -309,3 +309,17 @@ def test_a_published_site_has_its_marker_and_no_staging_left(cat, tmp_path):
         "cat",
         "site",
     ]
+
+
+def test_damage_of_the_same_size_is_caught_by_the_hash(cat, tmp_path):
+    out = tmp_path / "site"
+    build(cat, out, jobs=1)
+    good = tree(out)
+    for damaged in _cache(tmp_path).rglob("TEST-1.wav"):
+        data = bytearray(damaged.read_bytes())
+        data[-1] ^= 0xFF  # one bit pattern changed, the size unchanged
+        damaged.write_bytes(bytes(data))
+    report = build(cat, out, jobs=1)
+    assert report.reused == 0  # made again, not published as it was
+    assert tree(out) == good
+    assert build(cat, out, jobs=1).reused == 1  # and the repaired entry is used next time
