@@ -41,6 +41,7 @@ from factsheet.model import (
     Summary,
 )
 from factsheet.physics.counterparts import Window
+from factsheet.publish import regular_files
 from factsheet.resources import PACKAGE
 
 FORMAT = "3"
@@ -173,16 +174,17 @@ class Cache:
             return False
 
     def _read_files(self, key: str, recorded: dict[str, Any]) -> dict[str, bytes]:
-        base = (self.root / key / "files").resolve()
+        """The files of an entry, each checked against its recorded size and hash. Only plain
+        files inside the entry's folder are read: a link planted there is damage, not data."""
+        base = self.root / key / "files"
+        present = set(regular_files(base)) if base.is_dir() and not base.is_symlink() else set()
         found = {}
         for name, record in recorded.items():
-            path = (base / name).resolve()
             try:
-                bad = not path.is_relative_to(base) or path.stat().st_size != record["size"]
-                data = b"" if bad else path.read_bytes()
+                data = (base / name).read_bytes() if name in present else b""
             except OSError:
-                bad = True
-            if bad or hashlib.sha256(data).hexdigest() != record["sha256"]:
+                data = b""
+            if len(data) != record["size"] or hashlib.sha256(data).hexdigest() != record["sha256"]:
                 raise BuildError(f"{self.root / key}: cache entry damaged ({name})")
             found[name] = data
         return found

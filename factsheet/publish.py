@@ -13,9 +13,11 @@ from __future__ import annotations
 import ctypes
 import errno
 import os
+import posixpath
 import re
 import shutil
 import tempfile
+from collections.abc import Iterator
 from pathlib import Path, PurePosixPath
 
 from factsheet.errors import BuildError
@@ -213,16 +215,26 @@ def missing_links(folder: Path) -> list[tuple[str, str]]:
     Links with a scheme (``https:``, ``mailto:``, ``data:``) and fragments are not files of the
     site and are skipped.
     """
+    files = set(regular_files(folder))
     found = []
-    for page in sorted(folder.rglob("*.html")):
-        for match in _LINK.finditer(page.read_bytes()):
+    for page in sorted(p for p in files if p.endswith(".html")):
+        for match in _LINK.finditer((folder / page).read_bytes()):
             link = match.group(1).decode("utf-8", "replace")
             if not link or ":" in link.split("/")[0]:
                 continue
-            target = (page.parent / link).resolve()
-            if not target.is_file():
-                found.append((page.relative_to(folder).as_posix(), link))
+            if posixpath.normpath(posixpath.join(posixpath.dirname(page), link)) not in files:
+                found.append((page, link))
     return found
+
+
+def regular_files(folder: Path, prefix: str = "") -> Iterator[str]:
+    """Site paths of the regular files under ``folder`` (links are not followed)."""
+    with os.scandir(folder) as entries:
+        for entry in entries:
+            if entry.is_dir(follow_symlinks=False):
+                yield from regular_files(Path(entry.path), f"{prefix}{entry.name}/")
+            elif entry.is_file(follow_symlinks=False):
+                yield f"{prefix}{entry.name}"
 
 
 def publish(files: dict[str, bytes], out: Path, force: bool = False) -> None:

@@ -323,3 +323,15 @@ def test_damage_of_the_same_size_is_caught_by_the_hash(cat, tmp_path):
     assert report.reused == 0  # made again, not published as it was
     assert tree(out) == good
     assert build(cat, out, jobs=1).reused == 1  # and the repaired entry is used next time
+
+
+def test_a_link_planted_in_the_cache_is_not_followed(cat, tmp_path):
+    out = tmp_path / "site"
+    build(cat, out, jobs=1)
+    for cached in _cache(tmp_path).rglob("TEST-1-masses.svg"):
+        elsewhere = tmp_path / "elsewhere.svg"
+        elsewhere.write_bytes(cached.read_bytes())  # even with the recorded bytes behind it
+        cached.unlink()
+        cached.symlink_to(elsewhere)
+    assert build(cat, out, jobs=1).reused == 0
+    assert not (out / "events" / "TEST-1-masses.svg").is_symlink()
