@@ -64,6 +64,15 @@ EXPORT_QUANTITIES = (
 )
 
 
+#: Mass-band edges in solar masses, in the form the mass-plane figure takes (test values).
+PLANE_EDGES = {
+    "neutron_star_max": 2.3,
+    "lower_gap_top": 5.0,
+    "pair_instability_lower": 55.0,
+    "pair_instability_upper": 130.0,
+}
+
+
 def write_catalogue(folder: Path, files: dict[str, str]) -> Path:
     """Write ``files`` (name -> text) into ``folder`` and return it."""
     folder.mkdir(parents=True, exist_ok=True)

@@ -17,6 +17,7 @@ from collections.abc import Callable
 import astropy.units as u
 import numpy as np
 import pytest
+from helpers import PLANE_EDGES as EDGES
 from hypothesis import HealthCheck, given, settings
 from hypothesis import strategies as st
 from matplotlib.text import Text
@@ -40,12 +41,6 @@ from factsheet.figures import (
     window_timeline,
 )
 
-EDGES = {
-    "neutron_star_max": 2.3,
-    "lower_gap_top": 5.0,
-    "pair_instability_lower": 55.0,
-    "pair_instability_upper": 130.0,
-}
 HOSTILE = ["$5 to $10", "$\\nonexistent$", "\\alpha", "^_{}", "$x^2$ and $$", "a $ b", "\\$7"]
 _COMMENT = re.compile(r"<!-- (.*?) -->", re.S)
 

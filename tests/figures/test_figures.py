@@ -7,6 +7,7 @@ from __future__ import annotations
 
 import datetime as dt
 import hashlib
+import os
 import re
 import subprocess
 import sys
@@ -18,6 +19,7 @@ import matplotlib
 import matplotlib.pyplot as plt
 import numpy as np
 import pytest
+from helpers import PLANE_EDGES as EDGES
 from matplotlib.colors import to_hex, to_rgba
 from matplotlib.container import ErrorbarContainer
 from matplotlib.figure import Figure
@@ -47,12 +49,6 @@ from factsheet.figures.timeline import duration_words
 from factsheet.figures.track import MAX_TRACK_POINTS
 from factsheet.figures.words import interval_words
 
-EDGES = {
-    "neutron_star_max": 2.3,
-    "lower_gap_top": 5.0,
-    "pair_instability_lower": 55.0,
-    "pair_instability_upper": 130.0,
-}
 DAY_S = (1 * u.day).to_value(u.s)
 
 
@@ -365,9 +361,15 @@ def test_svg_is_byte_identical_across_processes():
         "import hashlib, test_figures as t; from factsheet.figures import to_svg; "
         "print(hashlib.sha256(to_svg(t.intervals().figure) + to_svg(t.track().figure)).hexdigest())"
     )
-    tests_dir = str(Path(__file__).parent)
+    here_dir = Path(__file__).parent
+    env = {**os.environ, "PYTHONPATH": str(here_dir.parent)}  # for the shared test helpers
     out = subprocess.run(
-        [sys.executable, "-c", code], capture_output=True, text=True, check=True, cwd=tests_dir
+        [sys.executable, "-c", code],
+        capture_output=True,
+        text=True,
+        check=True,
+        cwd=here_dir,
+        env=env,
     )
     assert out.stdout.strip() == here
 
