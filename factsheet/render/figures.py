@@ -18,7 +18,7 @@ from factsheet import figures as fg
 from factsheet import labels
 from factsheet.model import Derived, SiteFigure
 from factsheet.physics import inspiral
-from factsheet.physics.comparisons import in_energy_units
+from factsheet.render.contexts import display_summary
 from factsheet.render.history import CURRENT_LABEL
 
 ENERGY_KEYS = (
@@ -114,11 +114,17 @@ def _track(item: Derived) -> fg.Track:
     )
 
 
+def _median_as_shown(summary, energy_units: str) -> u.Quantity:
+    """A median in the unit the sheet's table and the index show it in (J or erg, W or erg/s)."""
+    shown = display_summary(summary, energy_units)
+    return shown.median * u.Unit(shown.unit)
+
+
 def _comparisons(item: Derived, base: str) -> list[SiteFigure]:
     ref, q, units = item.reference, item.quantities, item.settings.energy_units
     energies, lums, names = ref.energies(), ref.luminosities(), ref.comparison_labels()
-    energy = in_energy_units(q["energy_radiated"].median * u.Unit(q["energy_radiated"].unit), units)
-    peak = in_energy_units(q["peak_luminosity"].median * u.Unit(q["peak_luminosity"].unit), units)
+    energy = _median_as_shown(q["energy_radiated"], units)
+    peak = _median_as_shown(q["peak_luminosity"], units)
     e_others = [(names[k], energies[k].to(energy.unit)) for k in ENERGY_KEYS if k in energies]
     l_others = [(names[k], lums[k].to(peak.unit)) for k in LUMINOSITY_KEYS if k in lums]
     return [
