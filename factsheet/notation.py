@@ -55,36 +55,79 @@ def _scale(median: float, low: float, high: float) -> int:
     return math.floor(math.log10(ref))
 
 
+def _interval_parts(median: float, low: float, high: float) -> tuple[int, int, tuple[float, ...]]:
+    """The power of ten factored out, the decimal place kept, and the scaled numbers.
+
+    The place follows the smaller side of the uncertainty (PDG rule); with no uncertainty, four
+    significant digits. When rounding carries into the next decade (9.996 → 10.00), the power
+    is raised so that a mantissa never reads "10.0 × 10ⁿ".
+    """
+    power = _scale(median, low, high)
+    for _ in range(2):
+        m, lo, hi = (x / 10**power for x in (median, low, high))
+        errs = [e for e in (hi - m, m - lo) if e > 0]
+        place = decimal_place(min(errs)) if errs else _significant_place(m, 4)
+        if not power or abs(round(m, -place)) < 10:
+            break
+        power += 1
+    return power, place, (m, lo, hi)
+
+
+def _times_power(text: str, power: int, wrap: bool) -> str:
+    if not power:
+        return text
+    body = f"({text})" if wrap else text
+    return f"{body} × 10{str(power).translate(SUPERSCRIPT)}"
+
+
 def format_interval(median: float, low: float, high: float, unit: str = "") -> str:
     """``median +plus −minus unit``, rounded by the uncertainty (PDG rule)."""
-    power = _scale(median, low, high)
-    m, lo, hi = (x / 10**power for x in (median, low, high))
+    power, place, (m, lo, hi) = _interval_parts(median, low, high)
     plus, minus = hi - m, m - lo
-    errs = [e for e in (plus, minus) if e > 0]
-    place = decimal_place(min(errs)) if errs else _significant_place(m, 4)
     text = _fmt(m, place)
+    errs = plus > 0 or minus > 0
     if errs:
         text += f" +{_fmt(plus, place)} −{_fmt(minus, place)}"
-    if power:
-        text = (
-            f"({text}) × 10{str(power).translate(SUPERSCRIPT)}"
-            if errs
-            else (f"{text} × 10{str(power).translate(SUPERSCRIPT)}")
-        )
-    suffix = unit_text(unit)
-    return f"{text} {suffix}".strip()
+    return f"{_times_power(text, power, errs)} {unit_text(unit)}".strip()
+
+
+def format_median(median: float, low: float, high: float, unit: str = "") -> str:
+    """The median alone, rounded exactly as :func:`format_interval` rounds it.
+
+    Captions, figure labels and prose use it so that one quantity reads the same everywhere.
+    """
+    power, place, (m, _, _) = _interval_parts(median, low, high)
+    return f"{_times_power(_fmt(m, place), power, False)} {unit_text(unit)}".strip()
+
+
+def format_about(median: float, low: float, high: float, unit: str = "") -> str:
+    """The median to the one digit the interval supports, for prose ("about 6 billion years"
+    when the interval spans 4.4–7.4): rounded at the leading digit of the smaller side."""
+    errs = [e for e in (high - median, median - low) if e > 0]
+    if not errs:
+        return format_value(median, unit, 2)
+    place = math.floor(math.log10(min(errs)))
+    rounded = round(median, -place)
+    if rounded == 0:
+        return format_value(median, unit, 1)
+    return format_value(rounded, unit, max(1, _significant_place(rounded, 1) - place + 1))
 
 
 def format_value(value: float, unit: str = "", digits: int = 2) -> str:
-    """A single value to ``digits`` significant figures (for prose and comparisons)."""
+    """A single value to ``digits`` significant figures (for prose and comparisons).
+
+    The value is rounded before its power of ten is chosen, so 9.96 reads "10" and 9.956e-4
+    reads "1.0 × 10⁻³", never "10.0" or "10.0 × 10⁻⁴".
+    """
     if value == 0 or not math.isfinite(value):
         return f"{value:g} {unit_text(unit)}".strip()
+    place = _significant_place(value, digits)
+    value = round(value, -place)
+    place = _significant_place(value, digits)
     power = _scale(value, value, value)
     mantissa = value / 10**power
     text = _fmt(mantissa, _significant_place(mantissa, digits))
-    if power:
-        text = f"{text} × 10{str(power).translate(SUPERSCRIPT)}"
-    return f"{text} {unit_text(unit)}".strip()
+    return f"{_times_power(text, power, False)} {unit_text(unit)}".strip()
 
 
 def percent(level: float) -> str:

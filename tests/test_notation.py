@@ -3,7 +3,14 @@
 
 import pytest
 
-from factsheet.notation import decimal_place, format_interval, format_value, unit_text
+from factsheet.notation import (
+    decimal_place,
+    format_about,
+    format_interval,
+    format_median,
+    format_value,
+    unit_text,
+)
 
 
 @pytest.mark.parametrize(
@@ -45,3 +52,27 @@ def test_format_value_significant_figures():
 
 def test_a_value_that_rounds_to_zero_has_no_minus_sign():
     assert format_interval(-0.0002, -0.0302, 0.0298) == "0.000 +0.030 −0.030"
+
+
+def test_rounding_that_carries_into_the_next_decade():
+    # 9.96 to two significant figures is 10, and 9.956e-4 is 1.0e-3: never "10.0" or
+    # "10.0 × 10⁻⁴" (a mantissa of ten is not scientific notation).
+    assert format_value(9.96) == "10"
+    assert format_value(9.956e-6) == "1.0 × 10⁻⁵"
+    assert format_value(99_960) == "1.0 × 10⁵"
+    assert format_interval(9.97e-6, 9.57e-6, 9.97e-6) == "(1.00 +0.00 −0.04) × 10⁻⁵"
+
+
+def test_median_reads_as_in_the_interval():
+    # A caption or a figure label prints the same median as the table row of the quantity.
+    assert format_interval(74.8, 66.1, 80.3, "Hz") == "75 +6 −9 Hz"
+    assert format_median(74.8, 66.1, 80.3, "Hz") == "75 Hz"
+    assert format_interval(0.000789, 0.00071, 0.00088, "s") == "(7.9 +0.9 −0.8) × 10⁻⁴ s"
+    assert format_median(0.000789, 0.00071, 0.00088, "s") == "7.9 × 10⁻⁴ s"
+
+
+def test_prose_rounds_to_the_digit_the_interval_supports():
+    # An interval spanning 4.4-7.4 (billion years) supports "about 6", not "about 6.1".
+    assert format_about(6.1, 4.4, 7.4) == "6"
+    assert format_about(780, 480, 1040, "Mpc") == "800 Mpc"
+    assert format_about(2.43, 1.9, 3.0) == "2.4"
