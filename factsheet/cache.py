@@ -243,7 +243,6 @@ def bundle_to_json(bundle: EventBundle) -> dict[str, Any]:
         "class_probabilities": dict(d.class_probabilities),
         "mass_bands": {k: dict(v) for k, v in d.mass_bands.items()},
         "intermediate_mass": dict(d.intermediate_mass),
-        "lookback_gyr": float(d.lookback_time.to_value(u.Gyr)),
         "disruption_probability": d.disruption_probability,
         "windows": [_window_json(w) for w in d.windows],
         "no_window_reason": d.no_window_reason,
@@ -278,12 +277,13 @@ def bundle_from_json(
         settings=settings,
         reference=reference,
         quantities=quantities,
-        caveats=tuple(Caveat(**c) for c in data["caveats"]),
+        caveats=tuple(
+            Caveat(**{**c, "concerns": tuple(c.get("concerns", ()))}) for c in data["caveats"]
+        ),
         source_class=str(data["source_class"]),
         class_probabilities=dict(data["class_probabilities"]),
         mass_bands={k: dict(v) for k, v in data["mass_bands"].items()},
         intermediate_mass=dict(data["intermediate_mass"]),
-        lookback_time=float(data["lookback_gyr"]) * u.Gyr,
         disruption_probability=data["disruption_probability"],
         windows=tuple(_window(w) for w in data["windows"]),
         no_window_reason=str(data["no_window_reason"]),

@@ -19,7 +19,7 @@ class QuantityLabel:
 
     name: str
     short: str
-    group: str  # the part of the sheet it belongs to: measured, derived, remnant or signal
+    group: str  # the part of the sheet it belongs to: a key of GROUPS
     prose: str = ""  # inside a sentence; the name with a lower-case first letter when empty
 
     @property
@@ -28,34 +28,32 @@ class QuantityLabel:
 
 
 Q = QuantityLabel
-#: Quantities in the order a sheet lists them.
+#: Quantities in the order a sheet lists them, each in the group of the sheet it belongs to.
 QUANTITIES: dict[str, QuantityLabel] = {
-    "heavier_mass": Q("Mass of the heavier body m₁", "m₁", "measured", "the heavier body's mass"),
-    "lighter_mass": Q("Mass of the lighter body m₂", "m₂", "measured", "the lighter body's mass"),
-    "distance": Q("Luminosity distance", "Distance", "measured", "the luminosity distance"),
-    "effective_spin": Q("Effective spin χ_eff", "χ_eff", "measured", "the effective spin"),
-    "heavier_spin": Q(
-        "Aligned spin of the heavier body χ₁", "χ₁", "measured", "the heavier body's spin"
-    ),
-    "lighter_spin": Q(
-        "Aligned spin of the lighter body χ₂", "χ₂", "measured", "the lighter body's spin"
-    ),
-    "redshift": Q("Redshift z", "z", "derived", "the redshift"),
-    "total_mass": Q("Total mass", "Total mass", "derived"),
-    "chirp_mass": Q("Chirp mass", "Chirp mass", "derived"),
-    "mass_ratio": Q("Mass ratio q = m₂/m₁", "q", "derived", "the mass ratio"),
+    "heavier_mass": Q("Mass of the heavier body m₁", "m₁", "bodies", "the heavier body's mass"),
+    "lighter_mass": Q("Mass of the lighter body m₂", "m₂", "bodies", "the lighter body's mass"),
     "heavier_mass_detector": Q(
-        "Mass of the heavier body (detector frame)", "m₁ (detector frame)", "derived"
+        "Mass of the heavier body (detector frame)", "m₁ (detector frame)", "bodies"
     ),
     "lighter_mass_detector": Q(
-        "Mass of the lighter body (detector frame)", "m₂ (detector frame)", "derived"
+        "Mass of the lighter body (detector frame)", "m₂ (detector frame)", "bodies"
     ),
+    "total_mass": Q("Total mass", "Total mass", "bodies"),
     "total_mass_detector": Q(
-        "Total mass (detector frame)", "Total mass (detector frame)", "derived"
+        "Total mass (detector frame)", "Total mass (detector frame)", "bodies"
     ),
+    "chirp_mass": Q("Chirp mass", "Chirp mass", "bodies"),
     "chirp_mass_detector": Q(
-        "Chirp mass (detector frame)", "Chirp mass (detector frame)", "derived"
+        "Chirp mass (detector frame)", "Chirp mass (detector frame)", "bodies"
     ),
+    "mass_ratio": Q("Mass ratio q = m₂/m₁", "q", "bodies", "the mass ratio"),
+    "heavier_spin": Q(
+        "Aligned spin of the heavier body χ₁", "χ₁", "bodies", "the heavier body's spin"
+    ),
+    "lighter_spin": Q(
+        "Aligned spin of the lighter body χ₂", "χ₂", "bodies", "the lighter body's spin"
+    ),
+    "effective_spin": Q("Effective spin χ_eff", "χ_eff", "bodies", "the effective spin"),
     "remnant_mass": Q("Remnant mass", "Remnant mass", "remnant"),
     "remnant_spin": Q("Remnant spin", "Remnant spin", "remnant"),
     "radiated_mass": Q("Mass-energy radiated", "Mass-energy radiated", "remnant"),
@@ -75,8 +73,29 @@ QUANTITIES: dict[str, QuantityLabel] = {
     "arm_length_change": Q(
         "Arm-length change per arm (leading order)", "Arm-length change", "signal"
     ),
+    "distance": Q("Luminosity distance", "Distance", "where", "the luminosity distance"),
+    "redshift": Q("Redshift z", "z", "where", "the redshift"),
+    "lookback_time": Q(
+        "Time since the merger (lookback time)", "Lookback time", "where", "the lookback time"
+    ),
 }
 del Q
+
+#: The groups of a sheet's numbers, in page order: each answers one question a reader has.
+GROUPS = {
+    "bodies": "The two bodies",
+    "remnant": "What they became",
+    "signal": "The signal in the detectors",
+    "where": "How far and how long ago",
+}
+
+#: How a number of a sheet came about, for the mark beside it.
+KINDS = {
+    "given": "measured",  # an input value, shown as given
+    "fixed": "fixed in the analysis",  # an exact input value: assumed, not measured
+    "samples": "measured",  # summarised from the samples file
+    "derived": "derived",  # computed here from the inputs
+}
 
 #: Parameters that fits are calibrated on but that are not quantities of a sheet.
 PARAMETERS = {"compactness": "the neutron star's compactness", "spin": "the black hole's spin"}

@@ -375,17 +375,24 @@ class Summary:
 
 @dataclass(frozen=True)
 class Caveat:
-    """One caveat: a stable code, a level (info, notice, warning) and plain text."""
+    """One caveat: a stable code, a level (info, notice, warning) and plain text.
+
+    ``concerns`` names the quantities (keys of :attr:`Derived.quantities`) whose rows the
+    caveat bears on, so a sheet can mark those rows; a caveat about the whole sheet has none.
+    """
 
     code: str
     level: str
     text: str
     editorial: bool = False
+    concerns: tuple[str, ...] = ()  # quantity keys of the rows it bears on (empty: the sheet)
 
     def as_dict(self) -> dict[str, Any]:
         data: dict[str, Any] = {"code": self.code, "level": self.level, "text": self.text}
         if self.editorial:
             data["editorial"] = True
+        if self.concerns:
+            data["concerns"] = list(self.concerns)
         return data
 
 
@@ -415,7 +422,6 @@ class Derived:
     class_probabilities: Mapping[str, float]
     mass_bands: Mapping[str, Mapping[str, float]]  # subject -> band -> probability
     intermediate_mass: Mapping[str, float]  # subject -> probability of >= the threshold
-    lookback_time: u.Quantity  # at the median redshift, for the prose
     disruption_probability: float | None = None
     windows: tuple[Window, ...] = ()
     no_window_reason: str = ""

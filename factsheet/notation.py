@@ -100,6 +100,55 @@ def format_median(median: float, low: float, high: float, unit: str = "") -> str
     return f"{_times_power(_fmt(m, place), power, False)} {unit_text(unit)}".strip()
 
 
+def _given_place(x: float) -> int:
+    """The decimal place of the last digit of a number as written in the input (up to six
+    significant digits; a unit conversion's float noise is ignored)."""
+    if x == 0 or not math.isfinite(x):
+        return 0
+    place = math.floor(math.log10(abs(x))) - 5
+    while place < 12 and math.isclose(round(x, -(place + 1)), x, rel_tol=1e-9, abs_tol=0):
+        place += 1
+    return place
+
+
+def _given_parts(median: float, low: float, high: float) -> tuple[int, int, float]:
+    power = _scale(median, low, high)
+    m, lo, hi = (x / 10**power for x in (median, low, high))
+    nonzero = [x for x in (m, hi - m, m - lo) if x]
+    return power, min((_given_place(x) for x in nonzero), default=0), m
+
+
+def format_given(median: float, low: float, high: float, unit: str = "") -> str:
+    """An interval given in the input, with the digits it was given with ("950 +450 -400"
+    stays "950 +450 −400"; the PDG rule would print "1000 +500 −400"): the sheet shows what the
+    editors wrote. Very large or small numbers factor out a power of ten as usual."""
+    power, place, m = _given_parts(median, low, high)
+    hi, lo = high / 10**power, low / 10**power
+    text = _fmt(m, place)
+    errs = hi > m or lo < m
+    if errs:
+        text += f" +{_fmt(hi - m, place)} −{_fmt(m - lo, place)}"
+    return f"{_times_power(text, power, errs)} {unit_text(unit)}".strip()
+
+
+def format_given_median(median: float, low: float, high: float, unit: str = "") -> str:
+    """The median alone, as :func:`format_given` prints it."""
+    power, place, m = _given_parts(median, low, high)
+    return f"{_times_power(_fmt(m, place), power, False)} {unit_text(unit)}".strip()
+
+
+def format_like_interval(
+    value: float, median: float, low: float, high: float, unit: str = ""
+) -> str | None:
+    """``value`` (a fit spread) at the decimal place and power of ten of the interval's
+    rounding, or None when it rounds to zero there and so does not matter beside it."""
+    power, place, _ = _interval_parts(median, low, high)
+    scaled = round(value / 10**power, -place)
+    if scaled == 0:
+        return None
+    return f"{_times_power(_fmt(scaled, place), power, False)} {unit_text(unit)}".strip()
+
+
 def format_about(median: float, low: float, high: float, unit: str = "") -> str:
     """The median to the one digit the interval supports, for prose ("about 6 billion years"
     when the interval spans 4.4–7.4): rounded at the leading digit of the smaller side."""
@@ -139,3 +188,26 @@ def _significant_place(x: float, digits: int) -> int:
     if x == 0:
         return 0
     return math.floor(math.log10(abs(x))) - digits + 1
+
+
+def how_often(per_year: float) -> str:
+    """A rate in plain words: "about twice a year", "about once in 80 years"."""
+    if per_year <= 0:
+        return "never"
+    if per_year < 0.75:
+        return f"about once in {_plain(1 / per_year)} years"
+    for unit, size in (("day", 365.25), ("month", 12.0), ("year", 1.0)):
+        count = per_year / size
+        if count >= 0.75 or unit == "year":
+            break
+    if count < 1.5:
+        return f"about once a {unit}"
+    if count < 2.5:
+        return f"about twice a {unit}"
+    return f"about {_plain(count)} times a {unit}"
+
+
+def _plain(x: float) -> str:
+    """Two significant figures without a trailing ".0" (2.0 → "2", 2.5 → "2.5")."""
+    text = format_value(x)
+    return text.removesuffix(".0")

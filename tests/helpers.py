@@ -61,6 +61,7 @@ EXPORT_QUANTITIES = (
     "cycles_in_band",
     "strain_amplitude",
     "arm_length_change",
+    "lookback_time",
 )
 
 

@@ -171,7 +171,8 @@ def test_sheets_state_the_detection_and_class_probabilities(demo_site):
     assert detection["network"] and detection["snr"] > 0
     assert detection["false_alarm_rate"]["unit"] == "1 / yr"
     page = (demo_site / "events" / "MER34-008.html").read_text(encoding="utf-8")
-    assert "Network signal-to-noise ratio" in page and "Neutron star torn apart" in page
+    assert "combined signal-to-noise ratio of" in page and "torn apart" in page
+    assert "neutron star–black hole (NSBH)" in page  # the class in words at its first use
     for name in detection["network"]:
         assert name in page
 

@@ -11,16 +11,21 @@ import astropy.units as u
 from factsheet import labels
 from factsheet.derive.sampling import BODY_SPINS, drawn_from_summary, used_paths
 from factsheet.model import Caveat, Event
+from factsheet.notation import how_often
 
 
-def status_caveat(event: Event) -> Caveat | None:
+def status_caveat(event: Event, far_threshold: u.Quantity | None = None) -> Caveat | None:
+    """A candidate or a retraction; a candidate's caveat also says how often noise alone makes
+    such a signal when its false-alarm rate is above ``far_threshold`` (one box, not two)."""
     if event.status == "candidate":
-        return Caveat(
-            "candidate",
-            "warning",
-            "This is a candidate: it has not been confirmed as an "
-            "astrophysical signal and may be withdrawn.",
+        text = (
+            "This is a candidate: it has not been confirmed as an astrophysical signal "
+            "and may be withdrawn."
         )
+        far = event.detection.false_alarm_rate
+        if far is not None and far_threshold is not None and far > far_threshold:
+            text += f" {_noise_alone(far)}, so treat it as marginal."
+        return Caveat("candidate", "warning", text)
     if event.status == "retracted":
         return Caveat(
             "retracted",
@@ -29,6 +34,10 @@ def status_caveat(event: Event) -> Caveat | None:
             "an astrophysical signal. The numbers are kept for the record only.",
         )
     return None
+
+
+def _noise_alone(far: u.Quantity) -> str:
+    return f"Noise alone would make a signal like this {how_often(far.to_value(1 / u.yr))}"
 
 
 def sampling_caveat(event: Event) -> Caveat | None:
@@ -107,10 +116,12 @@ def editorial_caveats(event: Event) -> list[Caveat]:
     ]
 
 
-def input_caveats(event: Event, cosmology: str) -> list[Caveat]:
+def input_caveats(
+    event: Event, cosmology: str, far_threshold: u.Quantity | None = None
+) -> list[Caveat]:
     """Caveats that follow from the input alone, most important first."""
     found = [
-        status_caveat(event),
+        status_caveat(event, far_threshold),
         sampling_caveat(event),
         spin_caveat(event),
         redshift_caveat(event, cosmology),
@@ -121,18 +132,16 @@ def input_caveats(event: Event, cosmology: str) -> list[Caveat]:
 def significance_caveats(
     event: Event, far_threshold: u.Quantity, sky_threshold: u.Quantity
 ) -> list[Caveat]:
-    """Low significance and large sky area (thresholds are common practice, not a standard)."""
+    """Low significance (of a confirmed event: a candidate's own caveat says it) and large sky
+    area (thresholds are common practice, not a standard)."""
     notes = []
     far, sky = event.detection.false_alarm_rate, event.detection.sky_area
-    if far is not None and far > far_threshold:
-        per = (1 / far).to(u.yr).value
+    if far is not None and far > far_threshold and event.status == "confirmed":
         notes.append(
             Caveat(
                 "low-significance",
                 "warning",
-                f"The false-alarm rate is high "
-                f"(one per {per:.2g} years of data): noise could produce a signal "
-                "like this one, so treat it as marginal.",
+                f"{_noise_alone(far)}, so treat it as marginal.",
             )
         )
     if sky is not None and sky > sky_threshold:

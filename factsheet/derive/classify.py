@@ -47,24 +47,37 @@ def mass_bands(
     """Band probabilities and the intermediate-mass probability of each subject (the two bodies
     and, when there is one, the remnant), with a caveat for each band edge a mass straddles."""
     edges = ref.mass_bands.quantities()
-    found, intermediate, notes = {}, {}, []
+    found, intermediate, straddled = {}, {}, []
     for subject, key in SUBJECT_MASSES.items():
         if key not in s:
             continue
         probs = bands.band_probabilities(s[key], edges)
         found[subject] = probs
         intermediate[subject] = bands.intermediate_mass_probability(s[key], edges)
-        for edge in bands.straddles(probs):
-            notes.append(
-                Caveat(
-                    "band-straddles-edge",
-                    "notice",
-                    f"{labels.sentence(labels.QUANTITIES[key].in_prose)} straddles the "
-                    f"{labels.EDGES[edge]} ({edges[edge].to_value(u.Msun):g} M⊙); that edge is "
-                    "itself uncertain in the literature, so the band labels are soft.",
-                )
-            )
-    return found, intermediate, notes
+        straddled += [(key, edge) for edge in bands.straddles(probs)]
+    return found, intermediate, _straddle_notes(straddled, edges)
+
+
+def _straddle_notes(straddled: list[tuple[str, str]], edges: dict[str, u.Quantity]) -> list[Caveat]:
+    """One caveat for every band edge a mass straddles, naming each mass and its edge."""
+    if not straddled:
+        return []
+    parts = [
+        f"{labels.QUANTITIES[key].in_prose} straddles the {labels.EDGES[edge]} "
+        f"({edges[edge].to_value(u.Msun):g} M⊙)"
+        for key, edge in straddled
+    ]
+    listed = parts[0] if len(parts) == 1 else "; ".join(parts[:-1]) + "; and " + parts[-1]
+    these = "that edge is" if len(parts) == 1 else "these edges are"
+    return [
+        Caveat(
+            "band-straddles-edge",
+            "notice",
+            f"{labels.sentence(listed)}: {these} uncertain in the literature, so the band "
+            "labels are soft.",
+            concerns=tuple(dict.fromkeys(key for key, _ in straddled)),
+        )
+    ]
 
 
 def remnant_allowed(c: Classification) -> tuple[bool, Caveat | None]:

@@ -15,7 +15,13 @@ from astropy.cosmology import realizations
 from factsheet.derive import caveats as cv
 from factsheet.derive.classify import classify, mass_bands, remnant_allowed
 from factsheet.derive.remnant import Computed, inspiral_quantities, remnant_quantities
-from factsheet.derive.sampling import BODY_SPINS, draw_estimate, fill_missing, used_paths
+from factsheet.derive.sampling import (
+    BODY_SPINS,
+    draw_estimate,
+    drawn_from_summary,
+    fill_missing,
+    used_paths,
+)
 from factsheet.derive.summaries import summarise
 from factsheet.derive.windows import comparison_values, methods_used, windows
 from factsheet.load.reference import reference_for
@@ -41,6 +47,7 @@ def derive_event(event: Event, settings: Settings, reference: Reference | None =
             values, level, computed.frames.get(name), computed.methods[name],
             computed.spreads.get(name),
         )  # fmt: skip
+    quantities["lookback_time"] = lookback(quantities["redshift"], settings.cosmology)
     bands, intermediate, band_notes = mass_bands(s, reference)
     z = float(np.median(s["redshift"].value))
     found, no_window, window_notes = windows(
@@ -51,7 +58,7 @@ def derive_event(event: Event, settings: Settings, reference: Reference | None =
         medians.get("energy_radiated"), medians.get("peak_luminosity"), reference
     )
     notes = [
-        *cv.input_caveats(event, settings.cosmology),
+        *cv.input_caveats(event, settings.cosmology, settings.low_significance_rate),
         *([gate_note] if gate_note else []),
         *computed.caveats,
         *band_notes,
@@ -68,13 +75,25 @@ def derive_event(event: Event, settings: Settings, reference: Reference | None =
         class_probabilities=c.probabilities,
         mass_bands=bands,
         intermediate_mass=intermediate,
-        lookback_time=getattr(realizations, settings.cosmology).lookback_time(z).to(u.Gyr),
         disruption_probability=c.disruption_probability,
         windows=found,
         no_window_reason=no_window,
         comparisons=compared,
         other_methods=methods_used(c, found, compared),
         samples=s,
+    )
+
+
+def lookback(redshift: Summary, cosmology_name: str) -> Summary:
+    """The time since the merger (lookback time) at the redshift's median and bounds: the
+    lookback time grows with redshift, so the bounds of one are the bounds of the other."""
+    cosmo = getattr(realizations, cosmology_name)
+    low, median, high = cosmo.lookback_time([redshift.low, redshift.median, redshift.high])
+    return Summary(
+        *(float(t.to_value(u.Gyr)) for t in (median, low, high)),
+        "Gyr",
+        redshift.level,
+        methods=redshift.methods,
     )
 
 
@@ -122,6 +141,15 @@ def base_samples(event: Event, settings: Settings) -> dict[str, u.Quantity]:
     return s
 
 
+#: Units of the input quantities with one (the rest are dimensionless).
+BASE_UNITS = {
+    "heavier_mass": u.Msun,
+    "lighter_mass": u.Msun,
+    "heavier_mass_detector": u.Msun,
+    "lighter_mass_detector": u.Msun,
+    "distance": u.Mpc,
+}
+
 #: The input quantities a sheet summarises, with their frames.
 BASE_FRAMES = {
     "heavier_mass": SOURCE,
@@ -153,8 +181,45 @@ def _summarise_base(event: Event, s: dict[str, u.Quantity], level: float) -> dic
     skipped = {path.replace(".", "_") for path in BODY_SPINS if path not in given}
     if not given & {*BODY_SPINS, "effective_spin"}:
         skipped.add("effective_spin")
-    return {
+    found = {
         name: summarise(s[name], level, frame, methods.get(name, ()))
         for name, frame in BASE_FRAMES.items()
         if name not in skipped
     }
+    return found | given_summaries(event, level)
+
+
+def input_name(path: str, frame: str) -> str:
+    """The quantity key of an estimate value: ``heavier.mass`` is ``heavier_mass``, or
+    ``heavier_mass_detector`` when the masses were given in the detector frame."""
+    name = path.replace(".", "_")
+    return name + "_detector" if name.endswith("_mass") and frame == DETECTOR else name
+
+
+def measured_names(event: Event) -> dict[str, str]:
+    """The quantities an event's input gives, each with how: ``given`` (a summary in the
+    estimate), ``fixed`` (an exact value there: fixed in the analysis, so assumed, not
+    measured) or ``samples`` (a column of the samples file)."""
+    given = event.estimate.values()
+    from_file = set(event.samples.values) if event.samples is not None else set()
+    drawn = set(given) if event.samples is None else set(drawn_from_summary(event))
+    found = {input_name(path, event.frame): "samples" for path in from_file}
+    for path in drawn & set(given):
+        found[input_name(path, event.frame)] = "fixed" if given[path].exact else "given"
+    return found
+
+
+def given_summaries(event: Event, level: float) -> dict[str, Summary]:
+    """The values the estimate gives as summaries, as given: the sheet shows what the editors
+    wrote (``88 +17 -14``), not the same interval re-summarised from the draws (``88 +17 -13``).
+    Values that come from a samples file are summarised from its samples instead."""
+    given = event.estimate.values()
+    drawn = set(given) if event.samples is None else set(drawn_from_summary(event))
+    found = {}
+    for path in sorted(drawn & set(given)):
+        name = input_name(path, event.frame)
+        value = given[path].to(BASE_UNITS.get(name, u.one))
+        found[name] = Summary(
+            value.median, value.low, value.high, value.unit.to_string(), level, BASE_FRAMES[name]
+        )
+    return found

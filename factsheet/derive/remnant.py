@@ -128,18 +128,14 @@ def inspiral_quantities(
                 f"{np.median(f_isco).to_value(u.Hz):.0f} Hz, observed) below the band edge of "
                 f"{low_frequency.to_value(u.Hz):g} Hz: what the detectors saw is mostly the merger "
                 "and ringdown, and the time and cycles in band are lower limits of little meaning.",
+                concerns=("isco_frequency", "time_in_band", "cycles_in_band"),
             )
         )
 
 
-def _percent(fraction: float) -> str:
-    return (
-        f"{fraction:.0%}"
-        if fraction >= 0.01
-        else f"{fraction:.1%}"
-        if fraction >= 0.001
-        else "<0.1%"
-    )
+#: Share of samples outside a fit's calibration below which no caveat is shown: a few per cent
+#: of extrapolated samples barely move a median or a 90 % bound (common practice, not a rule).
+MATTERS = 0.05
 
 
 def _calibration_caveats(s: dict[str, u.Quantity], spin: np.ndarray, out: Computed) -> None:
@@ -152,15 +148,17 @@ def _calibration_caveats(s: dict[str, u.Quantity], spin: np.ndarray, out: Comput
     used = {m for methods in out.methods.values() for m in methods}
     for method_id in sorted(used):
         outside = fraction_outside(method_id, **values)
-        if outside:
-            worst = max(outside.values())
-            names = ", ".join(labels.parameter(name) for name in sorted(outside))
-            out.caveats.append(
-                Caveat(
-                    "fit-outside-calibration",
-                    "warning" if worst > 0.5 else "notice",
-                    f"{METHODS[method_id].title}: {_percent(worst)} of the samples lie "
-                    f"outside the range the fit was calibrated on ({names}); its numbers there "
-                    "are extrapolated.",
-                )
+        worst = max(outside.values(), default=0.0)
+        if worst < MATTERS:
+            continue
+        names = ", ".join(labels.parameter(name) for name in sorted(outside))
+        concerns = tuple(k for k, methods in out.methods.items() if method_id in methods)
+        out.caveats.append(
+            Caveat(
+                "fit-outside-calibration",
+                "warning" if worst > 0.5 else "notice",
+                f"{METHODS[method_id].title}: {worst:.0%} of the samples lie outside the range "
+                f"the fit was calibrated on ({names}); its numbers there are extrapolated.",
+                concerns=concerns,
             )
+        )

@@ -9,6 +9,10 @@ from factsheet.model import Caveat, Comparisons, Event, Reference
 from factsheet.physics import bands, comparisons, counterparts, disruption
 from factsheet.physics.counterparts import Window
 
+RETRACTED_REASON = (
+    "The event was retracted: with no real merger there is no counterpart to look for."
+)
+
 
 def windows(
     event: Event,
@@ -20,6 +24,8 @@ def windows(
     level: float,
 ) -> tuple[tuple[Window, ...], str, list[Caveat]]:
     """Counterpart windows in UTC, the reason when there are none, and their caveats."""
+    if event.status == "retracted":
+        return (), RETRACTED_REASON, []
     if c.disrupted:
         found = counterparts.rest_frame_windows(event.time, z, ref.windows)
         return tuple(found), _none_left(found), _window_notes(len(ref.windows) - len(found))

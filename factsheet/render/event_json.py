@@ -30,7 +30,7 @@ CONTRACT_QUANTITIES = (
 JSON_QUANTITIES = (
     *CONTRACT_QUANTITIES, "heavier_mass_detector", "lighter_mass_detector",
     "total_mass_detector", "chirp_mass_detector", "cycles_in_band", "strain_amplitude",
-    "arm_length_change",
+    "arm_length_change", "lookback_time",
 )  # fmt: skip
 
 

@@ -1,49 +1,129 @@
-"""The headline of a sheet: two or three plain sentences written from the numbers."""
+"""The sentences of a sheet written from its numbers: the headline and the detection facts.
+
+The headline tells the truth about the status before anything else: a retracted event speaks
+of the signal in the past conditional, a candidate conditionally. Each body is named by the
+mass band it most probably lies in, not by the source class alone, and every number is rounded
+to the digits its interval supports (:func:`factsheet.notation.format_about`).
+"""
 
 from __future__ import annotations
 
 import astropy.units as u
 
-from factsheet.labels import CLASSES
-from factsheet.model import Derived
-from factsheet.notation import format_value
+from factsheet import labels
+from factsheet.derive.event import measured_names
+from factsheet.load.schema import WHOLE_SKY_DEG2
+from factsheet.model import Derived, Summary
+from factsheet.notation import (
+    format_about,
+    format_given_median,
+    format_median,
+    format_value,
+    how_often,
+    percent,
+)
+
+#: The class of a source in words at its first use on a page (the trade's abbreviation after).
+CLASS_WORDS = {
+    "BBH": "binary black hole (BBH)",
+    "BNS": "binary neutron star (BNS)",
+    "NSBH": "neutron star–black hole (NSBH)",
+}
+#: What a body in each mass band is called; ``None``: an object neither band can name.
+BODY_NOUNS = {
+    "neutron_star": "neutron star",
+    "lower_gap": None,
+    "stellar_black_hole": "black hole",
+    "pair_instability_gap": "black hole",
+    "above_gap": "black hole",
+}
+GAP_OBJECT = "heavier than any known neutron star and lighter than any known black hole"
 
 
-def _about(value: float) -> str:
-    return format_value(value, "", 2)
+def about(summary: Summary) -> str:
+    """A median in prose, to the digit its interval supports (ages)."""
+    return format_about(summary.median, summary.low, summary.high)
+
+
+def as_in_table(item: Derived, key: str, scale: float = 1.0) -> str:
+    """The median of a quantity exactly as the sheet's table prints it (an input value with
+    the digits it was given with, a derived one rounded by its uncertainty), without unit."""
+    s = item.quantities[key]
+    values = (scale * s.median, scale * s.low, scale * s.high)
+    if measured_names(item.event).get(key) in ("given", "fixed"):
+        return format_given_median(*values)
+    return format_median(*values)
+
+
+def likely_band(item: Derived, subject: str) -> str:
+    """The mass band a subject most probably lies in."""
+    probs = item.mass_bands.get(subject, {})
+    return max(probs, key=probs.get) if probs else "stellar_black_hole"
+
+
+def _body(item: Derived, subject: str) -> str:
+    """One body as the first sentence names it: "a black hole of about 49 solar masses"."""
+    mass = as_in_table(item, f"{subject}_mass")
+    noun = BODY_NOUNS[likely_band(item, subject)]
+    if noun is None:
+        return f"an object of about {mass} solar masses, {GAP_OBJECT},"
+    return f"a {noun} of about {mass} solar masses"
+
+
+def _bodies(item: Derived) -> str:
+    """Both bodies: "two black holes of about 49 and 5.4 solar masses" when one noun fits."""
+    nouns = [BODY_NOUNS[likely_band(item, s)] for s in ("heavier", "lighter")]
+    if nouns[0] == nouns[1] and nouns[0] is not None:
+        masses = [as_in_table(item, f"{s}_mass") for s in ("heavier", "lighter")]
+        return f"two {nouns[0]}s of about {masses[0]} and {masses[1]} times the mass of the Sun"
+    return f"{_body(item, 'heavier')} and {_body(item, 'lighter')}"
+
+
+def when(item: Derived) -> str:
+    """How long ago, to the digit the interval allows: "about 6 billion years ago"."""
+    t = item.quantities["lookback_time"]
+    if t.median >= 1:
+        return f"about {about(t)} billion years ago"
+    mega = Summary(t.median * 1e3, t.low * 1e3, t.high * 1e3, "Myr", t.level)
+    return f"about {about(mega)} million years ago"
 
 
 def headline(item: Derived) -> list[str]:
     """Two or three plain sentences from the numbers, for the top of a sheet."""
-    q = item.quantities
-    years = item.lookback_time.to_value(u.Gyr)
-    when = (
-        f"about {_about(years)} billion years ago"
-        if years >= 1
-        else f"about {_about(years * 1000)} million years ago"
-    )
-    text = [
-        f"{CLASSES.get(item.source_class, 'Two compact objects')} of about "
-        f"{_about(q['heavier_mass'].median)} and {_about(q['lighter_mass'].median)} times the "
-        f"mass of the Sun merged {when}; the waves reached the detectors on "
-        f"{item.event.time.utc.isot[:10]}."
-    ]
+    status, date = item.event.status, item.event.time.utc.isot[:10]
+    bodies = _bodies(item)
+    if status == "retracted":
+        return [
+            f"Had the signal been real, it would have come from {bodies} that merged "
+            f"{when(item)}, its waves reaching the detectors on {date}."
+        ]
+    first = f"{bodies} merged {when(item)}; the waves reached the detectors on {date}."
+    if status == "candidate":
+        first = f"If it is real, {first}"
+    text = [labels.sentence(first)]
+    text.extend(_remnant(item))
+    return text
+
+
+def _remnant(item: Derived) -> list[str]:
+    """What the merger left and gave off, and the comparison a reader can picture."""
+    q, text = item.quantities, []
     if "remnant_mass" in q:
-        spin = q["remnant_spin"].median
+        share = as_in_table(item, "remnant_spin", 100).lstrip("−")
         text.append(
-            f"They left a single black hole of about {_about(q['remnant_mass'].median)} "
-            f"solar masses, spinning at {abs(spin):.0%} of the maximum a black hole "
-            f"can have, and radiated about {_about(q['radiated_mass'].median)} solar "
-            "masses of energy as gravitational waves."
+            f"They left a single black hole of about {as_in_table(item, 'remnant_mass')} solar "
+            f"masses, spinning at about {share} % of the maximum a black hole can have, and "
+            f"radiated about {as_in_table(item, 'radiated_mass')} solar masses of energy as "
+            "gravitational waves."
         )
     compared = item.comparisons
     if compared.sun_years is not None and compared.luminosity:
         sun = compared.sun_years.to_value(u.yr)
+        line = f"The Sun would need about {format_value(sun, '', 1)} years to emit that energy"
         galaxy = compared.luminosity.get("milky_way")
-        line = f"The Sun would need about {format_value(sun, '', 2)} years to emit that energy"
         if galaxy:
             line += (
-                f"; at its peak the merger put out {format_value(galaxy, '', 2)} times "
+                f"; at its peak the merger put out about {format_value(galaxy, '', 1)} times "
                 "the light of all the stars in the Milky Way, as gravitational waves"
             )
         text.append(line + ".")
@@ -53,3 +133,55 @@ def headline(item: Derived) -> list[str]:
             "windows below say when to look."
         )
     return text
+
+
+def _listed(words: list[str]) -> str:
+    return words[0] if len(words) == 1 else ", ".join(words[:-1]) + " and " + words[-1]
+
+
+def detection(item: Derived, large_sky: bool = False) -> list[str]:
+    """The detection facts as sentences: who saw it, how loud, how significant, where."""
+    found, retracted = item.event.detection, item.event.status == "retracted"
+    text = []
+    seen = "As first reported, it was seen" if retracted else "Seen"
+    if found.network and found.snr is not None:
+        text.append(
+            f"{seen} by {_listed(list(found.network))} with a combined signal-to-noise ratio "
+            f"of {found.snr:g}."
+        )
+    elif found.network:
+        text.append(f"{seen} by {_listed(list(found.network))}.")
+    elif found.snr is not None:
+        text.append(f"Combined signal-to-noise ratio {found.snr:g}.")
+    if found.false_alarm_rate is not None and not retracted:
+        rate = found.false_alarm_rate.to_value(1 / u.yr)
+        text.append(f"Noise alone would make a signal like this {how_often(rate)}.")
+    if found.sky_area is not None:
+        area = found.sky_area.to_value(u.deg**2)
+        share = format_value(100 * area / WHOLE_SKY_DEG2, "", 1)
+        line = (
+            f"The 90 % credible sky region covers {format_value(area, '', 2)} square degrees, "
+            f"about {share} % of the sky"
+        )
+        text.append(line + (": a large area to search for a counterpart." if large_sky else "."))
+    text.append(class_sentence(item))
+    return text
+
+
+def class_sentence(item: Derived) -> str:
+    """The source class, with no more certainty than the masses alone can give."""
+    probs = item.class_probabilities
+    name = CLASS_WORDS.get(item.source_class, item.source_class)
+    others = [f"{k} {percent(p)}" for k, p in probs.items() if k != item.source_class and p >= 0.01]
+    verb = "it would have been" if item.event.status == "retracted" else "this is"
+    line = f"By its masses alone {verb} a {name} merger"
+    if others:
+        line += f" (other classes: {', '.join(others)})"
+    gap = [s for s in ("heavier", "lighter") if likely_band(item, s) == "lower_gap"]
+    if gap:
+        body = f"the {gap[0]} body" if len(gap) == 1 else "either body"
+        line += (
+            f"; but the masses cannot say what {body} is: a mass in the lower gap "
+            "fits neither a known neutron star nor a known black hole"
+        )
+    return line + "."

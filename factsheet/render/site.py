@@ -14,7 +14,7 @@ import jinja2
 
 from factsheet.load.reference import reference_for
 from factsheet.model import Derived, EventBundle, Settings, SiteFigure
-from factsheet.render import contexts, history, tables
+from factsheet.render import contexts, history, sheet, tables
 from factsheet.render.contexts import SiteContext, variables
 from factsheet.render.environment import make_environment, templates_fingerprint
 from factsheet.render.event_json import event_json
@@ -136,7 +136,7 @@ def render_event(
     page, data = contexts.page_of(item.event.id), f"data/{item.event.id}.json"
 
     def make() -> dict[str, bytes]:
-        context = contexts.event_page(item, previous, following, bundle.figures, bundle.audio)
+        context = sheet.event_page(item, previous, following, bundle.figures, bundle.audio)
         text = json.dumps(event_json(item), indent=2) + "\n"
         return {page: r.page("event.html", page, context), data: text.encode("utf-8")}
 

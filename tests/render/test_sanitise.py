@@ -174,7 +174,7 @@ def test_plain_text_survives_escaped(site):
         assert "Kept &lt;b&gt;plain&lt;/b&gt; &amp; words" in text
         assert "&lt;script&gt;alert(1)&lt;/script&gt;" in text
     assert "&lt;img src=x onerror=alert(1)&gt;" in page
-    network = "A1, &lt;script&gt;alert(1)&lt;/script&gt;, &lt;img src=x onerror=alert(1)&gt;"
+    network = "A1, &lt;script&gt;alert(1)&lt;/script&gt; and &lt;img src=x onerror=alert(1)&gt;"
     assert network in page
 
 
