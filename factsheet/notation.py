@@ -10,6 +10,7 @@ from __future__ import annotations
 
 import functools
 import math
+from decimal import ROUND_HALF_UP, Decimal
 
 import astropy.units as u
 
@@ -42,8 +43,16 @@ def _unit_text(key: str) -> str:
     return u.Unit(key).to_string("unicode").replace("M_⊙", "M⊙")
 
 
+def _round(x: float, place: int) -> float:
+    """``x`` rounded at the decimal place ``place``, halves away from zero as people round
+    (450 → 500 at the hundreds; Python's ``round`` gives 400), on the number's shortest decimal
+    form so that 0.45 rounds up too."""
+    step = Decimal(1).scaleb(place)
+    return float(Decimal(repr(float(x))).quantize(step, rounding=ROUND_HALF_UP))
+
+
 def _fmt(x: float, place: int) -> str:
-    rounded = round(x, -place) + 0.0  # + 0.0 turns a rounded -0.0 into 0.0: never print "−0"
+    rounded = _round(x, place) + 0.0  # + 0.0 turns a rounded -0.0 into 0.0: never print "−0"
     return f"{rounded:.{max(0, -place)}f}".replace("-", "−")
 
 
@@ -67,7 +76,7 @@ def _interval_parts(median: float, low: float, high: float) -> tuple[int, int, t
         m, lo, hi = (x / 10**power for x in (median, low, high))
         errs = [e for e in (hi - m, m - lo) if e > 0]
         place = decimal_place(min(errs)) if errs else _significant_place(m, 4)
-        if not power or abs(round(m, -place)) < 10:
+        if not power or abs(_round(m, place)) < 10:
             break
         power += 1
     return power, place, (m, lo, hi)
@@ -143,7 +152,7 @@ def format_like_interval(
     """``value`` (a fit spread) at the decimal place and power of ten of the interval's
     rounding, or None when it rounds to zero there and so does not matter beside it."""
     power, place, _ = _interval_parts(median, low, high)
-    scaled = round(value / 10**power, -place)
+    scaled = _round(value / 10**power, place)
     if scaled == 0:
         return None
     return f"{_times_power(_fmt(scaled, place), power, False)} {unit_text(unit)}".strip()
@@ -156,7 +165,7 @@ def format_about(median: float, low: float, high: float, unit: str = "") -> str:
     if not errs:
         return format_value(median, unit, 2)
     place = math.floor(math.log10(min(errs)))
-    rounded = round(median, -place)
+    rounded = _round(median, place)
     if rounded == 0:
         return format_value(median, unit, 1)
     return format_value(rounded, unit, max(1, _significant_place(rounded, 1) - place + 1))
@@ -171,7 +180,7 @@ def format_value(value: float, unit: str = "", digits: int = 2) -> str:
     if value == 0 or not math.isfinite(value):
         return f"{value:g} {unit_text(unit)}".strip()
     place = _significant_place(value, digits)
-    value = round(value, -place)
+    value = _round(value, place)
     place = _significant_place(value, digits)
     power = _scale(value, value, value)
     mantissa = value / 10**power

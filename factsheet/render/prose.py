@@ -101,19 +101,23 @@ def headline(item: Derived) -> list[str]:
     if status == "candidate":
         first = f"If it is real, {first}"
     text = [labels.sentence(first)]
-    text.extend(_remnant(item))
+    text.extend(_remnant(item, conditional=status == "candidate"))
     return text
 
 
-def _remnant(item: Derived) -> list[str]:
-    """What the merger left and gave off, and the comparison a reader can picture."""
+def _remnant(item: Derived, conditional: bool = False) -> list[str]:
+    """What the merger left and gave off, and the comparison a reader can picture (for a
+    candidate: what it would have left)."""
     q, text = item.quantities, []
+    left, radiated = (
+        ("would have left", "would have radiated") if conditional else ("left", "radiated")
+    )
     if "remnant_mass" in q:
         share = as_in_table(item, "remnant_spin", 100).lstrip("−")
         text.append(
-            f"They left a single black hole of about {as_in_table(item, 'remnant_mass')} solar "
+            f"They {left} a single black hole of about {as_in_table(item, 'remnant_mass')} solar "
             f"masses, spinning at about {share} % of the maximum a black hole can have, and "
-            f"radiated about {as_in_table(item, 'radiated_mass')} solar masses of energy as "
+            f"{radiated} about {as_in_table(item, 'radiated_mass')} solar masses of energy as "
             "gravitational waves."
         )
     compared = item.comparisons
