@@ -1,4 +1,5 @@
-"""The files of one sheet that take time to make: its figures and its chirp sound.
+"""The files of one sheet that take time to make: its figures and its chirp sound (and the
+copy of its samples file, published beside the JSON).
 
 :func:`event_files` runs in a build worker right after the event is derived. matplotlib is
 loaded only here, when something is drawn.
@@ -6,9 +7,12 @@ loaded only here, when something is drawn.
 
 from __future__ import annotations
 
+import hashlib
+
 import astropy.units as u
 
-from factsheet.model import Audio, Derived, FigureInfo
+from factsheet.errors import BuildError
+from factsheet.model import Audio, Derived, Event, FigureInfo
 
 
 def event_files(
@@ -32,5 +36,32 @@ def event_files(
     )
     audio = Audio(f"events/{item.event.id}.wav", chirp.description)
     files[audio.path] = chirp.wav
+    files.update(samples_copy(item))
     seconds = sum(f.seconds for f in drawn)
     return tuple(f.info for f in drawn), audio, files, seconds
+
+
+def samples_path(event: Event) -> str:
+    """Where a sheet's samples file is published (empty when the input has none)."""
+    if event.samples is None:
+        return ""
+    return f"data/{event.id}-samples{event.samples.path.suffix.lower()}"
+
+
+def samples_copy(item: Derived) -> dict[str, bytes]:
+    """The event's samples file as it was read (its digest is checked, so a file that changed
+    since it was loaded fails the build instead of publishing other numbers)."""
+    event = item.event
+    if event.samples is None:
+        return {}
+    try:
+        data = event.samples.path.read_bytes()
+    except OSError as exc:
+        raise BuildError(
+            f"{event.samples.path}: cannot read the samples file ({exc.strerror})"
+        ) from exc
+    if hashlib.sha256(data).hexdigest() != event.samples.digest:
+        raise BuildError(
+            f"{event.samples.path}: the samples file changed during the build; build again"
+        )
+    return {samples_path(event): data}

@@ -31,6 +31,7 @@ from factsheet.notation import (
     format_value,
 )
 from factsheet.render import prose
+from factsheet.render.assets import samples_path
 from factsheet.render.contexts import Link, display_summary, page_of, time_utc
 from factsheet.render.history import HistoryStep, history_steps
 from factsheet.render.windows import WindowRow, window_rows
@@ -145,6 +146,7 @@ class EventPage:
     previous: Link | None
     next: Link | None
     json_path: str
+    samples_path: str  # the published copy of the input's samples file, or ""
 
 
 def place(caveats: Iterable[Caveat]) -> dict[str, list[Caveat]]:
@@ -357,4 +359,5 @@ def event_page(
         previous=previous and Link(previous.event.id, page_of(previous.event.id)),
         next=following and Link(following.event.id, page_of(following.event.id)),
         json_path=f"data/{event.id}.json",
+        samples_path=samples_path(event),
     )
