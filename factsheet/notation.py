@@ -190,7 +190,7 @@ def format_value(value: float, unit: str = "", digits: int = 2) -> str:
 
 def percent(level: float) -> str:
     """A credible level (or another fraction) as people write it: ``90 %``, ``68.3 %``."""
-    return f"{100 * level:.3g} %"
+    return f"{100 * level:.3g} %"  # a no-break space keeps "90 %" on one line
 
 
 def _significant_place(x: float, digits: int) -> int:

@@ -18,6 +18,7 @@ import markdown as md
 import nh3
 from markupsafe import Markup
 
+from factsheet import __version__
 from factsheet.labels import QUANTITIES
 from factsheet.notation import format_interval, format_value, percent, unit_text
 from factsheet.resources import templates_dir
@@ -65,6 +66,7 @@ def make_environment() -> jinja2.Environment:
         percent=percent,
         label=lambda key: QUANTITIES[key].short,
     )
+    env.globals["factsheet_version"] = __version__
     return env
 
 

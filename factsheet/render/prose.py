@@ -116,7 +116,7 @@ def _remnant(item: Derived, conditional: bool = False) -> list[str]:
         share = as_in_table(item, "remnant_spin", 100).lstrip("−")
         text.append(
             f"They {left} a single black hole of about {as_in_table(item, 'remnant_mass')} solar "
-            f"masses, spinning at about {share} % of the maximum a black hole can have, and "
+            f"masses, spinning at about {share} % of the maximum a black hole can have, and "
             f"{radiated} about {as_in_table(item, 'radiated_mass')} solar masses of energy as "
             "gravitational waves."
         )
@@ -143,8 +143,9 @@ def _listed(words: list[str]) -> str:
     return words[0] if len(words) == 1 else ", ".join(words[:-1]) + " and " + words[-1]
 
 
-def detection(item: Derived, large_sky: bool = False) -> list[str]:
-    """The detection facts as sentences: who saw it, how loud, how significant, where."""
+def detection(item: Derived, large_sky: bool = False, rate_in_box: bool = False) -> list[str]:
+    """The detection facts as sentences: who saw it, how loud, how significant, where (the
+    false-alarm rate only when no caveat box before the numbers already says it)."""
     found, retracted = item.event.detection, item.event.status == "retracted"
     text = []
     seen = "As first reported, it was seen" if retracted else "Seen"
@@ -157,15 +158,15 @@ def detection(item: Derived, large_sky: bool = False) -> list[str]:
         text.append(f"{seen} by {_listed(list(found.network))}.")
     elif found.snr is not None:
         text.append(f"Combined signal-to-noise ratio {found.snr:g}.")
-    if found.false_alarm_rate is not None and not retracted:
+    if found.false_alarm_rate is not None and not retracted and not rate_in_box:
         rate = found.false_alarm_rate.to_value(1 / u.yr)
         text.append(f"Noise alone would make a signal like this {how_often(rate)}.")
     if found.sky_area is not None:
         area = found.sky_area.to_value(u.deg**2)
         share = format_value(100 * area / WHOLE_SKY_DEG2, "", 1)
         line = (
-            f"The 90 % credible sky region covers {format_value(area, '', 2)} square degrees, "
-            f"about {share} % of the sky"
+            f"The 90 % credible sky region covers {format_value(area, '', 2)} square degrees, "
+            f"about {share} % of the sky"
         )
         text.append(line + (": a large area to search for a counterpart." if large_sky else "."))
     text.append(class_sentence(item))

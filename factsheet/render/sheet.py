@@ -20,7 +20,7 @@ from __future__ import annotations
 from collections.abc import Iterable
 from dataclasses import dataclass
 
-from factsheet import labels
+from factsheet import __version__, labels
 from factsheet.derive.event import measured_names
 from factsheet.model import Audio, Caveat, Derived, Edge, Event, FigureInfo, Summary
 from factsheet.notation import (
@@ -147,6 +147,8 @@ class EventPage:
     next: Link | None
     json_path: str
     samples_path: str  # the published copy of the input's samples file, or ""
+    estimate_date: str  # the date the sheet's estimate is known by (see estimate_date())
+    version: str  # the factsheet version that made the sheet
 
 
 def place(caveats: Iterable[Caveat]) -> dict[str, list[Caveat]]:
@@ -252,7 +254,7 @@ def percents(probabilities: list[float]) -> tuple[str, ...]:
     for i in sorted(range(len(raw)), key=lambda i: whole[i] - raw[i])[:spare]:
         whole[i] += 1
     return tuple(
-        "<1 %" if w == 0 and p > 0 else f"{w} %" for w, p in zip(whole, probabilities, strict=True)
+        "<1 %" if w == 0 and p > 0 else f"{w} %" for w, p in zip(whole, probabilities, strict=True)
     )
 
 
@@ -284,7 +286,7 @@ def made(item: Derived, placed: dict[str, list[Caveat]]) -> tuple[str, ...]:
     level = round(100 * item.credible_level, 3)
     text = [
         STANDING,
-        f"Each value is a median with the bounds of its {level:g} % credible interval.",
+        f"Each value is a median with the bounds of its {level:g} % credible interval.",
         *(c.text for c in placed["routine"]),
     ]
     return tuple(text)
@@ -340,7 +342,7 @@ def event_page(
         time_utc=time_utc(event),
         opening=opening(event),
         headline=tuple(headline),
-        detection=tuple(prose.detection(item, large_sky)),
+        detection=tuple(prose.detection(item, large_sky, rate_in_box=_rate_in_box(placed))),
         boxes=tuple(placed["boxes"][:MAX_BOXES]),
         later=tuple(placed["boxes"][MAX_BOXES:]),
         groups=groups(item, notes, placed, shown),
@@ -360,4 +362,22 @@ def event_page(
         next=following and Link(following.event.id, page_of(following.event.id)),
         json_path=f"data/{event.id}.json",
         samples_path=samples_path(event),
+        estimate_date=estimate_date(event),
+        version=__version__,
     )
+
+
+def _rate_in_box(placed: dict[str, list[Caveat]]) -> bool:
+    """Whether a box before the numbers already gives the false-alarm rate in words."""
+    return any(
+        c.code == "low-significance" or (c.code == "candidate" and "Noise alone" in c.text)
+        for c in placed["boxes"][:MAX_BOXES]
+    )
+
+
+def estimate_date(event: Event) -> str:
+    """The day the sheet's estimate is known by: the latest dated estimate in the history (the
+    inputs date the current estimate no further: it is that one or a later one), or, for an
+    event without history, the day of the merger, when its one estimate was first reported."""
+    dated = [h.date for h in event.history if h.estimate is not None]
+    return (dated[-1] if dated else event.time).utc.isot[:10]

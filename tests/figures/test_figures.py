@@ -162,13 +162,13 @@ def test_component_intervals_structure_and_alt():
     colours = {to_hex(c.lines[0].get_color()) for c in containers(ax)}
     assert colours == {style.ROLE[r].lower() for r in ("primary", "secondary", "remnant")}
     assert "m₁ 36 (32–41) M⊙" in d.alt and "Remnant mass 62 (58–66) M⊙" in d.alt
-    assert d.alt.startswith("Medians with 90 % credible intervals: ")
+    assert d.alt.startswith("Medians with 90\xa0% credible intervals: ")
 
 
 def test_interval_alt_states_the_credible_level_it_is_given():
     d = intervals(level=0.68)
-    assert d.alt.startswith("Medians with 68 % credible intervals: ")
-    assert "90 %" not in d.alt
+    assert d.alt.startswith("Medians with 68\xa0% credible intervals: ")
+    assert "90\xa0%" not in d.alt
     assert "m₁ 36 (32–41) M⊙" in d.alt
 
 

@@ -31,7 +31,7 @@ def test_band_percentages_add_up_to_100(probabilities):
     shown = sheet.percents(probabilities)
     assert sum(int(p.split()[0]) for p in shown if not p.startswith("<")) == 100
     for p, text in zip(probabilities, shown, strict=True):
-        assert (text == "0 %") == (p == 0)
+        assert (text == "0\xa0%") == (p == 0)
 
 
 def test_window_times_fit_their_width():
