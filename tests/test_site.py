@@ -203,7 +203,9 @@ def test_cgs_energy_units_on_the_index(tmp_path):
     build(cat, tmp_path / "out", jobs=1)
     index = (tmp_path / "out" / "index.html").read_text(encoding="utf-8")
     page = (tmp_path / "out" / "events" / "TEST-1.html").read_text(encoding="utf-8")
-    row = re.search(r'<th scope="row">Energy radiated<br>.*?</th><td class="num">([^<]*)</td>', page)
+    row = re.search(
+        r'<th scope="row">Energy radiated<br>.*?</th><td class="num">([^<]*)</td>', page
+    )
     assert row and row.group(1).endswith(" erg")  # ~ 5e54 erg
     cells = re.findall(r'<td class="num" data-sort="[^"]*">([^<]*)</td>', index)
     assert row.group(1) in cells  # the same number in the same unit as the sheet
