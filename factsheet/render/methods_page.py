@@ -85,7 +85,7 @@ def methods_page(derived: list[Derived], reference: Reference) -> MethodsPage:
     edges = tuple(
         SourcedValue(
             e.label,
-            format_value(e.value.to_value("solMass"), "solMass", 3),
+            _value(e.value.to("solMass")),
             linked(e.source),
             linked(e.spread),
             e.overridden,
@@ -95,7 +95,7 @@ def methods_page(derived: list[Derived], reference: Reference) -> MethodsPage:
     comparisons = tuple(
         SourcedValue(
             c.label,
-            format_value(c.value.value, c.value.unit.to_string(), 3),
+            _value(c.value),
             linked(c.source),
             Markup(""),
             c.overridden,
@@ -103,6 +103,12 @@ def methods_page(derived: list[Derived], reference: Reference) -> MethodsPage:
         for c in reference.comparisons
     )
     return MethodsPage(entries, reference, scales, levels, edges, comparisons)
+
+
+def _value(q) -> str:
+    """A reference value to three significant figures. As a Python float: with numpy's float64,
+    a division by a large power of ten leaves a mantissa of 0.999… (read "1.000 × 10⁴⁴")."""
+    return format_value(float(q.value), q.unit.to_string(), 3)
 
 
 def method_entry(method: Method, events: tuple[str, ...]) -> MethodEntry:

@@ -169,3 +169,10 @@ def test_provenance_stays_in_the_code_and_the_data():
         for entry in entries:
             for key in ("source", "spread", "basis"):
                 assert not PROVENANCE.search(entry.get(key, "")), (name, entry.get(key))
+
+
+def test_reference_values_to_three_significant_figures(page):
+    text = " ".join(" ".join(page.text).split())
+    assert "1.00 × 10⁴⁴ J" in text  # the supernova's 10⁵¹ erg, never "1.000 × 10⁴⁴"
+    assert "2.30 M⊙" in text and "45.0 M⊙" in text
+    assert "1.000 × 10" not in text
