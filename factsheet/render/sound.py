@@ -16,6 +16,7 @@ from dataclasses import replace
 
 import astropy.units as u
 
+from factsheet import labels
 from factsheet.model import Audio, Derived, Summary
 from factsheet.notation import format_median, format_value, unit_text
 from factsheet.render.contexts import display_summary
@@ -62,8 +63,8 @@ def band_note(item: Derived) -> str | None:
         return None
     return (
         "Only the merger and the ringdown are in the detectors' band: the inspiral ends at "
-        f"{shown(item, 'isco_frequency')} (the ISCO frequency), below the band edge at "
-        f"{exact(edge, 'Hz')}."
+        f"{shown(item, 'isco_frequency')} ({labels.QUANTITIES['isco_frequency'].in_prose}), "
+        f"below the band edge at {exact(edge, 'Hz')}."
     )
 
 
