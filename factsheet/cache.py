@@ -251,7 +251,7 @@ def bundle_to_json(bundle: EventBundle) -> dict[str, Any]:
         "sun_years": None if d.comparisons.sun_years is None else d.comparisons.sun_years.value,
         "other_methods": list(d.other_methods),
         "figures": [[f.path, f.alt, f.caption] for f in bundle.figures],
-        "audio": [bundle.audio.path, bundle.audio.description],
+        "audio": asdict(bundle.audio),
         "figure_seconds": bundle.figure_seconds,
     }
 
@@ -295,9 +295,7 @@ def bundle_from_json(
         other_methods=tuple(data["other_methods"]),
     )
     figures = tuple(FigureInfo(*map(str, f)) for f in data["figures"])
-    return EventBundle(
-        derived, figures, Audio(*map(str, data["audio"])), {}, data["figure_seconds"]
-    )
+    return EventBundle(derived, figures, Audio(**data["audio"]), {}, data["figure_seconds"])
 
 
 def _window(w: dict[str, Any]) -> Window:

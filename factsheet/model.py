@@ -467,10 +467,16 @@ class SiteFigure:
 
 @dataclass(frozen=True)
 class Audio:
-    """The chirp sound of a sheet: its site path and how it was made, in a sentence."""
+    """The chirp sound of a sheet: its site path, how it was made (in words, with the numbers as
+    the sheet's table prints them) and its length in seconds (the shifted copy has the same);
+    and, when the sound lies below what small speakers play, the path and words of a copy
+    shifted up into their range (None and "" otherwise)."""
 
     path: str
     description: str
+    duration_s: float
+    shifted_path: str | None = None
+    shifted_description: str = ""
 
 
 @dataclass(frozen=True)

@@ -254,3 +254,14 @@ def test_sheet_prints_on_two_a4_pages_or_fewer(visit, http_root, path):
 def test_sheet_fits_a_phone_width(visit, http_root, path):
     v = visit(http_root + path, width=390)
     assert v.page.evaluate("document.documentElement.scrollWidth") <= 390
+
+
+@pytest.mark.parametrize("scheme", ["light", "dark"])
+def test_methods_page_fits_a_phone_width(visit, http_root, scheme):
+    v = visit(http_root + "methods.html", width=390)
+    v.page.emulate_media(color_scheme=scheme)
+    assert v.page.evaluate("document.documentElement.scrollWidth") <= 390
+    # formulas are set as text with real superscripts, not as code
+    assert v.page.locator(".method .formula sup").count() >= 10
+    assert v.page.locator(".method code").count() == 0
+    assert v.errors == []

@@ -62,6 +62,11 @@ UNITS = {
 BAND_KEYS = {"neutron_star", "lower_gap", "stellar_black_hole", "pair_instability_gap", "above_gap"}
 
 
+#: The only place a page may link out of the site: a reference's arXiv abstract, as an anchor
+#: the reader may follow (a link, never a request the page makes).
+OUTBOUND = "https://arxiv.org/abs/"
+
+
 class Links(HTMLParser):
     def __init__(self):
         super().__init__()
@@ -69,6 +74,8 @@ class Links(HTMLParser):
 
     def handle_starttag(self, tag, attrs):
         for name, value in attrs:
+            if tag == "a" and name == "href" and value and value.startswith(OUTBOUND):
+                continue
             if name in ("href", "src") and value:
                 self.links.append(value)
 

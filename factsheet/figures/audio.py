@@ -5,9 +5,17 @@ f(tau) (Peters & Mathews 1963, Phys. Rev. 131, 435; Peters 1964, Phys. Rev. 136,
 docs/methods.md §10) from ``f_low`` up to ``f_merger``, glides in a short bridge to the ringdown
 frequency and then holds it while the amplitude decays exponentially with the ringdown damping
 time (docs/methods.md §7).
-Long inspirals are compressed in time by one factor; all frequencies are multiplied by one power of
-two when the chirp would otherwise be out of the audible range. Both factors and any lengthening of
-the ringdown are stated in the returned description. The bytes are deterministic.
+Long inspirals are compressed in time by one factor; all frequencies are lowered by a power of two
+when the top of the chirp would otherwise pass the ceiling, and are the observed ones otherwise.
+A :class:`Chirp` records both factors and any lengthening of the ringdown, so that the page can
+say how the sound was made (``factsheet.render.sound`` writes those words). The bytes are
+deterministic.
+
+Small loudspeakers (phones, laptops) play little below about 150 Hz (common practice; no single
+source). A sound whose final tone, the ringdown, lies below that lies wholly below it, since
+every earlier part of the sound is lower; :func:`speaker_shift` gives the whole octaves that lift
+such a sound, from its first frequency on, above 150 Hz, and ``chirp_wav(..., pitch_factor=)``
+makes the shifted copy: the same sound, same length, every frequency multiplied by the factor.
 """
 
 from __future__ import annotations
@@ -24,13 +32,12 @@ from factsheet.physics._checks import require
 from factsheet.physics.inspiral import frequency_at_time, time_to_merger
 
 FULL_SCALE = 0.8  # peak amplitude as a fraction of 16-bit full scale
-AUDIBLE_FLOOR = 30 * u.Hz  # merger and ringdown are raised above this (common practice)
 AUDIBLE_CEILING = 4 * u.kHz  # the top of the chirp is lowered below this (and below 0.4 rate)
+SMALL_SPEAKER_FLOOR = 150 * u.Hz  # small loudspeakers play little below this (common practice)
 MIN_RINGDOWN_DAMPING = 0.15 * u.s  # an audible ringdown decays no faster than this
 RINGDOWN_DAMPINGS = 4.0  # the ringdown segment lasts this many damping times (e^-4 ~ 2 %)
 BRIDGE = 0.02 * u.s  # glide from merger to ringdown frequency, with an amplitude crossfade
 FADE_IN, FADE_OUT = 0.02 * u.s, 0.05 * u.s
-_OCTAVES = ("", "one", "two", "three", "four", "five", "six", "seven", "eight", "nine", "ten")
 
 
 @dataclass(frozen=True)
@@ -39,9 +46,13 @@ class Chirp:
 
     wav: bytes
     duration_s: float
-    pitch_factor: float  # every frequency multiplied by this power of two (1: unshifted)
+    pitch_factor: float  # every frequency multiplied by this factor (1: observed frequencies)
     time_factor: float  # the inspiral plays this many times faster than observed (1: real time)
-    description: str  # one plain sentence for the page
+    damping_s: float  # the ringdown's played damping time (the fade's, with no ringdown)
+    lengthened: bool  # the ringdown decays more slowly than observed so that it can be heard
+    has_ringdown: bool
+    max_seconds: float  # the length the chirp was fitted into
+    ceiling_hz: float  # the top of the chirp is kept below this
 
 
 def chirp_wav(
@@ -53,11 +64,14 @@ def chirp_wav(
     *,
     sample_rate: int = 22050,
     max_seconds: float = 6.0,
+    pitch_factor: float | None = None,
 ) -> Chirp:
     """Chirp WAV from the leading-order inspiral f(tau) (Peters 1964) and a damped ringdown tone.
 
     With no ringdown (``f_ringdown`` None, e.g. a neutron-star pair with no black-hole fit), the
-    sound ends with a short fade at the merger frequency and the description says so.
+    sound ends with a short fade at the merger frequency. ``pitch_factor`` multiplies every
+    frequency by that factor instead of the automatic one (1, or the power of two that keeps the
+    top below the ceiling; see :func:`speaker_shift`); the top must then stay below the ceiling.
     """
     mc = _scalar(chirp_mass_detector, "mass", "chirp_mass_detector")
     f0, fm = _scalar(f_low, "frequency", "f_low"), _scalar(f_merger, "frequency", "f_merger")
@@ -76,7 +90,13 @@ def chirp_wav(
     if not max_seconds >= min_seconds:
         raise ValueError(f"max_seconds: expected at least {min_seconds:g}, got {max_seconds}")
     ceiling = min(AUDIBLE_CEILING.to_value(u.Hz), 0.4 * sample_rate)
-    pitch = _pitch_factor(min(fm, frd), max(fm, frd), ceiling)
+    if pitch_factor is None:
+        pitch = _pitch_factor(max(fm, frd), ceiling)
+    elif not (pitch_factor > 0 and max(fm, frd) * pitch_factor <= ceiling):
+        message = f"expected a factor keeping {max(fm, frd):g} Hz below {ceiling:g} Hz"
+        raise ValueError(f"pitch_factor: {message}, got {pitch_factor}")
+    else:
+        pitch = float(pitch_factor)
     tau0, taum = (time_to_merger(mc * u.Msun, f * u.Hz).to_value(u.s) for f in (f0, fm))
     speed = _time_factor(tau0 - taum, taurd, max_seconds)
     damping = max(taurd / speed, MIN_RINGDOWN_DAMPING.to_value(u.s))
@@ -85,13 +105,41 @@ def chirp_wav(
     signal = _oscillate(
         np.concatenate([f_in, f_rd]) * pitch, np.concatenate([a_in, a_rd]), sample_rate
     )
-    text = _describe(pitch, speed, (max_seconds, taurd, damping), (f0, fm, frd), ceiling)
-    if not has_ringdown:
-        text = text.split("; the inspiral")[0] + (
-            f"; the inspiral rises from {_num(f0)} Hz to {_num(fm)} Hz (observed) and the sound "
-            "then fades: no ringdown tone is given for this event."
-        )
-    return Chirp(_encode(signal, int(sample_rate)), signal.size / sample_rate, pitch, speed, text)
+    lengthened = damping > taurd / speed * (1 + 1e-9)
+    return Chirp(
+        _encode(signal, int(sample_rate)),
+        signal.size / sample_rate,
+        pitch,
+        speed,
+        damping,
+        lengthened and has_ringdown,
+        has_ringdown,
+        float(max_seconds),
+        ceiling,
+    )
+
+
+def speaker_shift(
+    f_low: u.Quantity, f_final: u.Quantity, played: float = 1.0, *, sample_rate: int = 22050
+) -> float | None:
+    """The factor (a power of two) of a copy small speakers can play, or None if none is needed.
+
+    A sound is shifted when its final tone (``f_final``, the ringdown, or the merger frequency
+    when there is none), as played (times ``played``, the chirp's own pitch factor), lies below
+    :data:`SMALL_SPEAKER_FLOOR`: then all of it does. The factor, relative to the observed
+    frequencies, is the smallest whole number of octaves that lifts the sound's first frequency
+    ``f_low`` to the floor, lowered if needed to keep the final tone below the ceiling.
+    """
+    f0 = _scalar(f_low, "frequency", "f_low")
+    top = _scalar(f_final, "frequency", "f_final")
+    floor = SMALL_SPEAKER_FLOOR.to_value(u.Hz)
+    if top * played >= floor:
+        return None
+    octaves = math.ceil(math.log2(floor / f0) - 1e-12)
+    ceiling = min(AUDIBLE_CEILING.to_value(u.Hz), 0.4 * sample_rate)
+    octaves = min(octaves, math.floor(math.log2(ceiling / top)))
+    factor = 2.0**octaves
+    return factor if factor > played else None
 
 
 def _scalar(value, physical_type: str, name: str) -> float:
@@ -102,14 +150,10 @@ def _scalar(value, physical_type: str, name: str) -> float:
     return float(number)
 
 
-def _pitch_factor(f_bottom: float, f_top: float, ceiling: float) -> float:
-    """Power of two lifting merger and ringdown above the floor; keeping the top below the ceiling
-    takes precedence (it prevents aliasing)."""
-    floor = AUDIBLE_FLOOR.to_value(u.Hz)
-    k = max(0, math.ceil(math.log2(floor / f_bottom)))
-    if f_top * 2.0**k > ceiling:
-        k = math.floor(math.log2(ceiling / f_top))
-    return 2.0**k
+def _pitch_factor(f_top: float, ceiling: float) -> float:
+    """1, or the power of two that lowers the top of the chirp below the ceiling (which prevents
+    aliasing): the chirp plays the observed frequencies whenever it can."""
+    return 2.0 ** min(0, math.floor(math.log2(ceiling / f_top)))
 
 
 def _time_factor(inspiral_s: float, tau_ringdown: float, max_seconds: float) -> float:
@@ -161,36 +205,3 @@ def _encode(signal: np.ndarray, rate: int) -> bytes:
         out.setframerate(rate)
         out.writeframes(np.round(signal * 32767).astype("<i2").tobytes())
     return buffer.getvalue()
-
-
-def _describe(pitch, speed, times, freqs, ceiling) -> str:
-    """One plain sentence saying how the sound was made from the observed track."""
-    max_seconds, tau_true, damping = times
-    k = round(math.log2(pitch))
-    octaves = f"{_OCTAVES[abs(k)]} octave{'s' if abs(k) > 1 else ''}" if abs(k) < 11 else "octaves"
-    if k:
-        text = f"Frequencies {'raised' if k > 0 else 'lowered'} {_num(2.0 ** abs(k))}× ({octaves})"
-        text += (
-            " so the chirp is audible"
-            if k > 0
-            else f" to keep the top of the chirp below {_num(ceiling)} Hz"
-        )
-    else:
-        text = "Played at the observed frequencies"
-    if speed > 1:
-        text += f"{' and' if k else ','} time compressed {_num(speed)}× to fit in"
-        text += f" {_num(max_seconds)} s"
-    else:
-        text += ", played in real time" if k else " and in real time"
-    f0, fm, frd = (_num(f) for f in freqs)
-    text += f"; the inspiral rises from {f0} Hz to {fm} Hz at merger and the"
-    text += f" final tone is the ringdown at {frd} Hz (observed frequencies)"
-    if damping > tau_true / speed * (1 + 1e-9):
-        text += f", its {_num(tau_true * 1e3)} ms damping time lengthened to {_num(damping)} s"
-        text += " so it can be heard"
-    return text + "."
-
-
-def _num(x: float) -> str:
-    """A number to three significant figures, without exponent or trailing zeros."""
-    return f"{float(f'{x:.3g}'):g}" if x < 1e6 else f"{x:.3g}"

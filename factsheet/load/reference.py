@@ -4,7 +4,9 @@ Their names for readers come from :mod:`factsheet.labels`; the records are in
 :mod:`factsheet.model`.
 
 The data live in ``factsheet/data/*.yaml``, each value with its unit and source, and are read
-with :mod:`importlib.resources`. ``catalogue.yaml`` may override two of them:
+with :mod:`importlib.resources`. A ``provenance`` note (how a value or citation was obtained,
+e.g. recalled from memory) stays in the data files for maintainers and is not read into the
+records: pages state sources. ``catalogue.yaml`` may override two of them:
 
 ``mass_bands``
     maps an edge key (``neutron_star_max``, ``lower_gap_top``, ``pair_instability_lower``,
@@ -121,6 +123,7 @@ def _windows() -> tuple[WindowSpec, ...]:
     specs = []
     for entry in _read("counterparts.yaml")["windows"]:
         start, end = u.Quantity(entry.pop("start")), u.Quantity(entry.pop("end"))
+        entry.pop("provenance", None)
         specs.append(WindowSpec(start=start.to(u.s), end=end.to(u.s), **entry))
     return tuple(specs)
 

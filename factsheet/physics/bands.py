@@ -41,9 +41,10 @@ register(
             "Farmer et al. 2019 (ApJ 887, 53); Woosley 2017 (ApJ 836, 244); "
             "Greene, Strader & Ho 2020 (ARA&A 58, 257)"
         ),
-        formula="P(band) = fraction of samples with lower edge <= m < upper edge",
+        formula="P(band) = fraction of samples with lower edge ≤ m < upper edge",
         validity="source-frame masses; the edges themselves are uncertain by tens of per cent",
-        accuracy="sampling error ~ sqrt(P(1-P)/N); edge uncertainty dominates",
+        accuracy="sampling error about √(P(1 − P)/N) for N samples; the uncertainty of the "
+        "edges dominates",
         quantities=("mass_bands", "intermediate_mass"),
     )
 )
@@ -51,8 +52,8 @@ register(
     Method(
         id=SOURCE_CLASS,
         title="Source class from component masses",
-        citation="maximum neutron-star mass as for the mass bands (docs/methods.md §11)",
-        formula="BNS: m1, m2 < M_NS,max; NSBH: m2 < M_NS,max <= m1; BBH: m1, m2 >= M_NS,max",
+        citation="the maximum neutron-star mass of the mass bands (see the mass-band edges)",
+        formula="BNS: m₁, m₂ < M_{NS,max}; NSBH: m₂ < M_{NS,max} ≤ m₁; BBH: m₁, m₂ ≥ M_{NS,max}",
         validity="by mass alone; says nothing about matter seen in the signal",
         quantities=("source_class",),
     )

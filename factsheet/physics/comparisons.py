@@ -33,7 +33,7 @@ register(
             "IAU 2015 Resolution B3 nominal solar values (Prša et al. 2016, AJ 152, 41); "
             "CODATA constants through astropy; comparison objects as listed with their sources"
         ),
-        formula="ratio = E / E_object or L / L_object; duration = E / L_object",
+        formula="ratio = E/E_{object} or L/L_{object}; duration = E/L_{object}",
         validity="order-of-magnitude context; many comparison values are approximate",
         accuracy="as good as the comparison value (a factor of ~2 for the approximate ones)",
         quantities=("energy_radiated", "peak_luminosity"),

@@ -24,15 +24,15 @@ Z_MIN, Z_MAX, N_GRID = 1e-9, 1000.0, 2000
 METHOD = register(
     Method(
         id="luminosity-distance-inversion",
-        title="Redshift from luminosity distance in a flat Lambda-CDM cosmology",
+        title="Redshift from luminosity distance in a flat ΛCDM cosmology",
         citation="Planck Collaboration, 2020, A&A 641, A6 (Planck18 parameters, through astropy); "
-        "Hogg D. W., 1999, astro-ph/9905116 (distance definitions)",
-        formula="d_L = (1+z) (c/H0) integral_0^z dz'/E(z'); inverted by a cubic spline of ln z "
-        "against ln d_L on a geometric grid 1e-9 <= z <= 1000, and by the linear Hubble law "
-        "z = H0 d_L / c below z = 1e-9; m_src = m_det/(1+z)",
-        validity="any distance up to d_L(z = 1000)",
-        accuracy="within 1e-10 relative of astropy's z_at_value on the grid; the linear law "
-        "below it within 1e-9 relative",
+        "Hogg D. W., 1999, arXiv:astro-ph/9905116 (distance definitions)",
+        formula="d_{L} = (1 + z) (c/H₀) ∫₀^{z} dz′/E(z′); inverted by a cubic spline of ln z "
+        "against ln d_{L} on a geometric grid 10^{−9} ≤ z ≤ 1000, and by the linear Hubble law "
+        "z = H₀ d_{L}/c below z = 10^{−9}; m_{src} = m_{det}/(1 + z)",
+        validity="any distance up to d_{L}(z = 1000)",
+        accuracy="within 10^{−10} (relative) of astropy's inversion on the grid; the linear law "
+        "below it within 10^{−9}",
         quantities=("redshift",),
         limits={"redshift": (0.0, Z_MAX)},
     )

@@ -36,9 +36,10 @@ register(
     Method(
         id=REST_FRAME_WINDOW,
         title="Counterpart window from a rest-frame time scale",
-        citation="cosmological time dilation; time scales as listed per window "
-        "(docs/methods.md §13)",
-        formula="t_UTC = t_merger + (1+z) Δt_src (astropy Time/TimeDelta, leap seconds handled)",
+        citation="cosmological time dilation; the time scales and their sources are listed "
+        "under the counterpart time scales",
+        formula="t_{UTC} = t_{merger} + (1 + z) Δt_{src} (astropy Time and TimeDelta, leap "
+        "seconds handled)",
         validity="a planning aid: the rest-frame ranges are indicative, not predictions",
         quantities=("counterpart_windows",),
     )
@@ -49,15 +50,15 @@ register(
         title="Flare windows of a kicked remnant in the disk of an active galactic nucleus",
         citation=(
             "mechanism: McKernan et al. 2019, Astrophys. J. Lett. 884, L50; time scales: "
-            "Newtonian orbit, Hill sphere and disk crossing (docs/methods.md §13)"
+            "Newtonian orbit, Hill sphere and disk crossing"
         ),
         arxiv="1907.03746",
         formula=(
-            "P = 2π (G M_smbh/c³)(a/r_g)^(3/2); R_H = a [M_bin/(3 M_smbh)]^(1/3); "
-            "t_H = R_H/v_kick; t_disk = (H/a) a/(v_kick cos θ); "
-            "repeat after P/2 (1 ± 3 v_kick/v_orb)"
+            "P = 2π (G M_{smbh}/c³)(a/r_{g})^{3/2}; R_{H} = a [M_{bin}/(3 M_{smbh})]^{1/3}; "
+            "t_{H} = R_{H}/v_{kick}; t_{disk} = (H/a) a/(v_{kick} cos θ); "
+            "repeat after P/2 (1 ± 3 v_{kick}/v_{orb})"
         ),
-        validity="Newtonian orbit (a ≫ r_g) about the central black hole; flare onset taken as "
+        validity="Newtonian orbit (a ≫ r_{g}) about the central black hole; flare onset taken as "
         "the Hill-sphere (or disk) exit time, since the published onset scaling was not checked",
         accuracy="order of magnitude",
         quantities=("counterpart_windows",),

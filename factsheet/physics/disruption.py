@@ -27,19 +27,17 @@ register(
     Method(
         id=REMNANT_MASS,
         title="Remnant baryon mass outside the black hole after a neutron-star disruption",
-        citation=(
-            "Foucart, Hinderer & Nissanke 2018, Phys. Rev. D 98, 081501(R) "
-            "(coefficients and arXiv id from memory)"
-        ),
+        citation=("Foucart, Hinderer & Nissanke 2018, Phys. Rev. D 98, 081501(R)"),
         arxiv="1807.00011",
         formula=(
-            "M_rem / M_NS^b = [max(α(1−2C)/η^(1/3) − β R_isco(χ_BH) C/η + γ, 0)]^δ, "
-            "α = 0.406, β = 0.139, γ = 0.255, δ = 1.761, C = G M_NS/(R_NS c²), "
-            "η = Q/(1+Q)², Q = M_BH/M_NS"
+            "M_{rem}/M_{NS}^{b} = [max(α(1 − 2C)/η^{1/3} − β R_{isco}(χ_{BH}) C/η + γ, 0)]^{δ}, "
+            "α = 0.406, β = 0.139, γ = 0.255, δ = 1.761, C = G M_{NS}/(R_{NS} c²), "
+            "η = Q/(1 + Q)², Q = M_{BH}/M_{NS}"
         ),
-        validity="black-hole spin aligned with the orbit; calibrated for Q ≈ 1–7, χ_BH ≈ −0.5–0.9, "
-        "C ≈ 0.13–0.18 (from memory)",
-        accuracy="about 15 % of the remnant mass or 0.01 M☉, whichever is larger (from memory)",
+        validity="black-hole spin aligned with the orbit; calibrated for Q ≈ 1–7, "
+        "χ_{BH} ≈ −0.5–0.9, C ≈ 0.13–0.18",
+        accuracy="about 15 % of the remnant mass or 0.01 M⊙, whichever is larger",
+        provenance="coefficients, arXiv id, calibration range and accuracy recalled from memory",
         quantities=("remnant_baryon_mass", "disruption_probability"),
         limits={
             "mass_ratio": (1 / 7, 1.0),
@@ -52,13 +50,12 @@ register(
     Method(
         id=BARYON_MASS,
         title="Baryon mass of a neutron star",
-        citation=(
-            "Lattimer & Prakash 2001, Astrophys. J. 550, 426 (formula and arXiv id from memory)"
-        ),
+        citation=("Lattimer & Prakash 2001, Astrophys. J. 550, 426"),
         arxiv="astro-ph/0002232",
-        formula="M^b ≈ M (1 + 0.6 C / (1 − 0.5 C)), C = G M/(R c²)",
+        formula="M^{b} ≈ M (1 + 0.6 C/(1 − 0.5 C)), C = G M/(R c²)",
         validity="cold neutron stars with realistic equations of state",
-        accuracy="a few per cent of the binding energy (from memory)",
+        accuracy="a few per cent of the binding energy",
+        provenance="formula, arXiv id and accuracy recalled from memory",
         quantities=("baryon_mass",),
     )
 )
@@ -90,7 +87,7 @@ def remnant_baryon_mass(
 
 
 def disrupted(remnant_mass: u.Quantity, threshold: u.Quantity = DISRUPTION_THRESHOLD) -> np.ndarray:
-    """True per sample where the remnant exceeds 0.01 M☉ (common practice, docs/methods.md §12)."""
+    """True per sample where the remnant exceeds 0.01 M⊙ (common practice, docs/methods.md §12)."""
     limit = require(threshold, "mass", "threshold")
     return np.asarray(require(remnant_mass, "mass", "remnant_mass") > limit)
 

@@ -20,8 +20,8 @@ CHIRP_METHOD = register(
         title="Chirp mass, mass ratio, symmetric mass ratio and effective spin",
         citation="Cutler C., Flanagan E. E., 1994, Phys. Rev. D 49, 2658 (chirp mass); Racine E., "
         "2008, Phys. Rev. D 78, 044021 (effective spin)",
-        formula="Mc = (m1 m2)^(3/5) / M^(1/5); q = m2/m1; eta = m1 m2 / M^2; "
-        "χ_eff = (m1 chi1z + m2 chi2z)/M",
+        formula="M_{c} = (m₁ m₂)^{3/5}/M^{1/5}; q = m₂/m₁; η = m₁ m₂/M²; "
+        "χ_{eff} = (m₁ χ_{1z} + m₂ χ_{2z})/M",
         validity="definitions; exact",
         accuracy="exact",
         quantities=("chirp_mass", "mass_ratio", "total_mass", "effective_spin"),
@@ -33,9 +33,9 @@ LEADING_ORDER_METHOD = register(
         title="Leading-order inspiral: time to merger, cycles, ISCO frequency, strain",
         citation="Peters P. C., Mathews J., 1963, Phys. Rev. 131, 435; Peters P. C., 1964, "
         "Phys. Rev. 136, B1224; Maggiore M., 2008, Gravitational Waves vol. 1, ch. 4",
-        formula="tau = (5/256) T^(-5/3) (pi f)^(-8/3), T = G Mc/c^3; N = T^(-5/3)/(32 pi^(8/3)) "
-        "(f1^(-5/3) - f2^(-5/3)); f_isco = c^3/(6^(3/2) pi G M); "
-        "h0 = (4/d_L) (G Mc/c^2)^(5/3) (pi f/c)^(2/3)",
+        formula="τ = (5/256) T^{−5/3} (π f)^{−8/3}, T = G M_{c}/c³; "
+        "N = T^{−5/3}/(32 π^{8/3}) (f₁^{−5/3} − f₂^{−5/3}); f_{isco} = c³/(6^{3/2} π G M); "
+        "h₀ = (4/d_{L}) (G M_{c}/c²)^{5/3} (π f/c)^{2/3}",
         validity="leading (Newtonian) order, below the Schwarzschild ISCO frequency",
         accuracy="post-Newtonian terms change durations and cycles by ~10 % for neutron-star "
         "binaries near 10 Hz and much more for heavy black-hole binaries near merger",

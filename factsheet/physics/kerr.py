@@ -16,10 +16,10 @@ METHOD = register(
         id="bardeen-press-teukolsky-1972-isco",
         title="Innermost stable circular orbit of a Kerr black hole",
         citation="Bardeen J. M., Press W. H., Teukolsky S. A., 1972, ApJ 178, 347",
-        formula="Z1 = 1 + (1-a^2)^(1/3) [(1+a)^(1/3) + (1-a)^(1/3)], Z2 = sqrt(3 a^2 + Z1^2), "
-        "r = 3 + Z2 - sign(a) sqrt((3-Z1)(3+Z1+2 Z2)); E = sqrt(1 - 2/(3 r)); "
-        "L = 2/(3 sqrt3) (1 + 2 sqrt(3 r - 2))",
-        validity="exact for circular equatorial geodesics, -1 <= a <= 1",
+        formula="Z₁ = 1 + (1 − a²)^{1/3} [(1 + a)^{1/3} + (1 − a)^{1/3}], Z₂ = √(3a² + Z₁²), "
+        "r = 3 + Z₂ − sign(a) √((3 − Z₁)(3 + Z₁ + 2Z₂)); E = √(1 − 2/(3r)); "
+        "L = 2/(3√3) (1 + 2√(3r − 2))",
+        validity="exact for circular equatorial geodesics, −1 ≤ a ≤ 1",
         accuracy="exact",
         quantities=("isco_radius", "isco_energy", "isco_angular_momentum"),
         limits={"spin": (-1.0, 1.0)},

@@ -22,9 +22,9 @@ METHOD = register(
         "044028 (spin term); form of Campanelli M., Lousto C. O., Zlochower Y., Merritt D., "
         "2007, ApJ Letters 659, L5",
         arxiv="gr-qc/0610154",
-        formula="v_m = A eta^2 (1-q)/(1+q) (1 + B eta), v_perp = H eta^2/(1+q) (chi_big - q "
-        "chi_small), |v| = |v_m + v_perp e^(i xi)|; A = 1.2e4 km/s, B = -0.93, H = 6.9e3 km/s, "
-        "xi = 145 deg",
+        formula="v_{m} = A η² (1 − q)/(1 + q) (1 + B η), v_{⊥} = H η²/(1 + q) (χ_{big} − "
+        "q χ_{small}), |v| = |v_{m} + v_{⊥} e^{iξ}|; A = 1.2 × 10⁴ km/s, B = −0.93, "
+        "H = 6.9 × 10³ km/s, ξ = 145°",
         validity="mass ratio 0.25 to 1 (mass term); spins aligned with the orbit",
         accuracy="mass term within 6 %; largest non-spinning kick 175.2 ± 11 km/s",
         quantities=("kick_velocity",),

@@ -17,10 +17,10 @@ METHOD = register(
         "Nagar A., Hannam M., Khan S., Pürrer M., Pratten G., Chaurasia V., 2017, "
         "Phys. Rev. D 96, 024006",
         arxiv="1612.09566",
-        formula="L_peak/(c^5/G) = L0 eta^2 [sum_i a_i eta^i + N(S, eta)/D(S, eta) + "
-        "unequal-spin terms in dchi]",
-        validity="aligned spins; calibrated on the l <= 6 modes of 378 numerical-relativity "
-        "runs with mass ratios up to 18 and |chi| up to 0.995",
+        formula="L_{peak}/(c⁵/G) = L₀ η² [Σ_{i} a_{i} η^{i} + N(S, η)/D(S, η) + "
+        "unequal-spin terms in Δχ]",
+        validity="aligned spins; calibrated on the ℓ ≤ 6 modes of 378 numerical-relativity "
+        "runs with mass ratios up to 18 and |χ| up to 0.995",
         accuracy="non-spinning part checked; spin terms reproduce published values within ~3 %",
         quantities=("peak_luminosity",),
         limits={

@@ -19,11 +19,12 @@ JF17_ERAD = register(
         citation="Jiménez-Forteza X., Keitel D., Husa S., Hannam M., Khan S., Pürrer M., 2017, "
         "Phys. Rev. D 95, 064024",
         arxiv="1611.00332",
-        formula="E_rad = P(eta) [1 + sum b_k S^k g_k(eta)] / [1 + b5 S g5(eta)] + unequal-spin "
-        "terms in dchi; P(eta) = (1 - 2 sqrt2/3) eta + a2 eta^2 + a3 eta^3 + a4 eta^4",
+        formula="E_{rad} = P(η) [1 + Σ_{k} b_{k} S^{k} g_{k}(η)]/[1 + b₅ S g₅(η)] + "
+        "unequal-spin terms in Δχ; P(η) = (1 − 2√2/3) η + a₂ η² + a₃ η³ + a₄ η⁴",
         validity="aligned or anti-aligned spins; calibrated on 427 numerical-relativity runs with "
         "the extreme-mass-ratio limit built in",
-        accuracy="equal-mass non-spinning remnant mass 0.95158 against NR 0.95162",
+        accuracy="equal masses without spins give a remnant mass of 0.95158 M against 0.95162 M "
+        "from numerical relativity",
         quantities=("energy_radiated", "radiated_mass", "remnant_mass"),
         limits={"heavier_spin": (-1.0, 1.0), "lighter_spin": (-1.0, 1.0)},
     )
@@ -34,11 +35,12 @@ BMR12_ERAD = register(
         title="Radiated energy, fit of Barausse, Morozova & Rezzolla 2012",
         citation="Barausse E., Morozova V., Rezzolla L., 2012, ApJ 758, 63",
         arxiv="1206.3803",
-        formula="E_rad = [1 - E_isco(a)] nu + 4 nu^2 [4 p0 + 16 p1 a (a + 1) + E_isco(a) - 1], "
-        "a = (chi1 + q^2 chi2)/(1+q)^2, p0 = 0.04827, p1 = 0.01707",
+        formula="E_{rad} = [1 − E_{isco}(ã)] η + 4η² [4p₀ + 16p₁ ã(ã + 1) + E_{isco}(ã) − 1], "
+        "ã = (χ₁ + q² χ₂)/(1 + q)², p₀ = 0.04827, p₁ = 0.01707",
         validity="any mass ratio; test-particle limit built in; calibration predates high-spin "
         "numerical relativity",
-        accuracy="within a few per cent of JF17 (down to -7 % at equal mass and spin +0.9)",
+        accuracy="within a few per cent of the Jiménez-Forteza et al. 2017 fit (down to −7 % "
+        "at equal mass and spin +0.9)",
         quantities=("energy_radiated", "radiated_mass", "remnant_mass"),
     )
 ).id

@@ -16,6 +16,12 @@ import numpy as np
 class Method:
     """A published method: formula, reference and calibration range.
 
+    The texts are for readers of the methods page: ``formula``, ``validity`` and ``accuracy``
+    are written in Unicode (η, χ₁, √, ≤, −), with ``^{...}`` and ``_{...}`` marking superscripts
+    and subscripts (the page sets them as such); ``citation`` states the published source, and
+    ``arxiv`` its arXiv id. ``provenance`` is for maintainers and is not published: how the
+    coefficients or the citation were obtained (e.g. recalled from memory rather than re-read).
+
     ``limits`` maps a parameter name (``mass_ratio`` as m2/m1 <= 1, ``heavier_spin``,
     ``lighter_spin``, ``remnant_spin``, ...) to the closed interval ``(low, high)`` the method
     was calibrated on.
@@ -30,6 +36,7 @@ class Method:
     arxiv: str | None = None
     quantities: tuple[str, ...] = ()
     limits: dict[str, tuple[float, float]] = field(default_factory=dict)
+    provenance: str = ""
 
 
 METHODS: dict[str, Method] = {}

@@ -22,11 +22,13 @@ JF17_SPIN = register(
         citation="Jiménez-Forteza X., Keitel D., Husa S., Hannam M., Khan S., Pürrer M., 2017, "
         "Phys. Rev. D 95, 064024",
         arxiv="1611.00332",
-        formula="chi_f = S_tot + L'(eta, S, delta, dchi): Padé in eta for the non-spinning part, "
-        "rational function of S with eta-dependent coefficients, unequal-spin terms in dchi",
+        formula="χ_{f} = S_{tot} + L′(η, S, δ, Δχ): a Padé approximant in η for the "
+        "non-spinning part, a rational function of S with η-dependent coefficients, and "
+        "unequal-spin terms in Δχ",
         validity="aligned or anti-aligned spins; calibrated on 427 numerical-relativity runs with "
         "the extreme-mass-ratio limit built in",
-        accuracy="agrees with HBR16 to 0.002; equal-mass non-spinning 0.68637 against NR 0.68646",
+        accuracy="agrees with the Hofmann, Barausse & Rezzolla 2016 fit to 0.002; equal masses "
+        "without spins give 0.68637 against 0.68646 from numerical relativity",
         quantities=("remnant_spin",),
         limits={"heavier_spin": (-1.0, 1.0), "lighter_spin": (-1.0, 1.0)},
     )
@@ -37,8 +39,8 @@ HBR16_SPIN = register(
         title="Remnant spin, (3,4) fit of Hofmann, Barausse & Rezzolla 2016",
         citation="Hofmann F., Barausse E., Rezzolla L., 2016, ApJ Letters 825, L19",
         arxiv="1605.01938",
-        formula="a_f = a_tot + nu [L_isco(a_eff) - 2 a_tot (E_isco(a_eff) - 1) + "
-        "sum k_ij nu^(1+i) a_eff^j], a_eff = a_tot + xi nu (chi1 + chi2)",
+        formula="a_{f} = a_{tot} + η [L_{isco}(a_{eff}) − 2a_{tot} (E_{isco}(a_{eff}) − 1) + "
+        "Σ_{ij} k_{ij} η^{1+i} a_{eff}^{j}], a_{eff} = a_{tot} + ξ η (χ₁ + χ₂)",
         validity="any mass ratio and spin; calibrated on 619 numerical-relativity runs",
         accuracy="RMS 0.002 for aligned and anti-aligned spins",
         quantities=("remnant_spin",),
@@ -51,7 +53,7 @@ BR09_SPIN = register(
         title="Remnant spin, fit of Barausse & Rezzolla 2009 (cross-check)",
         citation="Barausse E., Rezzolla L., 2009, ApJ Letters 704, L40",
         arxiv="0904.2577",
-        formula="a_f = (chi1 + q^2 chi2 + q l)/(1+q)^2, l a polynomial in nu and the spins",
+        formula="a_{f} = (χ₁ + q² χ₂ + q ℓ)/(1 + q)², with ℓ a polynomial in η and the spins",
         validity="calibration range not stated here; degrades above spin 0.9 and can exceed 1 "
         "for near-extremal spins at small mass ratio",
         accuracy="about 0.01 at spin 0.99 against the later fits",

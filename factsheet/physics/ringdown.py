@@ -20,11 +20,12 @@ LEAVER = register(
         id="leaver-1985-kerr-qnm-220",
         title="Kerr quasinormal mode (2,2,0), exact, Leaver continued fractions",
         citation="Leaver E. W., 1985, Proc. R. Soc. Lond. A 402, 285",
-        formula="M omega solved from Leaver's angular and radial three-term recurrences (s = -2), "
-        "tabulated once on j = 1 - u^2 (u uniform) and interpolated; f = Re(omega)/(2 pi), "
-        "tau = 1/|Im(omega)|, omega scaled by G M_f / c^3",
+        formula="M ω solved from Leaver's angular and radial three-term recurrences (s = −2), "
+        "tabulated once on j = 1 − u² (u uniform) and interpolated; f = Re(ω)/(2π), "
+        "τ = 1/|Im(ω)|, ω scaled by G M_{f}/c³",
         validity="remnant spin 0 to 0.9999 (table range); a negative aligned spin is used as |j|",
-        accuracy="interpolation better than 1e-6 relative; exact for an isolated Kerr black hole",
+        accuracy="interpolation better than 10^{−6} (relative); exact for an isolated Kerr "
+        "black hole",
         quantities=("ringdown_frequency", "ringdown_damping_time"),
         limits={"remnant_spin": (0.0, 0.9999)},
     )
@@ -35,8 +36,8 @@ BCW06 = register(
         title="Kerr quasinormal mode (2,2,0), fit of Berti, Cardoso & Will",
         citation="Berti E., Cardoso V., Will C. M., 2006, Phys. Rev. D 73, 064030",
         arxiv="gr-qc/0512160",
-        formula="M omega_R = 1.5251 - 1.1568 (1-j)^0.1292; Q = 0.7 + 1.4187 (1-j)^-0.4990; "
-        "tau = 2 Q / omega_R",
+        formula="M ω_{R} = 1.5251 − 1.1568 (1 − j)^{0.1292}; Q = 0.7 + 1.4187 (1 − j)^{−0.4990}; "
+        "τ = 2Q/ω_{R}",
         validity="remnant spin 0 to 0.99",
         accuracy="within 2 % in frequency and 1 % in quality factor of the exact values",
         quantities=("ringdown_frequency", "ringdown_damping_time"),

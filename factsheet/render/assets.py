@@ -1,4 +1,4 @@
-"""The files of one sheet that take time to make: its figures and its chirp sound (and the
+"""The files of one sheet that take time to make: its figures and its chirp sounds (and the
 copy of its samples file, published beside the JSON).
 
 :func:`event_files` runs in a build worker right after the event is derived. matplotlib is
@@ -9,10 +9,9 @@ from __future__ import annotations
 
 import hashlib
 
-import astropy.units as u
-
 from factsheet.errors import BuildError
 from factsheet.model import Audio, Derived, Event, FigureInfo
+from factsheet.render.sound import event_sound
 
 
 def event_files(
@@ -20,22 +19,12 @@ def event_files(
 ) -> tuple[tuple[FigureInfo, ...], Audio, dict[str, bytes], float]:
     """The figures (as page information), the sound, every file's bytes by site path, and the
     seconds spent drawing."""
-    from factsheet.figures.audio import chirp_wav
     from factsheet.render import figures  # matplotlib loads only where figures are drawn
 
     drawn = figures.event_figures(item)
     files = {fig.path: fig.svg for fig in drawn}
-    q, f_low = item.quantities, item.settings.low_frequency
-    ring, damp = q.get("ringdown_frequency"), q.get("ringdown_damping_time")
-    chirp = chirp_wav(
-        q["chirp_mass_detector"].median * u.Msun,
-        f_low,
-        max(q["isco_frequency"].median * u.Hz, f_low * 1.5),
-        ring.median * u.Hz if ring else None,
-        damp.median * u.s if damp else None,
-    )
-    audio = Audio(f"events/{item.event.id}.wav", chirp.description)
-    files[audio.path] = chirp.wav
+    audio, sounds = event_sound(item)
+    files.update(sounds)
     files.update(samples_copy(item))
     seconds = sum(f.seconds for f in drawn)
     return tuple(f.info for f in drawn), audio, files, seconds

@@ -14,14 +14,11 @@ from factsheet import labels
 from factsheet.model import (
     Derived,
     Event,
-    Reference,
     Settings,
     SiteFigure,
     Summary,
-    WindowSpec,
 )
 from factsheet.physics.comparisons import ENERGY_UNITS
-from factsheet.physics.registry import METHODS, Method
 from factsheet.render.history import ChangeEntry
 
 
@@ -70,28 +67,6 @@ class IndexPage:
     rows: tuple[IndexRow, ...]
     description: str
     index_figures: tuple[SiteFigure, ...]
-
-
-@dataclass(frozen=True)
-class MethodEntry:
-    method: Method
-    events: tuple[str, ...]
-
-
-@dataclass(frozen=True)
-class WindowScale:
-    name: str
-    spec: WindowSpec
-
-
-@dataclass(frozen=True)
-class MethodsPage:
-    """The context of ``methods.html``."""
-
-    methods: tuple[MethodEntry, ...]
-    reference: Reference
-    window_scales: tuple[WindowScale, ...]
-    levels: tuple[float, ...]
 
 
 @dataclass(frozen=True)
@@ -172,19 +147,3 @@ def index_row(item: Derived) -> IndexRow:
         energy_radiated=energy and display_summary(energy, units),
         distance=q["distance"],
     )
-
-
-def methods_page(derived: list[Derived], reference: Reference) -> MethodsPage:
-    """Every registered method with the events that used it, and the reference data."""
-    used: dict[str, set[str]] = {}
-    for item in derived:
-        ids = {m for summary in item.quantities.values() for m in summary.methods}
-        for method_id in ids | set(item.other_methods):
-            used.setdefault(method_id, set()).add(item.event.id)
-    entries = tuple(
-        MethodEntry(m, tuple(sorted(used.get(m.id, ()))))
-        for m in sorted(METHODS.values(), key=lambda m: (not used.get(m.id), m.title))
-    )
-    scales = tuple(WindowScale(labels.WINDOWS[w.key].name, w) for w in reference.windows)
-    levels = tuple(sorted({d.settings.credible_level for d in derived}))
-    return MethodsPage(entries, reference, scales, levels)

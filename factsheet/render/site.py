@@ -19,6 +19,7 @@ from factsheet.render.contexts import SiteContext, variables
 from factsheet.render.environment import make_environment, templates_fingerprint
 from factsheet.render.event_json import event_json
 from factsheet.render.feed import atom_feed
+from factsheet.render.methods_page import methods_page
 from factsheet.resources import templates_dir
 
 # A memo: (key parts, make) -> files; the build passes one backed by its cache.
@@ -108,7 +109,7 @@ def catalogue_pages(
         "methods.html": r.page(
             "methods.html",
             "methods.html",
-            contexts.methods_page(derived, reference_for(r.settings)),
+            methods_page(derived, reference_for(r.settings)),
         ),
         "changes.html": r.page(
             "changes.html", "changes.html", contexts.ChangesPage(tuple(entries))

@@ -1,6 +1,7 @@
 """Chirp audio: WAV format, determinism, the frequency track against the leading-order inspiral
 f(tau) of Peters & Mathews 1963 (Phys. Rev. 131, 435) and Peters 1964 (Phys. Rev. 136, B1224),
-docs/methods.md §10, the ringdown tone, and the audibility shifts."""
+docs/methods.md §10, the ringdown tone, the shift below the ceiling and the copy shifted up for
+small speakers (measured in the WAV with numpy's FFT, independently of the synthesis)."""
 
 import io
 import itertools
@@ -12,7 +13,7 @@ import numpy as np
 import pytest
 from astropy.constants import G, c
 
-from factsheet.figures.audio import chirp_wav
+from factsheet.figures.audio import SMALL_SPEAKER_FLOOR, chirp_wav, speaker_shift
 
 # Invented binaries in the detector frame. f_merger is the Schwarzschild ISCO frequency of the
 # detector-frame total mass; ringdown values are of the size the Berti, Cardoso & Will 2006 fits
@@ -23,7 +24,9 @@ BNS = dict(chirp_mass_detector=1.2 * u.Msun, f_low=20 * u.Hz, f_merger=1556 * u.
            f_ringdown=6500 * u.Hz, tau_ringdown=0.3 * u.ms)  # fmt: skip
 HEAVY = dict(chirp_mass_detector=150 * u.Msun, f_low=8 * u.Hz, f_merger=12.6 * u.Hz,
              f_ringdown=52 * u.Hz, tau_ringdown=20 * u.ms)  # fmt: skip
-CASES = {"bbh": BBH, "bns": BNS, "heavy": HEAVY}
+# The chirp plays the observed frequencies; the heavy pair's few inspiral cycles are checked two
+# octaves up, where there are enough of them.
+CASES = {"bbh": BBH, "bns": BNS, "heavy": {**HEAVY, "pitch_factor": 4.0}}
 
 
 def read(chirp):
@@ -143,7 +146,7 @@ def test_millisecond_ringdown_is_lengthened_to_an_audible_decay():
         for a in (end - 0.35, end - 0.45)
     ]
     assert rms[0] / rms[1] == pytest.approx(math.exp(-0.1 / 0.15), rel=0.03)
-    assert "4.1 ms damping time lengthened to 0.15 s" in chirp.description
+    assert chirp.lengthened and chirp.damping_s == pytest.approx(0.15)
     assert end - 0.6 > inspiral_seconds(BBH, chirp)
 
 
@@ -158,17 +161,19 @@ def test_no_clipping_and_no_click(name):
     assert abs(x[0]) < 1e-3 and abs(x[-1]) < 1e-3
 
 
-def test_heavy_black_hole_pair_already_audible_is_unshifted_in_real_time():
+def test_black_hole_pair_plays_observed_frequencies_in_real_time():
     chirp = chirp_wav(**BBH)
     assert (chirp.pitch_factor, chirp.time_factor) == (1.0, 1.0)
-    assert chirp.description.startswith("Played at the observed frequencies and in real time")
-    assert "ringdown at 250 Hz (observed frequencies)" in chirp.description
+    assert chirp.has_ringdown and chirp.max_seconds == 6.0
 
 
-def test_subsonic_merger_is_raised_by_octaves():
+def test_heavy_pair_plays_observed_frequencies_however_low():
+    # The chirp itself is never raised: the copy for small speakers is a second file.
     chirp = chirp_wav(**HEAVY)
-    assert chirp.pitch_factor == 4.0  # 12.6 Hz × 4 = 50 Hz, the first power of two above 30 Hz
-    assert chirp.description.startswith("Frequencies raised 4× (two octaves)")
+    assert chirp.pitch_factor == 1.0
+    _, x = read(chirp)
+    end = chirp.duration_s
+    assert peak_frequency(x, 22050, end - 0.45, end - 0.05) == pytest.approx(52, rel=0.01)
 
 
 def test_neutron_star_pair_is_compressed_and_lowered_below_4_khz():
@@ -177,9 +182,54 @@ def test_neutron_star_pair_is_compressed_and_lowered_below_4_khz():
     assert chirp.duration_s <= 6.0
     assert chirp.time_factor >= true_length / 6.0
     assert chirp.pitch_factor == 0.5 and 6500 * chirp.pitch_factor <= 4000
-    assert f"time compressed {chirp.time_factor:g}× to fit in 6 s" in chirp.description
-    assert "lowered 2× (one octave) to keep the top of the chirp below 4000 Hz" in chirp.description
+    assert chirp.ceiling_hz == 4000
     assert chirp_wav(**BNS, max_seconds=3.0).duration_s <= 3.0
+
+
+# Small loudspeakers roll off below about 150 Hz (common practice, no single source). A sound is
+# shifted when its final tone lies below that; the factor is the smallest number of octaves that
+# lifts the start of the sound, f_low, above it.
+@pytest.mark.parametrize(
+    ("f_low", "f_final", "played", "factor"),
+    [
+        (20, 75, 1.0, 8.0),  # 20 Hz × 8 = 160 Hz, the first octave step at or above 150 Hz
+        (20, 149, 1.0, 8.0),
+        (20, 150, 1.0, None),  # a final tone at 150 Hz is in the speakers' range already
+        (20, 250, 1.0, None),
+        (8, 52, 1.0, 32.0),  # 8 Hz × 32 = 256 Hz; 8 Hz × 16 = 128 Hz is not enough
+        (10, 140, 1.0, 16.0),
+        (5, 140, 1.0, 16.0),  # ×32 would put the final tone at 4480 Hz, above the 4 kHz ceiling
+        (20, 100, 2.0, None),  # already played an octave up, at 200 Hz
+    ],
+)
+def test_speaker_shift_rule(f_low, f_final, played, factor):
+    assert speaker_shift(f_low * u.Hz, f_final * u.Hz, played) == factor
+    if factor:
+        assert f_low * factor >= SMALL_SPEAKER_FLOOR.to_value(u.Hz) or f_final * factor * 2 > 4000
+        assert f_final * factor <= 4000
+
+
+@pytest.mark.parametrize("case", [BBH, HEAVY], ids=["bbh", "heavy"])
+def test_shifted_copy_is_the_same_sound_with_every_frequency_times_the_factor(case):
+    # Dominant frequencies measured with numpy's FFT in both WAV files, independently of how
+    # they were synthesised: the final tone (the loudest, longest-held part), and the number of
+    # cycles (upward zero crossings) of the whole file, which counts the inspiral too.
+    factor = 8.0
+    plain, shifted = chirp_wav(**case), chirp_wav(**case, pitch_factor=factor)
+    (p1, x1), (p2, x2) = read(plain), read(shifted)
+    assert p1.nframes == p2.nframes and shifted.duration_s == plain.duration_s
+    assert shifted.pitch_factor == factor and shifted.time_factor == plain.time_factor
+    end = plain.duration_s
+    tone = [peak_frequency(x, 22050, end - 0.45, end - 0.05) for x in (x1, x2)]
+    assert tone[1] == pytest.approx(factor * tone[0], rel=0.01)
+    assert tone[0] == pytest.approx(case["f_ringdown"].to_value(u.Hz), rel=0.01)
+    crossings = [upward_zero_crossings(x, 22050).size for x in (x1, x2)]
+    assert crossings[1] == pytest.approx(factor * crossings[0], rel=0.02)
+
+
+def test_shift_that_would_pass_the_ceiling_is_refused():
+    with pytest.raises(ValueError, match="pitch_factor"):
+        chirp_wav(**BBH, pitch_factor=32.0)  # 250 Hz × 32 = 8 kHz
 
 
 @pytest.mark.parametrize(
@@ -205,6 +255,7 @@ def test_wrong_units_raise_naming_the_argument(name, bad):
         {"chirp_mass_detector": [28, 30] * u.Msun},
         {"max_seconds": 0.5},
         {"sample_rate": 4000},
+        {"pitch_factor": 0.0},
     ],
 )
 def test_impossible_inputs_raise_value_error(change):

@@ -1,0 +1,179 @@
+"""The context of the methods page: every registered method with the events that used it, and
+the reference data (mass-band edges, counterpart time scales, comparison objects).
+
+The page is for the public, so its texts are decided here: formulas set in Unicode with real
+superscripts and subscripts (the registry marks them ``^{...}`` and ``_{...}``), arXiv ids as
+links to their abstracts, rest-frame delays in the units people use ("60 days to 1 year"), and
+sources only: how a value was obtained (the ``provenance`` notes of the registry and the data
+files) stays with the maintainers.
+"""
+
+from __future__ import annotations
+
+import re
+from dataclasses import dataclass
+
+from markupsafe import Markup, escape
+
+from factsheet import labels
+from factsheet.model import Derived, Reference, WindowSpec
+from factsheet.notation import format_value
+from factsheet.physics.registry import METHODS, Method
+
+ARXIV_URL = "https://arxiv.org/abs/"
+_ARXIV = re.compile(r"arXiv:\s?(\d{4}\.\d{4,5}|[a-z-]+(?:\.[A-Z]{2})?/\d{7})(v\d+)?")
+_SCRIPT = re.compile(r"([\^_])\{([^{}]*)\}")
+
+
+@dataclass(frozen=True)
+class MethodEntry:
+    method: Method
+    events: tuple[str, ...]
+    citation: Markup  # the source, with its arXiv id as a link
+    formula: Markup  # Unicode, with <sup> and <sub>
+    validity: Markup
+    accuracy: Markup
+
+
+@dataclass(frozen=True)
+class WindowScale:
+    name: str
+    spec: WindowSpec
+    delay: str  # the rest-frame delays in words: "60 days to 1 year"
+    basis: Markup
+
+
+@dataclass(frozen=True)
+class SourcedValue:
+    """A reference value as the page shows it: label, value, source and the literature's spread."""
+
+    label: str
+    value: str
+    source: Markup
+    spread: Markup
+    overridden: bool
+
+
+@dataclass(frozen=True)
+class MethodsPage:
+    """The context of ``methods.html``."""
+
+    methods: tuple[MethodEntry, ...]
+    reference: Reference
+    window_scales: tuple[WindowScale, ...]
+    levels: tuple[float, ...]
+    edges: tuple[SourcedValue, ...]
+    comparisons: tuple[SourcedValue, ...]
+
+
+def methods_page(derived: list[Derived], reference: Reference) -> MethodsPage:
+    """Every registered method with the events that used it, and the reference data."""
+    used: dict[str, set[str]] = {}
+    for item in derived:
+        ids = {m for summary in item.quantities.values() for m in summary.methods}
+        for method_id in ids | set(item.other_methods):
+            used.setdefault(method_id, set()).add(item.event.id)
+    entries = tuple(
+        method_entry(m, tuple(sorted(used.get(m.id, ()))))
+        for m in sorted(METHODS.values(), key=lambda m: (not used.get(m.id), m.title))
+    )
+    scales = tuple(
+        WindowScale(labels.WINDOWS[w.key].name, w, delay_range(w), linked(w.basis))
+        for w in reference.windows
+    )
+    levels = tuple(sorted({d.settings.credible_level for d in derived}))
+    edges = tuple(
+        SourcedValue(
+            e.label,
+            _value(e.value.to("solMass")),
+            linked(e.source),
+            linked(e.spread),
+            e.overridden,
+        )
+        for e in reference.mass_bands.edges()
+    )
+    comparisons = tuple(
+        SourcedValue(
+            c.label,
+            _value(c.value),
+            linked(c.source),
+            Markup(""),
+            c.overridden,
+        )
+        for c in reference.comparisons
+    )
+    return MethodsPage(entries, reference, scales, levels, edges, comparisons)
+
+
+def _value(q) -> str:
+    """A reference value to three significant figures. As a Python float: with numpy's float64,
+    a division by a large power of ten leaves a mantissa of 0.999… (read "1.000 × 10⁴⁴")."""
+    return format_value(float(q.value), q.unit.to_string(), 3)
+
+
+def method_entry(method: Method, events: tuple[str, ...]) -> MethodEntry:
+    """A registered method's texts as the page sets them."""
+    citation = method.citation
+    if method.arxiv and f"arXiv:{method.arxiv}" not in citation:
+        citation += f" (arXiv:{method.arxiv})"
+    return MethodEntry(
+        method,
+        events,
+        linked(citation),
+        scripts(method.formula),
+        scripts(method.validity),
+        scripts(method.accuracy),
+    )
+
+
+def linked(text: str) -> Markup:
+    """``text`` escaped, with each ``arXiv:ID`` a link to the abstract."""
+
+    def link(m: re.Match[str]) -> str:
+        return f'<a href="{ARXIV_URL}{m.group(1)}">arXiv:{m.group(1)}</a>'
+
+    return Markup(_ARXIV.sub(link, str(escape(text))))
+
+
+def scripts(text: str) -> Markup:
+    """``text`` escaped, with ``^{...}`` and ``_{...}`` set as superscripts and subscripts."""
+
+    def tag(m: re.Match[str]) -> str:
+        name = "sup" if m.group(1) == "^" else "sub"
+        return f"<{name}>{m.group(2)}</{name}>"
+
+    return Markup(_SCRIPT.sub(tag, str(escape(text))))
+
+
+#: Units of a delay in words, largest first: (seconds, singular, plural); a year from 360 days.
+_UNITS = (
+    (365.25 * 86400, "year", "years", 360 * 86400),
+    (86400, "day", "days", 86400),
+    (3600, "hour", "hours", 3600),
+    (60, "minute", "minutes", 100),
+    (1, "second", "seconds", 0),
+)
+
+
+def delay_words(seconds: float) -> tuple[str, str]:
+    """A delay's size to two significant figures and its unit in words: ("60", "days")."""
+    x = abs(seconds)
+    for size, one, many, from_ in _UNITS:
+        if x >= from_:
+            value = float(f"{x / size:.2g}")
+            number = f"{value:g}"
+            return number, one if value == 1 else many
+    return "0", "seconds"
+
+
+def delay_range(spec: WindowSpec) -> str:
+    """A rest-frame window in words: "6 hours to 3 days", "3 to 14 days", "1 second before to
+    10 seconds after"."""
+    start, end = (float(q.to_value("s")) for q in (spec.start, spec.end))
+    (n0, u0), (n1, u1) = delay_words(start), delay_words(end)
+    if start < 0:
+        after = " after" if end > 0 else " before"
+        return f"{n0} {u0} before to {n1} {u1}{after}"
+    if u0.rstrip("s") == u1.rstrip("s"):  # one unit: "3 to 14 days", "1 to 3 years"
+        return f"{n0} to {n1} {u1}"
+    return f"{n0} {u0} to {n1} {u1}"
