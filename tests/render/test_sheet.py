@@ -131,4 +131,4 @@ def test_a_warning_marks_the_rows_it_concerns():
 def _audio():
     from factsheet.model import Audio
 
-    return Audio("events/TEST-1.wav", "A sound.")
+    return Audio("events/TEST-1.wav", "A sound.", 1.0)
