@@ -69,11 +69,20 @@ def _ceil(t: datetime, unit: str) -> datetime:
     return down + timedelta(seconds=step)
 
 
+def _datetime(t: Time) -> datetime:
+    """A UTC time as a datetime; a time inside a leap second (23:59:60, which datetime cannot
+    hold) is taken as the end of the second before it."""
+    try:
+        return t.utc.to_datetime()
+    except ValueError:
+        return datetime.fromisoformat(t.utc.isot[:17] + "59.999999")
+
+
 def window_times(start: Time, end: Time) -> tuple[str, str, str]:
     """A window's start and end in UTC at the precision its width calls for, and that
     precision."""
     unit = precision((end - start).to_value("s"))
-    first, last = start.utc.to_datetime(), end.utc.to_datetime()
+    first, last = _datetime(start), _datetime(end)
     fmt = FORMATS[unit]
     return _floor(first, unit).strftime(fmt), _ceil(last, unit).strftime(fmt), unit
 

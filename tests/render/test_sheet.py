@@ -46,6 +46,15 @@ def test_window_times_fit_their_width():
     assert months == ("2034-08", "2035-11", "month")  # start floored, end ceiled
 
 
+def test_a_window_starting_in_a_leap_second_still_prints():
+    leap = Time("2016-12-31T23:59:60.5", scale="utc")  # IERS Bulletin C 52: a leap second
+    assert window_times(leap, leap + 30 * u.s) == (
+        "2016-12-31 23:59:59",
+        "2017-01-01 00:00:30",
+        "second",
+    )
+
+
 def test_a_bound_instead_of_a_meaningless_interval():
     from factsheet.model import Summary
 
