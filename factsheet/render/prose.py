@@ -11,17 +11,15 @@ from __future__ import annotations
 import astropy.units as u
 
 from factsheet import labels
-from factsheet.derive.event import measured_names
 from factsheet.load.schema import WHOLE_SKY_DEG2
 from factsheet.model import Derived, Summary
 from factsheet.notation import (
     format_about,
-    format_given_median,
-    format_median,
     format_value,
     how_often,
     percent,
 )
+from factsheet.render.numbers import median_text
 
 #: The class of a source in words at its first use on a page (the trade's abbreviation after).
 CLASS_WORDS = {
@@ -46,13 +44,8 @@ def about(summary: Summary) -> str:
 
 
 def as_in_table(item: Derived, key: str, scale: float = 1.0) -> str:
-    """The median of a quantity exactly as the sheet's table prints it (an input value with
-    the digits it was given with, a derived one rounded by its uncertainty), without unit."""
-    s = item.quantities[key]
-    values = (scale * s.median, scale * s.low, scale * s.high)
-    if measured_names(item.event).get(key) in ("given", "fixed"):
-        return format_given_median(*values)
-    return format_median(*values)
+    """The median of a quantity exactly as the sheet's table prints it, without unit."""
+    return median_text(item, key, scale)
 
 
 def likely_band(item: Derived, subject: str) -> str:

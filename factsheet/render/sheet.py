@@ -24,16 +24,14 @@ from factsheet import __version__, labels
 from factsheet.derive.event import measured_names
 from factsheet.model import Audio, Caveat, Derived, Edge, Event, FigureInfo, Summary
 from factsheet.notation import (
-    format_given,
-    format_interval,
     format_like_interval,
-    format_median,
     format_value,
 )
 from factsheet.render import prose
 from factsheet.render.assets import samples_path
 from factsheet.render.contexts import Link, display_summary, page_of, time_utc
 from factsheet.render.history import HistoryStep, history_steps
+from factsheet.render.numbers import value_text
 from factsheet.render.windows import WindowRow, window_rows
 
 MAX_BOXES = 3
@@ -171,19 +169,6 @@ def place(caveats: Iterable[Caveat]) -> dict[str, list[Caveat]]:
             found["boxes"].append(c)
     found["boxes"].sort(key=lambda c: LEVELS.index(c.level))
     return found
-
-
-def value_text(s: Summary, kind: str = "derived") -> str:
-    """A summary as the sheet prints it: an input value as the editors wrote it, else rounded
-    by its uncertainty, or a bound when the median rounds to zero against a lower bound of
-    zero (never "0.0 +0.5 −0.0")."""
-    if kind in ("given", "fixed"):
-        return format_given(s.median, s.low, s.high, s.unit)
-    text = format_interval(s.median, s.low, s.high, s.unit)
-    at_zero = s.low == 0 or 0 <= s.low < 1e-9 * s.high
-    if at_zero and s.high > 0 and format_median(s.median, s.low, s.high).strip("0.") == "":
-        return f"below {format_value(s.high, s.unit, 2)}"
-    return text
 
 
 def _row(key: str, s: Summary, kind: str, marks: tuple[Note, ...]) -> Row:
