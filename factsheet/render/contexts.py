@@ -20,14 +20,13 @@ from factsheet.model import (
     FigureInfo,
     Reference,
     Settings,
-    SiteFigure,
     Summary,
     WindowSpec,
 )
 from factsheet.notation import format_value
 from factsheet.physics.comparisons import ENERGY_UNITS
 from factsheet.physics.registry import METHODS, Method
-from factsheet.render.history import ChangeEntry, HistoryStep, history_steps
+from factsheet.render.history import HistoryStep, history_steps
 from factsheet.render.prose import headline
 
 
@@ -115,32 +114,6 @@ class EventPage:
 
 
 @dataclass(frozen=True)
-class IndexRow:
-    id: str
-    title: str
-    page: str
-    date: str
-    status: str
-    source_class: str
-    visibility: str
-    band_flags: tuple[str, ...]
-    heavier_mass: Summary
-    lighter_mass: Summary
-    remnant_mass: Summary | None
-    energy_radiated: Summary | None
-    distance: Summary
-
-
-@dataclass(frozen=True)
-class IndexPage:
-    """The context of ``index.html``."""
-
-    rows: tuple[IndexRow, ...]
-    description: str
-    index_figures: tuple[SiteFigure, ...]
-
-
-@dataclass(frozen=True)
 class MethodEntry:
     method: Method
     events: tuple[str, ...]
@@ -160,13 +133,6 @@ class MethodsPage:
     reference: Reference
     window_scales: tuple[WindowScale, ...]
     levels: tuple[float, ...]
-
-
-@dataclass(frozen=True)
-class ChangesPage:
-    """The context of ``changes.html``: additions and revisions, newest first."""
-
-    entries: tuple[ChangeEntry, ...]
 
 
 def time_utc(event: Event) -> str:
@@ -309,45 +275,6 @@ def event_page(
         previous=previous and Link(previous.event.id, page_of(previous.event.id)),
         next=following and Link(following.event.id, page_of(following.event.id)),
         json_path=f"data/{event.id}.json",
-    )
-
-
-#: Bands the index flags for a body (and intermediate mass for any subject) when more likely
-#: than not.
-FLAGGED_BANDS = ("neutron_star", "lower_gap", "pair_instability_gap")
-
-
-def band_flags(item: Derived, threshold: float = 0.5) -> tuple[str, ...]:
-    """Short labels of the notable bands a body is more likely than not to be in, and of
-    intermediate mass when a body or the remnant probably is."""
-    flags = [
-        labels.BANDS[band]
-        for band in FLAGGED_BANDS
-        if any(item.mass_bands.get(b, {}).get(band, 0) > threshold for b in ("heavier", "lighter"))
-    ]
-    if any(p > threshold for p in item.intermediate_mass.values()):
-        flags.append(labels.INTERMEDIATE_MASS)
-    return tuple(flags)
-
-
-def index_row(item: Derived) -> IndexRow:
-    """One row of the index table, numbers in the units the sheets use."""
-    q, units = item.quantities, item.settings.energy_units
-    energy = q.get("energy_radiated")
-    return IndexRow(
-        id=item.event.id,
-        title=item.event.title,
-        page=page_of(item.event.id),
-        date=item.event.time.utc.isot[:10],
-        status=item.event.status,
-        source_class=item.source_class,
-        visibility=item.event.visibility,
-        band_flags=band_flags(item),
-        heavier_mass=q["heavier_mass"],
-        lighter_mass=q["lighter_mass"],
-        remnant_mass=q.get("remnant_mass"),
-        energy_radiated=energy and display_summary(energy, units),
-        distance=q["distance"],
     )
 
 

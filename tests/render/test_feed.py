@@ -14,10 +14,15 @@ from factsheet.derive import derive_event
 from factsheet.load import load_catalogue
 from factsheet.load.values import parse_interval
 from factsheet.model import Body, Estimate
-from factsheet.render.contexts import ChangesPage
 from factsheet.render.environment import make_environment
 from factsheet.render.feed import atom_feed, entry_id, entry_summary
-from factsheet.render.history import UNDATED_NOTE, change_entries, changes_between
+from factsheet.render.history import (
+    UNDATED_NOTE,
+    ChangesPage,
+    change_entries,
+    changes_between,
+    changes_page,
+)
 from factsheet.render.site import Renderer
 from factsheet.resources import demo_dir
 
@@ -84,7 +89,7 @@ history:
 # One addition per event (3); revisions: B-2 "Refined" and its undated current estimate (2),
 # C-3 "Final" (1); C-3's current estimate equals "Final", so it is no revision.
 INPUT_DATES = {
-    ("A-1", "added"): ["2034-03-01T10:00:00.000Z"],  # no history: the merger time
+    ("A-1", "added"): ["2034-03-01T10:00:00.000Z"],  # undated: carries the merger time
     ("B-2", "added"): ["2034-04-02T08:30:00.000Z"],  # day-only date before the merger: merger
     ("B-2", "revised"): ["2034-05-20T00:00:00.000Z", "2034-05-20T00:00:00.000Z"],
     ("C-3", "added"): ["2034-06-11T12:00:00.000Z"],
@@ -135,11 +140,19 @@ def test_entries_newest_first_and_deterministic(derived):
 def test_what_changed_old_to_new(derived):
     by_label = {(e.event_id, e.label): e for e in change_entries(derived)}
     refined = [c.text for c in by_label["B-2", "Refined"].changes]
-    assert refined == ["m₁: 40 → 39 M⊙", "m₂: 31 → 30 M⊙", "Distance: 900 → 800 Mpc"]
+    # values as the sheets write them: the given interval, rounded by its uncertainty
+    assert refined == [
+        "m₁: 40 +8 −8 M⊙ → 39 +5 −5 M⊙",
+        "m₂: 31 +6 −6 M⊙ → 30 +4 −4 M⊙",
+        "Distance: 900 +300 −300 Mpc → 800 +200 −200 Mpc",
+    ]
     current = [c.text for c in by_label["B-2", "Current estimate"].changes]
-    assert current == ["m₁: 39 → 38 M⊙", "χ₁: not given → 0.2"]
+    assert current == [
+        "m₁: 39 +5 −5 M⊙ → 38 +4 −4 M⊙",
+        "χ₁: not given → 0.20 +0.20 −0.20",
+    ]  # PDG: two digits
     first = [c.text for c in by_label["A-1", "First estimate"].changes]
-    assert first == ["m₁: 30 M⊙", "m₂: 20 M⊙", "Distance: 500 Mpc"]
+    assert first == ["m₁: 30 +5 −5 M⊙", "m₂: 20 +5 −5 M⊙", "Distance: 500 +100 −100 Mpc"]
 
 
 def test_feed_dates_come_from_the_inputs_not_the_clock(derived):
@@ -227,14 +240,15 @@ class Page(HTMLParser):
 def test_changes_page(derived):
     entries = change_entries(derived)
     renderer = Renderer(make_environment(), derived[0].settings, "public", "")
-    html = renderer.page("changes.html", "changes.html", ChangesPage(tuple(entries)))
+    html = renderer.page("changes.html", "changes.html", changes_page(derived))
     page = Page()
     page.feed(html.decode("utf-8"))
     assert "feed.xml" in page.links and "events/B-2.html" in page.links
-    assert page.times == [e.timestamp for e in entries]
+    assert page.times == [e.timestamp for e in entries]  # dated ones, then the undated
     text = " ".join("".join(page.text).split())
     assert "<script>alert(1)</script> & friends" in text
-    assert "m₁: 40 → 39 M⊙" in text
+    assert "m₁: 40 +8 −8 M⊙ → 39 +5 −5 M⊙" in text
+    assert "merger 2034-03-01" in text  # A-1's addition is undated: its merger date, labelled
     assert "not from a full re-analysis" in text
 
 
@@ -271,5 +285,6 @@ def test_a_revision_without_change_says_so(catalogue):
     assert "no change in the listed values" in entry_summary(rechecked)
     renderer = Renderer(make_environment(), loaded.settings, "public", "")
     page = Page()
-    page.feed(renderer.page("changes.html", "changes.html", ChangesPage(tuple(entries))).decode())
+    context = ChangesPage(tuple(entries), ())
+    page.feed(renderer.page("changes.html", "changes.html", context).decode())
     assert "No change in the listed values." in " ".join("".join(page.text).split())
