@@ -8,10 +8,10 @@ embargoed whenever its event has an ``embargo_until``, with that date, as the sh
 
 from __future__ import annotations
 
-from dataclasses import dataclass
+from dataclasses import dataclass, replace
 
 from factsheet import labels
-from factsheet.model import Derived, SiteFigure, Summary
+from factsheet.model import SOURCE, Derived, SiteFigure, Summary
 from factsheet.render.contexts import display_summary, page_of
 
 #: The catalogue exports the index links to (site paths), with their format's name.
@@ -33,11 +33,11 @@ class IndexRow:
     visibility: str
     embargo_until: str  # "YYYY-MM-DD HH:MM" (UTC) or ""
     band_flags: tuple[str, ...]
-    heavier_mass: Summary
-    lighter_mass: Summary
+    heavier_mass: Summary | None
+    lighter_mass: Summary | None
     remnant_mass: Summary | None
     energy_radiated: Summary | None
-    distance: Summary
+    distance: Summary | None
 
     @property
     def withheld(self) -> str:
@@ -86,6 +86,28 @@ class IndexPage:
     exports: tuple[tuple[str, str], ...] = EXPORTS  # (site path, format name)
 
 
+#: The index's columns that an input can give as they are: column key -> (estimate path, frame
+#: the input must be in for the column's source-frame value to be the given one).
+GIVEN = {
+    "heavier_mass": ("heavier.mass", SOURCE),
+    "lighter_mass": ("lighter.mass", SOURCE),
+    "distance": ("distance", None),
+}
+
+
+def shown_summary(item: Derived, key: str) -> Summary | None:
+    """The value a page shows for a quantity: as given in the input when the input gives it
+    (median and bounds as written, so every page prints the input's own interval), otherwise
+    the summary derived from the samples."""
+    derived = item.quantities.get(key)
+    path, frame = GIVEN.get(key, ("", None))
+    given = item.event.estimate.values().get(path)
+    if derived is None or given is None or (frame and item.event.frame != frame):
+        return derived
+    value = given.to(derived.unit)
+    return replace(derived, median=value.median, low=value.low, high=value.high)
+
+
 def band_flags(item: Derived, threshold: float = 0.5) -> tuple[str, ...]:
     """Short labels of the notable bands a body is more likely than not to be in, and of
     intermediate mass when a body or the remnant probably is."""
@@ -116,11 +138,11 @@ def index_row(item: Derived, audience: str = "public") -> IndexRow:
         visibility=event.visibility if internal else "public",
         embargo_until=embargo if internal else "",
         band_flags=band_flags(item),
-        heavier_mass=q["heavier_mass"],
-        lighter_mass=q["lighter_mass"],
+        heavier_mass=shown_summary(item, "heavier_mass"),
+        lighter_mass=shown_summary(item, "lighter_mass"),
         remnant_mass=q.get("remnant_mass"),
         energy_radiated=energy and display_summary(energy, units),
-        distance=q["distance"],
+        distance=shown_summary(item, "distance"),
     )
 
 

@@ -288,3 +288,95 @@ def test_a_revision_without_change_says_so(catalogue):
     context = ChangesPage(tuple(entries), ())
     page.feed(renderer.page("changes.html", "changes.html", context).decode())
     assert "No change in the listed values." in " ".join("".join(page.text).split())
+
+
+RETRACTED = """\
+id: E-5
+title: Withdrawn pair
+time: "2034-09-01T12:00:00"
+status: retracted
+estimate:
+  heavier: {mass: 88 +17 -14 Msun}
+  lighter: {mass: 67 +15 -17 Msun}
+  distance: 3900 +1900 -1700 Mpc
+history:
+  - {date: "2034-09-01T13:00:00", label: First report, status: candidate,
+     estimate: {heavier: {mass: 88 +17 -14 Msun}, lighter: {mass: 67 +15 -17 Msun},
+                distance: 3900 +1900 -1700 Mpc}}
+  - {date: "2034-09-03", label: Withdrawn, status: retracted, note: Noise at one site.}
+"""
+
+
+@pytest.fixture
+def retracted(catalogue):
+    loaded = load_catalogue(catalogue({"catalogue.yaml": SETTINGS, "e.yaml": RETRACTED}))
+    return [derive_event(e, loaded.settings) for e in loaded.events]
+
+
+def test_a_retraction_is_an_entry_of_its_own_on_its_own_date(retracted):
+    entries = change_entries(retracted)
+    assert [(e.kind, e.label, e.timestamp) for e in entries] == [
+        ("retracted", "Withdrawn", "2034-09-03T00:00:00.000Z"),
+        ("added", "First report", "2034-09-01T13:00:00.000Z"),
+    ]
+    withdrawn, added = entries
+    assert [c.text for c in withdrawn.changes] == ["Status: candidate → retracted"]
+    assert entry_summary(withdrawn) == "Noise at one site. Status: candidate → retracted."
+    # the given interval as the sheet writes it: 88 +17 −14, not a summary of the draws
+    assert [c.text for c in added.changes] == [
+        "m₁: 88 +17 −14 M⊙",
+        "m₂: 67 +15 −17 M⊙",
+        "Distance: 3900 +1900 −1700 Mpc",
+        "Status: candidate",
+    ]
+    feed = parse(atom_feed(entries, retracted[0].settings))
+    titles = [e.find(f"{ATOM}title").text for e in feed.findall(f"{ATOM}entry")]
+    assert "E-5 retracted: Withdrawn — Withdrawn pair" in titles
+
+
+def test_an_undated_addition_is_listed_apart_and_says_so(derived):
+    page = changes_page(derived)
+    assert [e.event_id for e in page.undated] == ["A-1"]
+    assert all(e.dated for e in page.entries)
+    (added,) = page.undated
+    assert "The inputs give this estimate no date; the entry carries the merger time" in (
+        entry_summary(added)
+    )
+    renderer = Renderer(make_environment(), derived[0].settings, "public", "")
+    html = renderer.page("changes.html", "changes.html", page).decode()
+    undated = html.split('id="undated-heading"', 1)[1]
+    assert 'merger <time datetime="2034-03-01T10:00:00.000Z">2034-03-01</time>' in undated
+    assert "A-1" not in html.split('id="undated-heading"', 1)[0].split("<main", 1)[1]
+
+
+def test_every_feed_link_is_absolute_under_a_base_url_and_relative_without(derived):
+    settings = replace(derived[0].settings, base_url="https://example.org/cat")
+    root = parse(atom_feed(change_entries(derived), settings))
+    hrefs = [link.get("href") for link in root.iter(f"{ATOM}link")]
+    assert hrefs and all(h.startswith("https://example.org/cat/") for h in hrefs), hrefs
+    assert "https://example.org/cat/changes.html" in hrefs
+    relative = parse(atom_feed(change_entries(derived), derived[0].settings))
+    hrefs = [link.get("href") for link in relative.iter(f"{ATOM}link")]
+    assert hrefs and not any("//" in h or h.startswith("/") for h in hrefs), hrefs
+
+
+def test_the_licence_is_the_feeds_rights(derived):
+    settings = replace(derived[0].settings, licence="CC BY 4.0")
+    rights = parse(atom_feed(change_entries(derived), settings)).find(f"{ATOM}rights")
+    assert (rights.text, rights.get("type")) == ("CC BY 4.0", "text")
+    assert (
+        parse(atom_feed(change_entries(derived), derived[0].settings)).find(f"{ATOM}rights") is None
+    )
+
+
+def test_demo_retraction_on_the_changes_page_and_in_the_feed():
+    catalogue = load_catalogue(demo_dir())
+    event = next(e for e in catalogue.events if e.id == "MER34-007")
+    item = derive_event(event, replace(catalogue.settings, samples=200))
+    entries = change_entries([item])
+    assert [(e.kind, e.day) for e in entries] == [
+        ("retracted", "2034-05-26"),
+        ("added", "2034-05-24"),
+    ]
+    assert all(e.dated for e in entries)
+    assert event.time.utc.isot[:10] == "2034-05-24" and entries[0].date > event.time
