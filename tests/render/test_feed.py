@@ -22,6 +22,7 @@ from factsheet.render.history import (
     change_entries,
     changes_between,
     changes_page,
+    history_steps,
 )
 from factsheet.render.site import Renderer
 from factsheet.resources import demo_dir
@@ -380,3 +381,36 @@ def test_demo_retraction_on_the_changes_page_and_in_the_feed():
     ]
     assert all(e.dated for e in entries)
     assert event.time.utc.isot[:10] == "2034-05-24" and entries[0].date > event.time
+
+
+def test_a_history_of_status_changes_only(catalogue):
+    text = RETRACTED.split("history:")[0] + (
+        'history:\n  - {date: "2034-09-03", label: Withdrawn, status: retracted}\n'
+    )
+    loaded = load_catalogue(catalogue({"catalogue.yaml": SETTINGS, "e.yaml": text}))
+    (event,) = loaded.events
+    entries = change_entries([derive_event(event, loaded.settings)])
+    assert [(e.kind, e.dated, e.day) for e in entries] == [
+        ("retracted", True, "2034-09-03"),
+        ("added", False, "2034-09-01"),  # the estimate has no date: listed under the merger
+    ]
+    assert [c.text for c in entries[0].changes] == ["Status: retracted"]
+    steps = history_steps(event)  # the sheet: the estimate first, then the retraction
+    assert [(s.label, s.changes) for s in steps] == [
+        ("First estimate", ()),
+        ("Withdrawn", (("Status", "not recorded", "retracted"),)),
+    ]
+
+
+def test_what_check_accepts_builds(catalogue, tmp_path):
+    from factsheet.build import build
+
+    text = RETRACTED.split("history:")[0] + (
+        'history:\n  - {date: "2034-09-03", label: Withdrawn, status: retracted}\n'
+    )
+    out = tmp_path / "site"
+    build(catalogue({"catalogue.yaml": SETTINGS, "e.yaml": text}), out, jobs=1)
+    sheet = " ".join((out / "events" / "E-5.html").read_text(encoding="utf-8").split())
+    assert "Status: not recorded → retracted" in sheet
+    changes = (out / "changes.html").read_text(encoding="utf-8")
+    assert "E-5</a> retracted: <strong>Withdrawn</strong>" in changes
