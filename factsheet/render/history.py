@@ -107,7 +107,8 @@ def changes_between(
     return tuple(out)
 
 
-def status_change(old: str | None, new: str) -> Change:
+def status_row(old: str | None, new: str) -> Change:
+    """The status before and after a step (``old`` None: the first status recorded)."""
     return Change("status", labels.STATUS, old, new)
 
 
@@ -124,7 +125,7 @@ class Step:
     old_status: str | None = None  # a change of status: the status before it, when recorded
 
     @property
-    def status_change(self) -> bool:
+    def is_status_change(self) -> bool:
         return self.estimate is None
 
 
@@ -176,7 +177,7 @@ def history_steps(event: Event) -> list[HistoryStep]:
     for step in steps:
         date = "" if step.date is None or step.origin == "current" else step.date.utc.isot[:10]
         note = "" if step.origin == "current" else step.note
-        if step.status_change:
+        if step.is_status_change:
             old = step.old_status or labels.NOT_RECORDED
             values = ((labels.STATUS, step.status),)
             changes = ((labels.STATUS, old, step.status),)
@@ -235,13 +236,13 @@ def event_entries(event: Event) -> list[ChangeEntry]:
     entries, before = [], None
     for i, step in enumerate(event_steps(event)):
         when = event.time if step.date is None or step.date < event.time else step.date
-        if step.status_change:
-            kind, changes = step.status, (status_change(step.old_status, step.status),)
+        if step.is_status_change:
+            kind, changes = step.status, (status_row(step.old_status, step.status),)
         else:
             kind = ADDED if before is None else REVISED
             changes = changes_between(before, step.estimate, event.frame)
             if step.status:
-                changes += (status_change(None, step.status),)
+                changes += (status_row(None, step.status),)
             before = step.estimate
         entries.append(
             ChangeEntry(
