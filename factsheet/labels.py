@@ -191,6 +191,26 @@ WINDOW_BANDS = {
 }
 
 
+#: The event's status, as a row of the history and of the changes.
+STATUS = "Status"
+#: A value an estimate does not give, and a status the history does not record.
+NOT_GIVEN = "not given"
+NOT_RECORDED = "not recorded"
+
+#: What an entry of the changes page and the feed says happened (by its kind).
+CHANGE_KINDS = {
+    "added": "added",
+    "revised": "revised",
+    "retracted": "retracted",
+    "confirmed": "confirmed",
+    "candidate": "made a candidate again",
+}
+
+#: The index's words for items a public build leaves out (internal builds only).
+INTERNAL_ONLY = "internal only"
+EMBARGOED_UNTIL = "embargoed until"
+
+
 def estimate_value(path: str, frame: str) -> str:
     """The short label of a value of an estimate (``heavier.mass`` -> ``m₁``), saying when its
     masses were given in the detector frame (history lists, history figure, changes, feed)."""

@@ -97,6 +97,8 @@ class Settings:
     low_significance_rate: u.Quantity = field(default_factory=lambda: 1.0 / u.yr)
     large_sky_area: u.Quantity = field(default_factory=lambda: 1000.0 * u.deg**2)
     limits: Limits = field(default_factory=Limits)
+    licence: str = ""  # licence of the pages and exports (text, e.g. "CC BY 4.0")
+    citation: str = ""  # how to cite the catalogue (Markdown)
 
     def fingerprint(self) -> str:
         """A stable text form of the settings that change derived numbers."""
@@ -195,12 +197,16 @@ class Host:
 
 @dataclass(frozen=True)
 class HistoryEntry:
-    """An earlier estimate of the event."""
+    """One dated step of the event's history: an earlier estimate, a change of status, or both.
+
+    At least one of ``estimate`` and ``status`` is set (the load stage sees to it).
+    """
 
     date: Time
     label: str
-    note: str
-    estimate: Estimate
+    note: str = ""
+    estimate: Estimate | None = None
+    status: str | None = None  # the event's status from this date on (candidate, ...)
 
 
 @dataclass(frozen=True)

@@ -265,3 +265,29 @@ def test_methods_page_fits_a_phone_width(visit, http_root, scheme):
     assert v.page.locator(".method .formula sup").count() >= 10
     assert v.page.locator(".method code").count() == 0
     assert v.errors == []
+
+
+def test_index_keeps_filter_and_sort_in_the_address(visit, root):
+    v = visit(root + "index.html")
+    v.page.get_by_label("Filter", exact=True).fill("MER34-006")
+    v.page.locator("#catalogue thead th[data-key=heavier_mass]").get_by_role("button").click()
+    shared = v.page.url
+    assert urlsplit(shared).fragment == "q=MER34-006&sort=heavier_mass"
+    w = visit(shared)  # the shared link restores the view, from file:// as over http
+    assert w.page.get_by_label("Filter", exact=True).input_value() == "MER34-006"
+    assert w.page.evaluate(SHOWN) == 1
+    header = w.page.locator("#catalogue thead th[data-key=heavier_mass]")
+    assert header.get_attribute("aria-sort") == "ascending"
+    assert v.errors == [] and w.errors == []
+
+
+def test_index_says_when_nothing_matches_and_clears_the_filter(visit, root):
+    v = visit(root + "index.html#q=no-such-event")
+    assert v.page.evaluate(SHOWN) == 0
+    message = v.page.locator("#catalogue tfoot.no-match")
+    assert message.is_visible()
+    assert " ".join(message.inner_text().split()) == "No event matches — clear the filter"
+    message.get_by_role("button", name="clear the filter").click()
+    assert v.page.evaluate(SHOWN) == v.page.locator("#catalogue tbody tr").count()
+    assert not message.is_visible() and urlsplit(v.page.url).fragment == ""
+    assert v.errors == []

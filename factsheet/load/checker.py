@@ -143,20 +143,36 @@ class Checker:
         return Estimate(**values)
 
     def _history(self, raw, key, path, line) -> tuple[HistoryEntry, ...] | None:
+        """The entries, which must be listed oldest first (entries of one date keep their
+        order); each needs an estimate, a status, or both."""
         if not isinstance(raw, LineList):
-            self.fail(line, path, "expected a list of earlier estimates")
+            self.fail(line, path, "expected a list of earlier estimates and changes of status")
             return None
-        entries = []
+        entries: list[HistoryEntry] = []
         for i, item in enumerate(raw):
             where = f"{path}[{i}]"
             values = self._section(item, HISTORY_KEYS, where, raw.line_of(i), "")
-            if values is not None:
-                entries.append(
-                    HistoryEntry(
-                        values["date"], values["label"], values.get("note", ""), values["estimate"]
-                    )
+            if values is None:
+                continue
+            if "estimate" not in values and "status" not in values:
+                self.fail(
+                    raw.line_of(i),
+                    where,
+                    "an entry needs an estimate, a status, or both (e.g. an earlier estimate "
+                    "under estimate:, or a change of status such as status: retracted)",
                 )
-        return tuple(sorted(entries, key=lambda e: e.date.unix))
+                continue
+            if entries and values["date"] < entries[-1].date:
+                self.fail(
+                    item.line_of("date"),
+                    f"{where}.date",
+                    f"{_day(values['date'])} is earlier than the entry before it "
+                    f"('{entries[-1].label}', {_day(entries[-1].date)}); list the history "
+                    "oldest first",
+                )
+                continue
+            entries.append(HistoryEntry(**values))
+        return tuple(entries)
 
     def _host(self, raw, key, path, line) -> Host | None:
         values = self._section(raw, HOST_KEYS, path, line, "")
@@ -180,6 +196,12 @@ class Checker:
             else:
                 out[name] = value
         return Limits(**out)
+
+
+def _day(time) -> str:
+    """A date as given to the day or to the second (UTC)."""
+    text = time.utc.isot
+    return text[:10] if text.endswith("T00:00:00.000") else text[:19].replace("T", " ") + " UTC"
 
 
 def distance_beyond_table(distance_mpc: float, cosmology: str) -> str:

@@ -16,7 +16,12 @@ COMPARED = ("heavier.mass", "lighter.mass", "distance")
 
 def consistency_warnings(event: Event) -> list[Problem]:
     """Every warning about one validated event."""
-    return [*_history_dates(event), *_embargo(event), *_samples_agree(event)]
+    return [
+        *_history_dates(event),
+        *_status_agrees(event),
+        *_embargo(event),
+        *_samples_agree(event),
+    ]
 
 
 def _warn(event: Event, key: str, message: str) -> Problem:
@@ -31,11 +36,29 @@ def _history_dates(event: Event) -> list[Problem]:
         _warn(
             event,
             f"history[{i}].date",
-            f"estimate '{h.label}' is dated "
+            f"history entry '{h.label}' is dated "
             f"{h.date.utc.isot[:10]}, before the merger ({merger_day})",
         )
         for i, h in enumerate(event.history)
         if h.date.utc.isot[:10] < merger_day
+    ]
+
+
+def _status_agrees(event: Event) -> list[Problem]:
+    """The event's ``status`` should be the one its latest change of status set."""
+    changes = [(i, h) for i, h in enumerate(event.history) if h.status is not None]
+    if not changes or changes[-1][1].status == event.status:
+        return []
+    i, last = changes[-1]
+    return [
+        _warn(
+            event,
+            "status",
+            f"the status is '{event.status}' but the latest change of status in the history "
+            f"(history[{i}], '{last.label}') says '{last.status}'; pages show '{event.status}' "
+            f"(expected status: {last.status}, or a later history entry with status: "
+            f"{event.status})",
+        )
     ]
 
 

@@ -41,7 +41,8 @@ estimate:
 # visibility: internal   # leave out of public builds
 # embargo_until: "2034-05-01T00:00"
 # host: {{smbh_mass: 1e8 Msun, orbit_radius: 700, disk_aspect_ratio: 0.01}}
-# history: earlier estimates, oldest first, each {{date, label, note, estimate}}
+# history: earlier estimates and changes of status, oldest first, each
+#   {{date, label, note, estimate}} or {{date, label, note, status: retracted}} (or both)
 
 summary: |
   A few plain sentences for the page.

@@ -70,7 +70,9 @@ EVENT_KEYS: dict[str, Key] = {
     "visibility": Key("choice", "public or internal", choices=("public", "internal")),
     "embargo_until": Key("time", "UTC time before which a public build leaves the event out"),
     "history": Key(
-        "history", "earlier estimates, oldest first, each {date, label, note, estimate}"
+        "history",
+        "earlier estimates and changes of status, oldest first, each {date, label, note, "
+        "estimate, status}",
     ),
     "summary": Key("markdown", "Markdown text for the page"),
     "caveats": Key("markdown_list", "list of Markdown strings written by the editors"),
@@ -143,12 +145,18 @@ BODY_KEYS: dict[str, Key] = {
     ),
 }
 
+#: A history entry needs a date and a label, and an estimate, a status, or both.
 HISTORY_KEYS: dict[str, Key] = {
-    "date": Key("time", "when this estimate was issued", True, example="2034-04-12"),
-    "label": Key("text", "short name of the estimate", True, example="Rapid estimate"),
-    "note": Key("markdown", "what this estimate was"),
-    "estimate": Key("estimate", "the values of this estimate", True),
-    "status": unsupported("a change of status", "set the event's status"),
+    "date": Key("time", "when this estimate or change of status was issued", True, "2034-04-12"),
+    "label": Key("text", "short name of the step", True, example="Rapid estimate"),
+    "note": Key("markdown", "what this step was"),
+    "estimate": Key("estimate", "the values of this estimate"),
+    "status": Key(
+        "choice",
+        "the event's status from this date on: candidate, confirmed or retracted",
+        example="retracted",
+        choices=("candidate", "confirmed", "retracted"),
+    ),
 }
 
 HOST_KEYS: dict[str, Key] = {
@@ -243,8 +251,10 @@ CATALOGUE_KEYS: dict[str, Key] = {
     "limits": Key(
         "limits", "guards on input size: max_file_bytes, max_depth, max_aliases, max_sample_rows"
     ),
-    "licence": unsupported("licence text for the footer and the exports", "leave it out"),
-    "citation": unsupported("how to cite the catalogue", "put it in the description"),
+    "licence": Key(
+        "text", "licence of the pages and exports, shown in the footer", example="CC BY 4.0"
+    ),
+    "citation": Key("markdown", "how to cite the catalogue (Markdown), shown on every sheet"),
     "languages": unsupported("languages of the site", "leave it out (the site is in English)"),
     "what_if_lensed": unsupported("default magnifications for the lensing panel", "leave it out"),
 }

@@ -10,16 +10,12 @@ from dataclasses import dataclass, fields, replace
 
 import astropy.units as u
 
-from factsheet import labels
 from factsheet.model import (
-    Derived,
     Event,
     Settings,
-    SiteFigure,
     Summary,
 )
 from factsheet.physics.comparisons import ENERGY_UNITS
-from factsheet.render.history import ChangeEntry
 
 
 @dataclass(frozen=True)
@@ -41,39 +37,6 @@ def variables(*contexts: object) -> dict[str, object]:
 class Link:
     id: str
     page: str
-
-
-@dataclass(frozen=True)
-class IndexRow:
-    id: str
-    title: str
-    page: str
-    date: str
-    status: str
-    source_class: str
-    visibility: str
-    band_flags: tuple[str, ...]
-    heavier_mass: Summary
-    lighter_mass: Summary
-    remnant_mass: Summary | None
-    energy_radiated: Summary | None
-    distance: Summary
-
-
-@dataclass(frozen=True)
-class IndexPage:
-    """The context of ``index.html``."""
-
-    rows: tuple[IndexRow, ...]
-    description: str
-    index_figures: tuple[SiteFigure, ...]
-
-
-@dataclass(frozen=True)
-class ChangesPage:
-    """The context of ``changes.html``: additions and revisions, newest first."""
-
-    entries: tuple[ChangeEntry, ...]
 
 
 def time_utc(event: Event) -> str:
@@ -107,43 +70,4 @@ def converted(summary: Summary, unit: str) -> Summary:
         high=summary.high * factor,
         unit=unit,
         fit_spread=spread,
-    )
-
-
-#: Bands the index flags for a body (and intermediate mass for any subject) when more likely
-#: than not.
-FLAGGED_BANDS = ("neutron_star", "lower_gap", "pair_instability_gap")
-
-
-def band_flags(item: Derived, threshold: float = 0.5) -> tuple[str, ...]:
-    """Short labels of the notable bands a body is more likely than not to be in, and of
-    intermediate mass when a body or the remnant probably is."""
-    flags = [
-        labels.BANDS[band]
-        for band in FLAGGED_BANDS
-        if any(item.mass_bands.get(b, {}).get(band, 0) > threshold for b in ("heavier", "lighter"))
-    ]
-    if any(p > threshold for p in item.intermediate_mass.values()):
-        flags.append(labels.INTERMEDIATE_MASS)
-    return tuple(flags)
-
-
-def index_row(item: Derived) -> IndexRow:
-    """One row of the index table, numbers in the units the sheets use."""
-    q, units = item.quantities, item.settings.energy_units
-    energy = q.get("energy_radiated")
-    return IndexRow(
-        id=item.event.id,
-        title=item.event.title,
-        page=page_of(item.event.id),
-        date=item.event.time.utc.isot[:10],
-        status=item.event.status,
-        source_class=item.source_class,
-        visibility=item.event.visibility,
-        band_flags=band_flags(item),
-        heavier_mass=q["heavier_mass"],
-        lighter_mass=q["lighter_mass"],
-        remnant_mass=q.get("remnant_mass"),
-        energy_radiated=energy and display_summary(energy, units),
-        distance=q["distance"],
     )

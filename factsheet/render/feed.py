@@ -1,10 +1,13 @@
 """The Atom feed of the catalogue's changes (``feed.xml``).
 
 The entries are those of the changes page (:mod:`factsheet.render.history`), dated from the
-inputs, never the build clock. The feed is Atom 1.0 (IETF RFC 4287), written with
-:mod:`xml.etree.ElementTree`, which escapes text; characters XML 1.0 forbids are dropped. Entry
-ids are ``urn:uuid:`` name-based UUIDs (IETF RFC 4122, version 5) of the event id, date, kind
-and origin, so they are stable across builds.
+inputs, never the build clock; an undated addition (an event whose inputs date none of its
+estimates) carries the merger time, because every Atom entry needs a date, and its summary says
+so. The feed is Atom 1.0 (IETF RFC 4287), written with :mod:`xml.etree.ElementTree`, which
+escapes text; characters XML 1.0 forbids are dropped. Links are absolute under the catalogue's
+``base_url`` and relative to the feed (at the site root) without one. Entry ids are
+``urn:uuid:`` name-based UUIDs (IETF RFC 4122, version 5) of the event id, date, kind and
+origin, so they are stable across builds. The catalogue's ``licence`` is the feed's ``rights``.
 """
 
 from __future__ import annotations
@@ -14,7 +17,7 @@ import uuid
 import xml.etree.ElementTree as ET
 
 from factsheet.model import Settings
-from factsheet.render.history import ADDED, ChangeEntry
+from factsheet.render.history import ADDED, REVISED, ChangeEntry
 
 ATOM = "http://www.w3.org/2005/Atom"
 NAMESPACE = uuid.UUID("d573d04c-89f0-4b52-bf7c-69f004be1040")  # fixed: ids stay stable
@@ -29,14 +32,19 @@ def entry_id(entry: ChangeEntry) -> str:
 
 
 def entry_title(entry: ChangeEntry) -> str:
-    return f"{entry.event_id} {entry.kind}: {entry.label} — {entry.title}"
+    return f"{entry.event_id} {entry.what}: {entry.label} — {entry.title}"
 
 
 def entry_summary(entry: ChangeEntry) -> str:
-    """Plain text: the note, then the values (first estimate) or what changed."""
-    lead = "Values" if entry.kind == ADDED else "Changes"
+    """Plain text: when the date is not the input's, the note, then the values (an addition),
+    what changed (a revision) or the change of status."""
+    undated = (
+        f"The inputs give this estimate no date; the entry carries the merger time "
+        f"({entry.timestamp})."
+    )
+    lead = {ADDED: "Values as given: ", REVISED: "Changes: "}.get(entry.kind, "")
     lines = "; ".join(c.text for c in entry.changes) or "no change in the listed values"
-    parts = [entry.note.strip(), f"{lead} (medians as given): {lines}."]
+    parts = ["" if entry.dated else undated, entry.note.strip(), f"{lead}{lines}."]
     return " ".join(p for p in parts if p)
 
 
@@ -68,8 +76,11 @@ def atom_feed(entries: list[ChangeEntry], settings: Settings, base_url: str | No
     _add(
         feed,
         "subtitle",
-        "Additions and revisions of the catalogue's estimates. Preliminary estimates can change.",
+        "Additions, revisions and changes of status of the catalogue's events. Preliminary "
+        "estimates can change.",
     )
+    if settings.licence:
+        _add(feed, "rights", settings.licence, type="text")
     _add(feed, "updated", max((e.timestamp for e in entries), default=EMPTY_FEED_DATE))
     _add(_add(feed, "author"), "name", settings.title)
     _add(feed, "link", rel="alternate", type="text/html", href=_site_link(base, "changes.html"))

@@ -151,7 +151,7 @@ def _comparisons(item: Derived, base: str) -> list[SiteFigure]:
 def _history_points(item: Derived) -> list[fg.HistoryItem]:
     """The masses and the distance of every estimate, labelled as in the history list."""
     event = item.event
-    steps = [(h.label, h.date.utc.isot[:10], h.estimate) for h in event.history]
+    steps = [(h.label, h.date.utc.isot[:10], h.estimate) for h in event.history if h.estimate]
     steps.append((CURRENT_LABEL, "", event.estimate))
     points = []
     for label, date, estimate in steps:

@@ -1,22 +1,31 @@
-"""How an event's estimate changed: the sheet's history list and the catalogue's change entries.
+"""How an event changed: the sheet's history list and the catalogue's change entries.
 
 Every date comes from the inputs, never from the build clock. The rule of the changes page and
 the feed:
 
-* An event is *added* with its first estimate: the earliest ``history`` entry, or the current
-  ``estimate`` when the event has no history; dated by that entry's ``date``, or the merger
-  time when there is no history.
-* Each later ``history`` entry is a *revision*, dated by its own ``date``.
-* The current ``estimate`` of an event with history is a *revision* too, unless it equals
-  the latest history entry (then nothing was revised). The inputs give the current estimate no
-  date, so it is listed at the latest history date — the earliest it can have been issued — and
-  its note says so.
-* No estimate is dated before the merger: a date given to the day (``2034-05-11``) is taken as
-  the merger time when the merger fell later that day.
+* An event is *added* with its first estimate: the first ``history`` entry that has an
+  ``estimate``, dated by that entry's ``date``. An event with no earlier estimate in its history
+  is added with its current ``estimate``, which the inputs give no date: that addition is
+  *undated*. The changes page lists undated additions apart, under the merger date (labelled as
+  the merger date), and the feed, whose entries need a date, gives them the merger time and says
+  so in the entry.
+* Each later ``history`` estimate is a *revision*, dated by its own ``date``.
+* The current ``estimate`` of an event with earlier estimates is a *revision* too, unless it
+  equals the latest of them (then nothing was revised). Having no date of its own, it is listed
+  at the date of that latest estimate — the earliest it can have been issued — and its note
+  says so.
+* A ``history`` entry with a ``status`` that differs from the status before it is a *change of
+  status* (``retracted``, ``confirmed``, ``candidate``), an entry of its own dated by its entry's
+  ``date``. A status given with the first estimate is the event's status when it was added,
+  shown with that addition.
+* No entry is dated before the merger: a date given to the day (``2034-05-11``) on the day of the
+  merger is taken as the merger time; the day shown is still the input's.
 
-Entries are sorted newest first; ties keep the later estimate first, then the event id in order.
-Values are labelled by :func:`factsheet.labels.estimate_value`, so a detector-frame input says so
-here exactly as in the history figure.
+Dated entries are sorted newest first; ties keep the later step first, then the event id in
+order. Values are written exactly as the sheet's tables write them (with the digits they
+were given with, :func:`factsheet.notation.format_given`, in the table's units), and labelled
+by :func:`factsheet.labels.estimate_value`, so a detector-frame input says so here exactly as in
+the history figure.
 """
 
 from __future__ import annotations
@@ -26,12 +35,13 @@ from dataclasses import dataclass
 from astropy.time import Time
 
 from factsheet import labels
+from factsheet.load.schema import value_key
 from factsheet.model import Derived, Estimate, Event, Interval
-from factsheet.notation import format_interval, unit_text
+from factsheet.notation import format_given
 
 ADDED, REVISED = "added", "revised"
 CURRENT_LABEL = "Current estimate"
-FIRST_LABEL = "First estimate"  # an event without history: its one estimate is also its first
+FIRST_LABEL = "First estimate"  # the current estimate of an event with no earlier estimate
 UNDATED_NOTE = (
     "The inputs give no date for the current estimate; it is listed at the date of the latest "
     "dated estimate before it."
@@ -47,78 +57,165 @@ LISTED = (
 )
 
 
-@dataclass(frozen=True)
-class HistoryStep:
-    """One estimate on the sheet: its values, and what changed from the one before."""
-
-    label: str
-    date: str
-    note: str
-    values: tuple[tuple[str, str], ...]
-    changes: tuple[tuple[str, str, str], ...]  # (value, old, new)
+def value_text(value: Interval, path: str = "") -> str:
+    """A given value as the sheet's table writes it: in the table's unit, with the digits it
+    was given with (``88 +17 −14 M⊙``; see :mod:`factsheet.render.numbers`)."""
+    unit = value_key(path).canonical_unit if path else ""
+    if unit:
+        value = value.to(unit)
+    return format_given(value.median, value.low, value.high, value.unit.to_string())
 
 
-def _text(value: Interval) -> str:
-    return format_interval(value.median, value.low, value.high, value.unit.to_string())
-
-
-def history_steps(event: Event) -> list[HistoryStep]:
-    """Each estimate, oldest first, with what changed from the one before (old → new)."""
-    if not event.history:
-        return []
-    estimates = [(h.label, h.date.utc.isot[:10], h.note, h.estimate) for h in event.history]
-    estimates.append((CURRENT_LABEL, "", "", event.estimate))
-    steps, before = [], None
-    for label, date, note, estimate in estimates:
-        given = estimate.values()
-        values = tuple(
-            (labels.estimate_value(p, event.frame), _text(given[p])) for p in LISTED if p in given
-        )
-        changes = []
-        if before is not None:
-            for path in LISTED:
-                old = _text(before[path]) if path in before else "not given"
-                new = _text(given[path]) if path in given else "not given"
-                if old != new:
-                    changes.append((labels.estimate_value(path, event.frame), old, new))
-        steps.append(HistoryStep(label, date, note, values, tuple(changes)))
-        before = given
-    return steps
+def _listed(estimate: Estimate, frame: str) -> dict[str, tuple[str, str]]:
+    """Path -> (label, text) of the listed values an estimate gives."""
+    given = estimate.values()
+    return {
+        p: (labels.estimate_value(p, frame), value_text(given[p], p)) for p in LISTED if p in given
+    }
 
 
 @dataclass(frozen=True)
 class Change:
-    """One value's median before and after a revision (None: not given)."""
+    """One value (or the status) before and after a step, as text; ``old`` is None for the
+    values of a first estimate and for a first recorded status."""
 
-    path: str
+    path: str  # an estimate path (``heavier.mass``) or ``status``
     label: str
-    old: float | None
-    new: float | None
-    unit: str
-    initial: bool = False  # a value of the first estimate: no "old"
+    old: str | None
+    new: str
 
     @property
     def text(self) -> str:
-        """``m₁: 97 → 91 M⊙`` (``m₁: 97 M⊙`` for a first estimate)."""
-        unit = f" {unit_text(self.unit)}" if unit_text(self.unit) else ""
-        if self.initial:
-            return f"{self.label}: {_number(self.new)}{unit}"
-        return f"{self.label}: {_number(self.old)} → {_number(self.new)}{unit}"
+        """``m₁: 97 +28 −20 M⊙ → 91 +19 −15 M⊙`` (``m₁: 97 +28 −20 M⊙`` with no old value)."""
+        if self.old is None:
+            return f"{self.label}: {self.new}"
+        return f"{self.label}: {self.old} → {self.new}"
+
+
+def changes_between(
+    before: Estimate | None, after: Estimate, frame: str = "source"
+) -> tuple[Change, ...]:
+    """The listed values that changed (all values given, for a first estimate)."""
+    old = {} if before is None else _listed(before, frame)
+    new = _listed(after, frame)
+    out = []
+    for path in LISTED:
+        if path not in old and path not in new:
+            continue
+        label = (new.get(path) or old[path])[0]
+        was = labels.NOT_GIVEN if path not in old else old[path][1]
+        now = labels.NOT_GIVEN if path not in new else new[path][1]
+        if before is None:
+            out.append(Change(path, label, None, now))
+        elif was != now:
+            out.append(Change(path, label, was, now))
+    return tuple(out)
+
+
+def status_row(old: str | None, new: str) -> Change:
+    """The status before and after a step (``old`` None: the first status recorded)."""
+    return Change("status", labels.STATUS, old, new)
+
+
+@dataclass(frozen=True)
+class Step:
+    """One step of an event's story: an estimate or a change of status, in order."""
+
+    date: Time | None  # None: the inputs give it no date
+    label: str
+    note: str
+    origin: str  # "history" or "current": which input the step comes from
+    estimate: Estimate | None = None
+    status: str | None = None  # an estimate's status when it was added; or the status changed to
+    old_status: str | None = None  # a change of status: the status before it, when recorded
+
+    @property
+    def is_status_change(self) -> bool:
+        return self.estimate is None
+
+
+def event_steps(event: Event) -> list[Step]:
+    """The event's estimates and changes of status, oldest first (rule in the module doc)."""
+    steps: list[Step] = []
+    if not any(h.estimate is not None for h in event.history):
+        steps.append(Step(None, FIRST_LABEL, "", "current", event.estimate))
+    status: str | None = None
+    for h in event.history:
+        if h.estimate is not None:
+            initial = h.status if not steps else None  # the status it was added with
+            steps.append(Step(h.date, h.label, h.note, "history", h.estimate, initial))
+            status = initial or status
+        if h.status is not None and h.status != status:
+            steps.append(Step(h.date, h.label, h.note, "history", None, h.status, status))
+        status = h.status or status
+    estimates = [i for i, s in enumerate(steps) if s.estimate is not None]
+    last = steps[estimates[-1]]
+    if last.origin == "history" and event.estimate.canonical() != last.estimate.canonical():
+        current = Step(last.date, CURRENT_LABEL, UNDATED_NOTE, "current", event.estimate)
+        steps.insert(estimates[-1] + 1, current)
+    return steps
+
+
+# -- the sheet's history list ------------------------------------------------------------------
+
+
+@dataclass(frozen=True)
+class HistoryStep:
+    """One step on the sheet: its values, and what changed from the step before."""
+
+    label: str
+    date: str
+    note: str
+    values: tuple[tuple[str, str], ...]  # (value, text)
+    changes: tuple[tuple[str, str, str], ...]  # (value, old, new)
+
+
+def history_steps(event: Event) -> list[HistoryStep]:
+    """Each estimate and change of status, oldest first, with what changed (old → new); the
+    current estimate last, also when it repeats the latest earlier one. Empty without history."""
+    if not event.history:
+        return []
+    steps = event_steps(event)
+    if not any(s.origin == "current" for s in steps):
+        steps.append(Step(None, CURRENT_LABEL, "", "current", event.estimate))
+    out, before = [], None
+    for step in steps:
+        date = "" if step.date is None or step.origin == "current" else step.date.utc.isot[:10]
+        note = "" if step.origin == "current" else step.note
+        if step.is_status_change:
+            old = step.old_status or labels.NOT_RECORDED
+            values = ((labels.STATUS, step.status),)
+            changes = ((labels.STATUS, old, step.status),)
+        else:
+            values = tuple(
+                (c.label, c.new) for c in changes_between(None, step.estimate, event.frame)
+            )
+            if step.status:
+                values += ((labels.STATUS, step.status),)
+            found = () if before is None else changes_between(before, step.estimate, event.frame)
+            changes = tuple((c.label, c.old or "", c.new) for c in found)
+            before = step.estimate
+        out.append(HistoryStep(step.label, date, note, values, changes))
+    return out
+
+
+# -- the changes page and the feed -----------------------------------------------------------
 
 
 @dataclass(frozen=True)
 class ChangeEntry:
-    """One addition or revision of an event's estimate."""
+    """One addition, revision or change of status of an event."""
 
     event_id: str
     title: str
-    date: Time
-    kind: str
+    date: Time  # the step's date; for an undated addition, the merger time
+    kind: str  # added, revised, or the new status (retracted, confirmed, candidate)
     label: str
     note: str
     changes: tuple[Change, ...]
-    origin: str  # "history" or "current": which input the estimate comes from
-    sequence: int  # position of the estimate in the event's history, oldest first
+    origin: str  # "history" or "current": which input the step comes from
+    sequence: int  # position of the step in the event's story, oldest first
+    dated: bool = True  # False: the inputs give no date; ``date`` is the merger time
 
     @property
     def page(self) -> str:
@@ -133,67 +230,62 @@ class ChangeEntry:
     def day(self) -> str:
         return self.date.utc.isot[:10]
 
-
-def _number(value: float | None) -> str:
-    return "not given" if value is None else f"{value:.10g}".replace("-", "−")
-
-
-def changes_between(
-    before: Estimate | None, after: Estimate, frame: str = "source"
-) -> tuple[Change, ...]:
-    """Old → new medians of the listed values (all values given, for a first estimate)."""
-    out = []
-    old_values = {} if before is None else before.values()
-    new_values = after.values()
-    for path in LISTED:
-        old, new = old_values.get(path), new_values.get(path)
-        if new is None and old is None:
-            continue
-        unit = (new or old).unit
-        old_v = None if old is None else old.to(unit).median
-        new_v = None if new is None else new.median
-        if before is None or old_v != new_v:
-            label = labels.estimate_value(path, frame)
-            out.append(Change(path, label, old_v, new_v, unit.to_string(), before is None))
-    return tuple(out)
-
-
-def _estimates(event: Event) -> list[tuple[Time, str, str, Estimate, str]]:
-    """The event's estimates, oldest first: (date, label, note, estimate, origin)."""
-    if not event.history:
-        return [(event.time, FIRST_LABEL, "", event.estimate, "current")]
-    out = [(h.date, h.label, h.note, h.estimate, "history") for h in event.history]
-    if event.estimate.canonical() != event.history[-1].estimate.canonical():
-        out.append((event.history[-1].date, CURRENT_LABEL, UNDATED_NOTE, event.estimate, "current"))
-    return out
+    @property
+    def what(self) -> str:
+        """What happened, in words: ``added``, ``revised``, ``retracted``, ..."""
+        return labels.CHANGE_KINDS[self.kind]
 
 
 def event_entries(event: Event) -> list[ChangeEntry]:
-    """The addition and revisions of one event, oldest first (dating rule in the module doc)."""
+    """The addition, revisions and changes of status of one event, oldest first."""
     entries, before = [], None
-    for i, (date, label, note, estimate, origin) in enumerate(_estimates(event)):
-        when = date if date > event.time else event.time
-        kind = ADDED if before is None else REVISED
+    for i, step in enumerate(event_steps(event)):
+        when = event.time if step.date is None or step.date < event.time else step.date
+        if step.is_status_change:
+            kind, changes = step.status, (status_row(step.old_status, step.status),)
+        else:
+            kind = ADDED if before is None else REVISED
+            changes = changes_between(before, step.estimate, event.frame)
+            if step.status:
+                changes += (status_row(None, step.status),)
+            before = step.estimate
         entries.append(
             ChangeEntry(
                 event.id,
                 event.title,
                 when,
                 kind,
-                label,
-                note,
-                changes_between(before, estimate, event.frame),
-                origin,
+                step.label,
+                step.note,
+                changes,
+                step.origin,
                 i,
+                step.date is not None,
             )
         )
-        before = estimate
     return entries
 
 
 def change_entries(derived: list[Derived]) -> list[ChangeEntry]:
-    """Every addition and revision of the catalogue, newest first, deterministic."""
+    """Every change of the catalogue: the dated ones newest first, then the undated additions
+    by merger time, newest first; deterministic."""
     entries = [e for item in derived for e in event_entries(item.event)]
     entries.sort(key=lambda e: e.event_id)
-    entries.sort(key=lambda e: (e.timestamp, e.sequence), reverse=True)
+    entries.sort(key=lambda e: (e.dated, e.timestamp, e.sequence), reverse=True)
     return entries
+
+
+@dataclass(frozen=True)
+class ChangesPage:
+    """The context of ``changes.html``: the dated entries newest first, then the undated
+    additions (events whose inputs date none of their estimates) by merger date."""
+
+    entries: tuple[ChangeEntry, ...]
+    undated: tuple[ChangeEntry, ...]
+
+
+def changes_page(derived: list[Derived]) -> ChangesPage:
+    entries = change_entries(derived)
+    return ChangesPage(
+        tuple(e for e in entries if e.dated), tuple(e for e in entries if not e.dated)
+    )

@@ -292,9 +292,7 @@ def opening(event: Event) -> tuple[str, ...]:
     change in its history when there is one)."""
     if event.status != "retracted":
         return ()
-    change = next(
-        (h for h in reversed(event.history) if getattr(h, "status", None) == "retracted"), None
-    )
+    change = next((h for h in reversed(event.history) if h.status == "retracted"), None)
     if change is None:
         return ("Retracted: this candidate is no longer considered a real signal.",)
     line = (
@@ -361,8 +359,10 @@ def _rate_in_box(placed: dict[str, list[Caveat]]) -> bool:
 
 
 def estimate_date(event: Event) -> str:
-    """The day the sheet's estimate is known by: the latest dated estimate in the history (the
-    inputs date the current estimate no further: it is that one or a later one), or, for an
-    event without history, the day of the merger, when its one estimate was first reported."""
+    """The estimate's date in words: the latest dated estimate in the history (the inputs date
+    the current estimate no further: it is that one or a later one), or, when the history dates
+    none, the merger's day, said as such."""
     dated = [h.date for h in event.history if h.estimate is not None]
-    return (dated[-1] if dated else event.time).utc.isot[:10]
+    if dated:
+        return f"estimate of {dated[-1].utc.isot[:10]} or later"
+    return f"current estimate, undated (merger {event.time.utc.isot[:10]})"

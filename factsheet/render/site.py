@@ -19,6 +19,7 @@ from factsheet.render.contexts import SiteContext, variables
 from factsheet.render.environment import make_environment, templates_fingerprint
 from factsheet.render.event_json import event_json
 from factsheet.render.feed import atom_feed
+from factsheet.render.index_page import index_page
 from factsheet.render.methods_page import methods_page
 from factsheet.resources import templates_dir
 
@@ -97,13 +98,8 @@ def catalogue_pages(
     r: Renderer, derived: list[Derived], index_figures: list[SiteFigure]
 ) -> dict[str, bytes]:
     """The catalogue-wide pages and exports: index, methods, changes, feed, tables."""
-    index = contexts.IndexPage(
-        tuple(contexts.index_row(d) for d in derived),
-        r.settings.description,
-        tuple(index_figures),
-    )
-    entries = history.change_entries(derived)
-    table = tables.catalogue_table(derived)
+    index = index_page(derived, r.settings.description, index_figures, r.audience)
+    table = tables.catalogue_table(derived, r.audience)
     return {
         "index.html": r.page("index.html", "index.html", index),
         "methods.html": r.page(
@@ -111,10 +107,8 @@ def catalogue_pages(
             "methods.html",
             methods_page(derived, reference_for(r.settings)),
         ),
-        "changes.html": r.page(
-            "changes.html", "changes.html", contexts.ChangesPage(tuple(entries))
-        ),
-        "feed.xml": atom_feed(entries, r.settings),
+        "changes.html": r.page("changes.html", "changes.html", history.changes_page(derived)),
+        "feed.xml": atom_feed(history.change_entries(derived), r.settings),
         "data/catalogue.ecsv": tables.write_ecsv(table),
         "data/catalogue.csv": tables.write_csv(table),
     }
@@ -147,6 +141,9 @@ def render_event(
         following and following.event.id,
         r.audience,
         r.settings.title,
+        r.settings.base_url,
+        r.settings.licence,
+        r.settings.citation,
         r.templates,
     )
     files = memo(key, make) if memo and bundle.key else make()

@@ -7,6 +7,13 @@ The ECSV is astropy's Enhanced Character Separated Values format (units, descrip
 meta in a YAML header); the CSV writes each unit into its header cell as ``name [unit]``, the
 convention of our samples files. Both are deterministic: no dates, no build clock.
 
+An internal build's tables add ``visibility`` and ``embargo_until`` after the text columns; a
+public build's carry no trace of them. The catalogue's ``licence`` and ``citation`` go into the
+ECSV's table meta. The CSV stays plain CSV (IETF RFC 4180: a header row, then the data), with
+no comment lines — those are not part of the format, and spreadsheets and most readers would
+take one for a row of data — so its licence is the one stated beside its link on the index and
+in the ECSV.
+
 The CSV is the file people open in a spreadsheet, which runs a cell starting with ``=``, ``+``,
 ``-``, ``@``, a tab or a carriage return as a formula. Every text cell (id, title, status, source
 class, and any text column added later) that starts with one of them is written with a single
@@ -41,16 +48,24 @@ TEXT_COLUMNS = {
     "source_class": "BNS, NSBH or BBH, from the masses and the neutron-star mass bound",
 }
 
+#: Columns only an internal build's tables carry.
+INTERNAL_COLUMNS = {
+    "visibility": "public or internal (internal builds only)",
+    "embargo_until": "UTC time before which a public build leaves the event out, or empty",
+}
+
 NOTE = (
     "Numbers are derived from published fits applied to the summary given for each event, "
     "not from a full re-analysis of the data; preliminary estimates can change."
 )
 
 
-def catalogue_table(derived: list[Derived]) -> Table:
-    """One row per event: text columns and median/low/high of each main quantity, with units."""
+def catalogue_table(derived: list[Derived], audience: str = "public") -> Table:
+    """One row per event: text columns and median/low/high of each main quantity, with units;
+    an internal build's table also says which events a public build leaves out."""
     table = Table()
-    for name, description in TEXT_COLUMNS.items():
+    text = TEXT_COLUMNS | (INTERNAL_COLUMNS if audience == "internal" else {})
+    for name, description in text.items():
         table[name] = Column([_text(d, name) for d in derived], dtype=str, description=description)
     settings = derived[0].settings if derived else Settings()
     level = settings.credible_level
@@ -63,7 +78,12 @@ def catalogue_table(derived: list[Derived]) -> Table:
 
 def _text(item: Derived, name: str) -> str:
     event = item.event
-    values = {"time_utc": event.time.utc.isot, "source_class": item.source_class}
+    embargo = event.embargo_until.utc.isot if event.embargo_until is not None else ""
+    values = {
+        "time_utc": event.time.utc.isot,
+        "source_class": item.source_class,
+        "embargo_until": embargo,
+    }
     return values[name] if name in values else str(getattr(event, name))
 
 
@@ -115,7 +135,7 @@ def _meta(settings: Settings) -> dict:
         "cosmology": settings.cosmology,
         "low_frequency": f"{settings.low_frequency.to_value(u.Hz):g} Hz",
         "note": NOTE,
-    }
+    } | {key: text for key in ("licence", "citation") if (text := getattr(settings, key))}
 
 
 def write_ecsv(table: Table) -> bytes:

@@ -1,6 +1,10 @@
 // factsheet — sorting and filtering of the catalogue table on the index page.
 // The table is plain HTML and complete without this script; the script only adds the
 // controls: sortable column headers, a text filter, status and class filters, and a count.
+// The filter and the sort live in the page address after "#" (q, status, class, sort, order),
+// so a filtered view can be shared as a link and is restored on load; a fragment works from
+// file:// and on any host, and never reaches a server. When no row matches, the table says so
+// and offers a control that clears the filter.
 "use strict";
 
 (function () {
@@ -40,8 +44,9 @@
     return numeric ? Number(a) - Number(b) : a.localeCompare(b, undefined, { numeric: true });
   }
 
-  function sortBy(column, header) {
-    const ascending = header.getAttribute("aria-sort") !== "ascending";
+  function sortBy(column, header, direction) {
+    const ascending = direction ? direction === "ascending" :
+      header.getAttribute("aria-sort") !== "ascending";
     const numeric = isNumeric(column);
     const keyed = rows.map(function (row, index) {
       return { row: row, key: sortKey(row, column), index: index };
@@ -62,7 +67,7 @@
     const label = header.textContent.trim();
     const button = make("button", { type: "button", className: "sort" }, [label]);
     button.setAttribute("aria-label", "Sort by " + label);
-    button.addEventListener("click", function () { sortBy(column, header); });
+    button.addEventListener("click", function () { sortBy(column, header); save(); });
     header.textContent = "";
     header.append(button);
   });
@@ -90,21 +95,87 @@
 
   function update() {
     const words = search.value.trim().toLowerCase().split(/\s+/).filter(Boolean);
-    let shown = 0;
     rows.forEach(function (row) {
       const text = row.textContent.toLowerCase();
       const match = words.every(function (w) { return text.includes(w); }) &&
         (!status.value || row.dataset.status === status.value) &&
         (!kind.value || row.dataset.class === kind.value);
       row.hidden = !match;
-      shown += match ? 1 : 0;
     });
+    const shown = shownCount();
     count.textContent = shown + " of " + rows.length + " events shown";
   }
 
+  // No match: one row across the table, with a control that clears the filter.
+  const clear = make("button", { type: "button", className: "clear-filter" }, ["clear the filter"]);
+  const empty = make("td", { colSpan: headers.length }, ["No event matches — ", clear]);
+  const emptyBody = make("tfoot", { className: "no-match", hidden: true }, [make("tr", {}, [empty])]);
+  table.append(emptyBody);
+
+  function shownCount() {
+    const shown = rows.filter(function (row) { return !row.hidden; }).length;
+    emptyBody.hidden = shown > 0;
+    return shown;
+  }
+
+  // The state in the address: #q=...&status=...&class=...&sort=<column key>&order=desc
+  function state() {
+    const params = new URLSearchParams();
+    [["q", search.value.trim()], ["status", status.value], ["class", kind.value]].forEach(
+      function (pair) { if (pair[1]) { params.set(pair[0], pair[1]); } });
+    const sorted = headers.find(function (th) { return th.hasAttribute("aria-sort"); });
+    if (sorted && sorted.dataset.key) {
+      params.set("sort", sorted.dataset.key);
+      if (sorted.getAttribute("aria-sort") === "descending") { params.set("order", "desc"); }
+    }
+    return params.toString();
+  }
+
+  function save() {
+    const text = state();
+    const target = text ? "#" + text : location.pathname + location.search;
+    if (("#" + text) === location.hash || (!text && !location.hash)) {
+      return;
+    }
+    try {
+      history.replaceState(null, "", target);
+    } catch (error) {  // some browsers refuse it for file:// pages
+      location.replace("#" + text);
+    }
+  }
+
+  function choose(select, value) {
+    select.value = Array.from(select.options).some(function (o) { return o.value === value; }) ?
+      value : "";
+  }
+
+  function restore() {
+    const params = new URLSearchParams(location.hash.replace(/^#/, ""));
+    search.value = params.get("q") || "";
+    choose(status, params.get("status") || "");
+    choose(kind, params.get("class") || "");
+    const column = headers.findIndex(function (th) { return th.dataset.key === params.get("sort"); });
+    if (column >= 0) {
+      sortBy(column, headers[column], params.get("order") === "desc" ? "descending" : "ascending");
+    }
+    update();
+  }
+
   [search, status, kind].forEach(function (control) {
-    control.addEventListener(control === search ? "input" : "change", update);
+    control.addEventListener(control === search ? "input" : "change", function () {
+      update();
+      save();
+    });
   });
+  clear.addEventListener("click", function () {
+    search.value = "";
+    status.value = "";
+    kind.value = "";
+    update();
+    save();
+    search.focus();
+  });
+  window.addEventListener("hashchange", restore);
 
   const controls = make("div", { className: "table-controls" }, [
     labelled("Filter", search, "catalogue-filter"),
@@ -115,5 +186,5 @@
   controls.setAttribute("role", "search");
   const wrap = document.getElementById("catalogue-wrap") || table;
   wrap.parentNode.insertBefore(controls, wrap);
-  update();
+  restore();
 })();

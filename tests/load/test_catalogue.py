@@ -75,16 +75,6 @@ def test_each_problem_names_file_line_and_key(catalogue, old, new, line, key, wo
     assert words in problem
 
 
-HISTORY_WITH_STATUS = """\
-history:
-  - date: "2034-04-13"
-    label: First look
-    status: candidate
-    estimate:
-      heavier: {mass: 30 +3 -3 Msun}
-      lighter: {mass: 20 +3 -3 Msun}
-      distance: 400 +100 -100 Mpc
-"""
 BODY_SPIN = "    spin: 0.1 +0.2 -0.2\n"
 DISTANCE = "  distance: 440 +180 -170 Mpc\n"
 SKY_AREA = "  sky_area: 580 deg2\n"
@@ -116,12 +106,6 @@ SKY_AREA = "  sky_area: 580 deg2\n"
             19,
             "what_if_lensed",
         ),
-        (
-            "summary: A *test* event.\n",
-            "summary: A *test* event.\n" + HISTORY_WITH_STATUS,
-            22,
-            "history[0].status",
-        ),
     ],
 )
 def test_event_keys_not_supported_yet(catalogue, old, new, line, key):
@@ -134,8 +118,6 @@ def test_event_keys_not_supported_yet(catalogue, old, new, line, key):
 @pytest.mark.parametrize(
     "setting",
     [
-        "licence: free to share\n",
-        "citation: the catalogue, first season\n",
         "languages: [en, fr]\n",
         "what_if_lensed: [2, 4]\n",
     ],

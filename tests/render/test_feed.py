@@ -14,10 +14,16 @@ from factsheet.derive import derive_event
 from factsheet.load import load_catalogue
 from factsheet.load.values import parse_interval
 from factsheet.model import Body, Estimate
-from factsheet.render.contexts import ChangesPage
 from factsheet.render.environment import make_environment
 from factsheet.render.feed import atom_feed, entry_id, entry_summary
-from factsheet.render.history import UNDATED_NOTE, change_entries, changes_between
+from factsheet.render.history import (
+    UNDATED_NOTE,
+    ChangesPage,
+    change_entries,
+    changes_between,
+    changes_page,
+    history_steps,
+)
 from factsheet.render.site import Renderer
 from factsheet.resources import demo_dir
 
@@ -84,7 +90,7 @@ history:
 # One addition per event (3); revisions: B-2 "Refined" and its undated current estimate (2),
 # C-3 "Final" (1); C-3's current estimate equals "Final", so it is no revision.
 INPUT_DATES = {
-    ("A-1", "added"): ["2034-03-01T10:00:00.000Z"],  # no history: the merger time
+    ("A-1", "added"): ["2034-03-01T10:00:00.000Z"],  # undated: carries the merger time
     ("B-2", "added"): ["2034-04-02T08:30:00.000Z"],  # day-only date before the merger: merger
     ("B-2", "revised"): ["2034-05-20T00:00:00.000Z", "2034-05-20T00:00:00.000Z"],
     ("C-3", "added"): ["2034-06-11T12:00:00.000Z"],
@@ -135,11 +141,19 @@ def test_entries_newest_first_and_deterministic(derived):
 def test_what_changed_old_to_new(derived):
     by_label = {(e.event_id, e.label): e for e in change_entries(derived)}
     refined = [c.text for c in by_label["B-2", "Refined"].changes]
-    assert refined == ["m₁: 40 → 39 M⊙", "m₂: 31 → 30 M⊙", "Distance: 900 → 800 Mpc"]
+    # values as the sheets write them: the given interval, rounded by its uncertainty
+    assert refined == [
+        "m₁: 40 +8 −8 M⊙ → 39 +5 −5 M⊙",
+        "m₂: 31 +6 −6 M⊙ → 30 +4 −4 M⊙",
+        "Distance: 900 +300 −300 Mpc → 800 +200 −200 Mpc",
+    ]
     current = [c.text for c in by_label["B-2", "Current estimate"].changes]
-    assert current == ["m₁: 39 → 38 M⊙", "χ₁: not given → 0.2"]
+    assert current == [
+        "m₁: 39 +5 −5 M⊙ → 38 +4 −4 M⊙",
+        "χ₁: not given → 0.20 +0.20 −0.20",
+    ]  # PDG: two digits
     first = [c.text for c in by_label["A-1", "First estimate"].changes]
-    assert first == ["m₁: 30 M⊙", "m₂: 20 M⊙", "Distance: 500 Mpc"]
+    assert first == ["m₁: 30 +5 −5 M⊙", "m₂: 20 +5 −5 M⊙", "Distance: 500 +100 −100 Mpc"]
 
 
 def test_feed_dates_come_from_the_inputs_not_the_clock(derived):
@@ -227,14 +241,15 @@ class Page(HTMLParser):
 def test_changes_page(derived):
     entries = change_entries(derived)
     renderer = Renderer(make_environment(), derived[0].settings, "public", "")
-    html = renderer.page("changes.html", "changes.html", ChangesPage(tuple(entries)))
+    html = renderer.page("changes.html", "changes.html", changes_page(derived))
     page = Page()
     page.feed(html.decode("utf-8"))
     assert "feed.xml" in page.links and "events/B-2.html" in page.links
-    assert page.times == [e.timestamp for e in entries]
+    assert page.times == [e.timestamp for e in entries]  # dated ones, then the undated
     text = " ".join("".join(page.text).split())
     assert "<script>alert(1)</script> & friends" in text
-    assert "m₁: 40 → 39 M⊙" in text
+    assert "m₁: 40 +8 −8 M⊙ → 39 +5 −5 M⊙" in text
+    assert "merger 2034-03-01" in text  # A-1's addition is undated: its merger date, labelled
     assert "not from a full re-analysis" in text
 
 
@@ -271,5 +286,131 @@ def test_a_revision_without_change_says_so(catalogue):
     assert "no change in the listed values" in entry_summary(rechecked)
     renderer = Renderer(make_environment(), loaded.settings, "public", "")
     page = Page()
-    page.feed(renderer.page("changes.html", "changes.html", ChangesPage(tuple(entries))).decode())
+    context = ChangesPage(tuple(entries), ())
+    page.feed(renderer.page("changes.html", "changes.html", context).decode())
     assert "No change in the listed values." in " ".join("".join(page.text).split())
+
+
+RETRACTED = """\
+id: E-5
+title: Withdrawn pair
+time: "2034-09-01T12:00:00"
+status: retracted
+estimate:
+  heavier: {mass: 88 +17 -14 Msun}
+  lighter: {mass: 67 +15 -17 Msun}
+  distance: 3900 +1900 -1700 Mpc
+history:
+  - {date: "2034-09-01T13:00:00", label: First report, status: candidate,
+     estimate: {heavier: {mass: 88 +17 -14 Msun}, lighter: {mass: 67 +15 -17 Msun},
+                distance: 3900 +1900 -1700 Mpc}}
+  - {date: "2034-09-03", label: Withdrawn, status: retracted, note: Noise at one site.}
+"""
+
+
+@pytest.fixture
+def retracted(catalogue):
+    loaded = load_catalogue(catalogue({"catalogue.yaml": SETTINGS, "e.yaml": RETRACTED}))
+    return [derive_event(e, loaded.settings) for e in loaded.events]
+
+
+def test_a_retraction_is_an_entry_of_its_own_on_its_own_date(retracted):
+    entries = change_entries(retracted)
+    assert [(e.kind, e.label, e.timestamp) for e in entries] == [
+        ("retracted", "Withdrawn", "2034-09-03T00:00:00.000Z"),
+        ("added", "First report", "2034-09-01T13:00:00.000Z"),
+    ]
+    withdrawn, added = entries
+    assert [c.text for c in withdrawn.changes] == ["Status: candidate → retracted"]
+    assert entry_summary(withdrawn) == "Noise at one site. Status: candidate → retracted."
+    # the given interval as the sheet writes it: 88 +17 −14, not a summary of the draws
+    assert [c.text for c in added.changes] == [
+        "m₁: 88 +17 −14 M⊙",
+        "m₂: 67 +15 −17 M⊙",
+        "Distance: 3900 +1900 −1700 Mpc",
+        "Status: candidate",
+    ]
+    feed = parse(atom_feed(entries, retracted[0].settings))
+    titles = [e.find(f"{ATOM}title").text for e in feed.findall(f"{ATOM}entry")]
+    assert "E-5 retracted: Withdrawn — Withdrawn pair" in titles
+
+
+def test_an_undated_addition_is_listed_apart_and_says_so(derived):
+    page = changes_page(derived)
+    assert [e.event_id for e in page.undated] == ["A-1"]
+    assert all(e.dated for e in page.entries)
+    (added,) = page.undated
+    assert "The inputs give this estimate no date; the entry carries the merger time" in (
+        entry_summary(added)
+    )
+    renderer = Renderer(make_environment(), derived[0].settings, "public", "")
+    html = renderer.page("changes.html", "changes.html", page).decode()
+    undated = html.split('id="undated-heading"', 1)[1]
+    assert 'merger <time datetime="2034-03-01T10:00:00.000Z">2034-03-01</time>' in undated
+    assert "A-1" not in html.split('id="undated-heading"', 1)[0].split("<main", 1)[1]
+
+
+def test_every_feed_link_is_absolute_under_a_base_url_and_relative_without(derived):
+    settings = replace(derived[0].settings, base_url="https://example.org/cat")
+    root = parse(atom_feed(change_entries(derived), settings))
+    hrefs = [link.get("href") for link in root.iter(f"{ATOM}link")]
+    assert hrefs and all(h.startswith("https://example.org/cat/") for h in hrefs), hrefs
+    assert "https://example.org/cat/changes.html" in hrefs
+    relative = parse(atom_feed(change_entries(derived), derived[0].settings))
+    hrefs = [link.get("href") for link in relative.iter(f"{ATOM}link")]
+    assert hrefs and not any("//" in h or h.startswith("/") for h in hrefs), hrefs
+
+
+def test_the_licence_is_the_feeds_rights(derived):
+    settings = replace(derived[0].settings, licence="CC BY 4.0")
+    rights = parse(atom_feed(change_entries(derived), settings)).find(f"{ATOM}rights")
+    assert (rights.text, rights.get("type")) == ("CC BY 4.0", "text")
+    assert (
+        parse(atom_feed(change_entries(derived), derived[0].settings)).find(f"{ATOM}rights") is None
+    )
+
+
+def test_demo_retraction_on_the_changes_page_and_in_the_feed():
+    catalogue = load_catalogue(demo_dir())
+    event = next(e for e in catalogue.events if e.id == "MER34-007")
+    item = derive_event(event, replace(catalogue.settings, samples=200))
+    entries = change_entries([item])
+    assert [(e.kind, e.day) for e in entries] == [
+        ("retracted", "2034-05-26"),
+        ("added", "2034-05-24"),
+    ]
+    assert all(e.dated for e in entries)
+    assert event.time.utc.isot[:10] == "2034-05-24" and entries[0].date > event.time
+
+
+def test_a_history_of_status_changes_only(catalogue):
+    text = RETRACTED.split("history:")[0] + (
+        'history:\n  - {date: "2034-09-03", label: Withdrawn, status: retracted}\n'
+    )
+    loaded = load_catalogue(catalogue({"catalogue.yaml": SETTINGS, "e.yaml": text}))
+    (event,) = loaded.events
+    entries = change_entries([derive_event(event, loaded.settings)])
+    assert [(e.kind, e.dated, e.day) for e in entries] == [
+        ("retracted", True, "2034-09-03"),
+        ("added", False, "2034-09-01"),  # the estimate has no date: listed under the merger
+    ]
+    assert [c.text for c in entries[0].changes] == ["Status: retracted"]
+    steps = history_steps(event)  # the sheet: the estimate first, then the retraction
+    assert [(s.label, s.changes) for s in steps] == [
+        ("First estimate", ()),
+        ("Withdrawn", (("Status", "not recorded", "retracted"),)),
+    ]
+
+
+def test_what_check_accepts_builds(catalogue, tmp_path):
+    from factsheet.build import build
+
+    text = RETRACTED.split("history:")[0] + (
+        'history:\n  - {date: "2034-09-03", label: Withdrawn, status: retracted}\n'
+    )
+    out = tmp_path / "site"
+    build(catalogue({"catalogue.yaml": SETTINGS, "e.yaml": text}), out, jobs=1)
+    sheet = " ".join((out / "events" / "E-5.html").read_text(encoding="utf-8").split())
+    assert "Status: not recorded → retracted" in sheet
+    changes = (out / "changes.html").read_text(encoding="utf-8")
+    assert "E-5</a> retracted: <strong>Withdrawn</strong>" in changes

@@ -248,3 +248,36 @@ def test_csv_negative_numbers_stay_numbers(derived):
 def test_csv_demo_has_no_quoted_cells_and_ecsv_is_untouched(derived):
     text = write_csv(catalogue_table(derived)).decode()
     assert ",'" not in text and "\n'" not in text  # nothing in the demo looks like a formula
+
+
+def test_internal_tables_say_what_a_public_build_leaves_out(derived):
+    internal = catalogue_table(derived, "internal")
+    assert internal.colnames[5:7] == ["visibility", "embargo_until"]
+    rows = {row["id"]: row for row in internal}
+    assert {r["visibility"] for r in internal} == {"public", "internal"}
+    embargoed = [d.event for d in derived if d.event.embargo_until is not None]
+    assert embargoed, "the demo has an event under embargo"
+    for event in embargoed:
+        assert rows[event.id]["embargo_until"] == event.embargo_until.utc.isot
+    header = write_csv(internal).decode().splitlines()[0]
+    assert header.startswith("id,title,time_utc,status,source_class,visibility,embargo_until,")
+
+
+def test_public_tables_carry_no_trace_of_visibility_or_embargo(derived):
+    shown = [d for d in derived if d.event.visibility == "public" and not d.event.embargo_until]
+    table = catalogue_table(shown)  # a public build's table, its events selected as by the build
+    assert table.colnames[:6] == [*TEXT_COLUMNS, "heavier_mass"]
+    for text in (write_csv(table), write_ecsv(table)):
+        assert b"visibility" not in text and b"embargo" not in text
+
+
+def test_licence_and_citation_go_into_the_ecsv_meta_and_the_csv_stays_plain(derived, ecsv):
+    settings = derived[0].settings
+    assert settings.licence and settings.citation  # the demo sets both
+    assert ecsv.meta["licence"] == settings.licence
+    assert ecsv.meta["citation"] == settings.citation
+    lines = write_csv(catalogue_table(derived)).decode().splitlines()
+    assert lines[0].startswith("id,") and not any(line.startswith("#") for line in lines)
+    assert len(lines) == 1 + len(derived)  # a header, then one line per event (RFC 4180)
+    bare = catalogue_table([replace(d, settings=replace(settings, licence="")) for d in derived])
+    assert "licence" not in bare.meta
