@@ -105,8 +105,10 @@ def test_a_candidate_speaks_conditionally(site, phone):
     phone.goto((site / "events" / "MER34-011.html").as_uri())
     lead = phone.evaluate("document.querySelector('.lead').innerText")
     assert lead.startswith("If it is real,")
+    box = phone.evaluate("document.querySelector('.caveat-warning').innerText")
+    assert "Noise alone would make a signal like this about twice a year" in box
     detection = phone.evaluate("document.querySelector('.detection').innerText")
-    assert "Noise alone would make a signal like this about twice a year" in detection
+    assert "Noise alone" not in detection  # said once, in the box
 
 
 def test_every_sheet_prints_on_two_a4_pages_or_fewer(site, browser):

@@ -141,7 +141,7 @@ def test_entries_newest_first_and_deterministic(derived):
 def test_what_changed_old_to_new(derived):
     by_label = {(e.event_id, e.label): e for e in change_entries(derived)}
     refined = [c.text for c in by_label["B-2", "Refined"].changes]
-    # values as the sheets write them: the given interval, rounded by its uncertainty
+    # values as the sheets write them: the given interval, with the digits it was given with
     assert refined == [
         "m₁: 40 +8 −8 M⊙ → 39 +5 −5 M⊙",
         "m₂: 31 +6 −6 M⊙ → 30 +4 −4 M⊙",
@@ -150,8 +150,8 @@ def test_what_changed_old_to_new(derived):
     current = [c.text for c in by_label["B-2", "Current estimate"].changes]
     assert current == [
         "m₁: 39 +5 −5 M⊙ → 38 +4 −4 M⊙",
-        "χ₁: not given → 0.20 +0.20 −0.20",
-    ]  # PDG: two digits
+        "χ₁: not given → 0.2 +0.2 −0.2",
+    ]  # as given: the digits the input wrote
     first = [c.text for c in by_label["A-1", "First estimate"].changes]
     assert first == ["m₁: 30 +5 −5 M⊙", "m₂: 20 +5 −5 M⊙", "Distance: 500 +100 −100 Mpc"]
 

@@ -10,7 +10,6 @@ from helpers import VALID_EVENT
 
 from factsheet.derive import derive_event
 from factsheet.load import load_catalogue
-from factsheet.notation import format_interval
 from factsheet.render.environment import make_environment
 from factsheet.render.index_page import IndexCount, index_page, index_row
 from factsheet.render.site import Renderer
@@ -76,7 +75,6 @@ def test_a_public_row_carries_no_visibility_or_embargo(derived):
 
 def test_input_values_are_shown_as_given(derived):
     row = index_row(derived[0])
-    m1 = row.heavier_mass
-    assert format_interval(m1.median, m1.low, m1.high, m1.unit) == "36 +5 −4 M⊙"  # as in the input
-    d = row.distance
-    assert format_interval(d.median, d.low, d.high, d.unit) == "440 +180 −170 Mpc"
+    assert row.heavier_mass.text == "36 +5 −4 M⊙"  # as in the input
+    assert row.distance.text == "440 +180 −170 Mpc"
+    assert row.heavier_mass.sort == 36
