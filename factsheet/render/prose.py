@@ -161,7 +161,8 @@ def detection(item: Derived, large_sky: bool = False, rate_in_box: bool = False)
             f"The 90 % credible sky region covers {format_value(area, '', 2)} square degrees, "
             f"about {share} % of the sky"
         )
-        text.append(line + (": a large area to search for a counterpart." if large_sky else "."))
+        large = large_sky and not retracted
+        text.append(line + (": a large area to search for a counterpart." if large else "."))
     text.append(class_sentence(item))
     return text
 
