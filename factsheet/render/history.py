@@ -30,6 +30,7 @@ the history figure.
 
 from __future__ import annotations
 
+from collections.abc import Mapping
 from dataclasses import dataclass
 
 from astropy.time import Time
@@ -38,6 +39,7 @@ from factsheet import labels
 from factsheet.load.schema import value_key
 from factsheet.model import Derived, Estimate, Event, Interval
 from factsheet.notation import format_given
+from factsheet.render.numbers import estimate_texts
 
 ADDED, REVISED = "added", "revised"
 CURRENT_LABEL = "Current estimate"
@@ -66,11 +68,17 @@ def value_text(value: Interval, path: str = "") -> str:
     return format_given(value.median, value.low, value.high, value.unit.to_string())
 
 
-def _listed(estimate: Estimate, frame: str) -> dict[str, tuple[str, str]]:
-    """Path -> (label, text) of the listed values an estimate gives."""
-    given = estimate.values()
+def _listed(
+    estimate: Estimate, frame: str, shown: Mapping[str, str] | None = None
+) -> dict[str, tuple[str, str]]:
+    """Path -> (label, text) of the listed values an estimate gives; ``shown`` overrides the
+    text of the values the sheet prints (the current estimate: as its table prints them, which
+    for a samples file is the file's summary)."""
+    given, shown = estimate.values(), shown or {}
     return {
-        p: (labels.estimate_value(p, frame), value_text(given[p], p)) for p in LISTED if p in given
+        p: (labels.estimate_value(p, frame), shown.get(p) or value_text(given[p], p))
+        for p in LISTED
+        if p in given
     }
 
 
@@ -93,11 +101,15 @@ class Change:
 
 
 def changes_between(
-    before: Estimate | None, after: Estimate, frame: str = "source"
+    before: Estimate | None,
+    after: Estimate,
+    frame: str = "source",
+    shown: Mapping[str, str] | None = None,
 ) -> tuple[Change, ...]:
-    """The listed values that changed (all values given, for a first estimate)."""
+    """The listed values that changed (all values given, for a first estimate); ``shown``: the
+    texts of ``after`` as the sheet prints them, when it is the current estimate."""
     old = {} if before is None else _listed(before, frame)
-    new = _listed(after, frame)
+    new = _listed(after, frame, shown)
     out = []
     for path in LISTED:
         if path not in old and path not in new:
@@ -170,9 +182,10 @@ class HistoryStep:
     changes: tuple[tuple[str, str, str], ...]  # (value, old, new)
 
 
-def history_steps(event: Event) -> list[HistoryStep]:
+def history_steps(event: Event, shown: Mapping[str, str] | None = None) -> list[HistoryStep]:
     """Each estimate and change of status, oldest first, with what changed (old → new); the
-    current estimate last, also when it repeats the latest earlier one. Empty without history."""
+    current estimate last, also when it repeats the latest earlier one, its values as ``shown``
+    (the sheet's texts by estimate path). Empty without history."""
     if not event.history:
         return []
     steps = event_steps(event)
@@ -187,12 +200,15 @@ def history_steps(event: Event) -> list[HistoryStep]:
             values = ((labels.STATUS, step.status),)
             changes = ((labels.STATUS, old, step.status),)
         else:
+            texts = shown if step.origin == "current" else None
             values = tuple(
-                (c.label, c.new) for c in changes_between(None, step.estimate, event.frame)
+                (c.label, c.new) for c in changes_between(None, step.estimate, event.frame, texts)
             )
             if step.status:
                 values += ((labels.STATUS, step.status),)
-            found = () if before is None else changes_between(before, step.estimate, event.frame)
+            found = (
+                () if before is None else changes_between(before, step.estimate, event.frame, texts)
+            )
             changes = tuple((c.label, c.old or "", c.new) for c in found)
             before = step.estimate
         out.append(HistoryStep(step.label, date, note, values, changes))
@@ -236,8 +252,9 @@ class ChangeEntry:
         return labels.CHANGE_KINDS[self.kind]
 
 
-def event_entries(event: Event) -> list[ChangeEntry]:
-    """The addition, revisions and changes of status of one event, oldest first."""
+def event_entries(event: Event, shown: Mapping[str, str] | None = None) -> list[ChangeEntry]:
+    """The addition, revisions and changes of status of one event, oldest first (the current
+    estimate's values as ``shown`` on the sheet, by estimate path)."""
     entries, before = [], None
     for i, step in enumerate(event_steps(event)):
         when = event.time if step.date is None or step.date < event.time else step.date
@@ -245,7 +262,8 @@ def event_entries(event: Event) -> list[ChangeEntry]:
             kind, changes = step.status, (status_row(step.old_status, step.status),)
         else:
             kind = ADDED if before is None else REVISED
-            changes = changes_between(before, step.estimate, event.frame)
+            texts = shown if step.origin == "current" else None
+            changes = changes_between(before, step.estimate, event.frame, texts)
             if step.status:
                 changes += (status_row(None, step.status),)
             before = step.estimate
@@ -269,7 +287,7 @@ def event_entries(event: Event) -> list[ChangeEntry]:
 def change_entries(derived: list[Derived]) -> list[ChangeEntry]:
     """Every change of the catalogue: the dated ones newest first, then the undated additions
     by merger time, newest first; deterministic."""
-    entries = [e for item in derived for e in event_entries(item.event)]
+    entries = [e for item in derived for e in event_entries(item.event, estimate_texts(item))]
     entries.sort(key=lambda e: e.event_id)
     entries.sort(key=lambda e: (e.dated, e.timestamp, e.sequence), reverse=True)
     return entries

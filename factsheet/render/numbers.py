@@ -9,7 +9,7 @@ are in the unit a reader expects (:func:`~factsheet.render.contexts.display_summ
 
 from __future__ import annotations
 
-from factsheet.derive.event import measured_names
+from factsheet.derive.event import input_name, measured_names
 from factsheet.model import Derived, Summary
 from factsheet.notation import (
     format_given,
@@ -59,3 +59,14 @@ def median_text(item: Derived, key: str, scale: float = 1.0, unit: bool = False)
     if kind_of(item, key) in AS_GIVEN:
         return format_given_median(*values)
     return format_median(*values)
+
+
+def estimate_texts(item: Derived) -> dict[str, str]:
+    """The values of the event's current estimate as its sheet prints them, by estimate path
+    (``heavier.mass``): the history, the changes page and the feed list them so."""
+    frame = item.event.frame
+    return {
+        path: quantity_text(item, input_name(path, frame))
+        for path in item.event.estimate.values()
+        if input_name(path, frame) in item.quantities
+    }

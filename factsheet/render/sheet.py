@@ -31,7 +31,7 @@ from factsheet.render import prose
 from factsheet.render.assets import samples_path
 from factsheet.render.contexts import Link, display_summary, page_of, time_utc
 from factsheet.render.history import HistoryStep, history_steps
-from factsheet.render.numbers import value_text
+from factsheet.render.numbers import estimate_texts, value_text
 from factsheet.render.windows import WindowRow, window_rows
 
 MAX_BOXES = 3
@@ -335,7 +335,7 @@ def event_page(
         window_text=tuple(c.text for c in placed["windows"]),
         window_figures=tuple(f for f in shown if _figure_group(f) == "windows"),
         comparison_rows=() if retracted else comparison_rows(item),
-        history=tuple(history_steps(event)),
+        history=tuple(history_steps(event, estimate_texts(item))),
         history_figures=tuple(f for f in shown if _figure_group(f) == "history"),
         figures=shown,
         audio=None if retracted else audio,
