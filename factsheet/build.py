@@ -21,6 +21,7 @@ from concurrent.futures import ProcessPoolExecutor
 from dataclasses import dataclass, replace
 from pathlib import Path
 
+import numpy as np
 from astropy.time import Time
 
 from factsheet.cache import Cache, cached_files, content_key, event_key
@@ -210,7 +211,8 @@ def _summaries_only(item: Derived) -> Derived:
     only the summaries, and the bundle is kept in the cache and in memory for every event."""
     event = item.event
     if event.samples is not None:
-        event = replace(event, samples=replace(event.samples, values={}))
+        empty = {path: np.empty(0) for path in event.samples.values}  # keep which columns
+        event = replace(event, samples=replace(event.samples, values=empty))
     return replace(item, event=event, samples={})
 
 

@@ -114,3 +114,36 @@ def test_the_history_prints_the_current_values_as_the_table_does(site):
                 assert change.split(" → ")[-1] == rows[key], (path.name, item, rows[key])
                 checked += 1
     assert checked  # the demo has an event with a history
+
+
+def test_the_changes_page_prints_the_sheets_numbers(site):
+    """Events whose inputs date no estimate are listed once, with their current estimate: each
+    value must read as on the sheet (a samples file's summary included)."""
+    html = (site / "changes.html").read_text(encoding="utf-8")
+    undated = html[html.index("Added without a date") :]
+    labels = {"m₁": "heavier_mass", "m₂": "lighter_mass", "Distance": "distance"}
+    checked = 0
+    for event_id, block in re.findall(
+        r'href="events/([^"]+)\.html">.*?<ul class="changes">(.*?)</ul>', undated, re.S
+    ):
+        rows = Sheet((site / "events" / f"{event_id}.html").read_text(encoding="utf-8")).rows
+        for item in re.findall(r"<li>(.*?)</li>", block):
+            label, _, text = item.partition(": ")
+            if labels.get(label) in rows:
+                assert text == rows[labels[label]], (event_id, item)
+                checked += 1
+    assert checked > 20
+
+
+def test_a_samples_file_summary_is_rounded_by_its_uncertainty(site):
+    """MER34-001 gives a samples file: its sheet prints the file's summary rounded by the PDG
+    rule, not with every digit of the draws' quantiles."""
+    import json
+
+    from factsheet.notation import format_interval
+
+    data = json.loads((site / "data" / "MER34-001.json").read_text())
+    rows = Sheet((site / "events" / "MER34-001.html").read_text(encoding="utf-8")).rows
+    for key in ("heavier_mass", "lighter_mass", "distance"):
+        q = data["quantities"][key]
+        assert rows[key] == format_interval(q["median"], q["low"], q["high"], q["unit"]), key
