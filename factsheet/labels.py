@@ -126,6 +126,13 @@ EDGES = {
     "intermediate_mass_min": "lower bound of intermediate-mass black holes",
 }
 
+#: The trade's source classes in words (their abbreviations are written out at first use).
+CLASS_NAMES = {
+    "BBH": "binary black hole",
+    "BNS": "binary neutron star",
+    "NSBH": "neutron star–black hole",
+}
+
 #: What a source class says in words (a headline starts with it).
 CLASSES = {
     "BBH": "Two black holes",

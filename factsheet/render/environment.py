@@ -19,7 +19,7 @@ import nh3
 from markupsafe import Markup
 
 from factsheet import __version__
-from factsheet.labels import QUANTITIES
+from factsheet.labels import CLASS_NAMES, QUANTITIES
 from factsheet.notation import format_interval, format_value, percent, unit_text
 from factsheet.resources import templates_dir
 
@@ -67,6 +67,7 @@ def make_environment() -> jinja2.Environment:
         label=lambda key: QUANTITIES[key].short,
     )
     env.globals["factsheet_version"] = __version__
+    env.globals["class_names"] = CLASS_NAMES
     return env
 
 

@@ -21,12 +21,6 @@ from factsheet.notation import (
 )
 from factsheet.render.numbers import median_text
 
-#: The class of a source in words at its first use on a page (the trade's abbreviation after).
-CLASS_WORDS = {
-    "BBH": "binary black hole (BBH)",
-    "BNS": "binary neutron star (BNS)",
-    "NSBH": "neutron star–black hole (NSBH)",
-}
 #: What a body in each mass band is called; ``None``: an object neither band can name.
 BODY_NOUNS = {
     "neutron_star": "neutron star",
@@ -170,7 +164,8 @@ def detection(item: Derived, large_sky: bool = False, rate_in_box: bool = False)
 def class_sentence(item: Derived) -> str:
     """The source class, with no more certainty than the masses alone can give."""
     probs = item.class_probabilities
-    name = CLASS_WORDS.get(item.source_class, item.source_class)
+    code = item.source_class
+    name = f"{labels.CLASS_NAMES[code]} ({code})" if code in labels.CLASS_NAMES else code
     others = [f"{k} {percent(p)}" for k, p in probs.items() if k != item.source_class and p >= 0.01]
     verb = "it would have been" if item.event.status == "retracted" else "this is"
     line = f"By its masses alone {verb} a {name} merger"
