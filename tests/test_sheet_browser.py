@@ -99,6 +99,10 @@ def test_a_retracted_sheet_opens_with_the_retraction(site, phone):
     assert phone.locator("audio").count() == 0
     assert phone.locator("#windows-heading").count() == 0
     assert "Compared with familiar sources" not in phone.evaluate("document.body.innerText")
+    phone.goto((site / "index.html").as_uri())  # marked in words, never struck through
+    struck = phone.evaluate("""() => Array.from(document.querySelectorAll('tr.status-retracted *'))
+        .filter(e => getComputedStyle(e).textDecorationLine.includes('line-through')).length""")
+    assert struck == 0
 
 
 def test_a_candidate_speaks_conditionally(site, phone):
