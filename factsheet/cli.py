@@ -165,10 +165,15 @@ def run_build(args: argparse.Namespace) -> int:
     return 0
 
 
+def counted(number: int, noun: str) -> str:
+    """``1 event``, ``2 events``: a count with its noun in the right number."""
+    return f"{number} {noun}{'' if number == 1 else 's'}"
+
+
 def summary_line(report) -> str:
     """One line: events built and reused, what was withheld, where and how long."""
     line = (
-        f"built {report.built} fact sheets ({report.built - report.reused} derived, "
+        f"built {counted(report.built, 'fact sheet')} ({report.built - report.reused} derived, "
         f"{report.reused} reused) into {report.out}/ in {report.seconds:.1f} s"
     )
     if report.withheld_internal or report.withheld_embargo:
@@ -195,8 +200,9 @@ def run_check(args: argparse.Namespace) -> int:
     if args.strict and catalogue.warnings:
         print(f"{len(catalogue.warnings)} warnings, fatal with --strict", file=sys.stderr)
         return 1
-    found = f"{len(catalogue.warnings)} warnings" if catalogue.warnings else "no problems found"
-    print(f"{catalogue.root}: {len(catalogue.events)} events, {found}")
+    warnings = len(catalogue.warnings)
+    found = counted(warnings, "warning") if warnings else "no problems found"
+    print(f"{catalogue.root}: {counted(len(catalogue.events), 'event')}, {found}")
     return 0
 
 

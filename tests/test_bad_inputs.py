@@ -87,7 +87,7 @@ CASES = {
     "yaml_bad_indent": Case(
         {"a.yaml": event({"estimate.lighter.spin": "       spin: 0.0"})},
         "a.yaml:16: spin:",
-        "not valid YAML",
+        "is indented 7 spaces, more than line 15 above it",
     ),
     "alias_count": Case({"a.yaml": BOMB + event()}, "a.yaml:5: b4:", "more than 100 YAML aliases"),
     "alias_into_status": Case(
@@ -216,7 +216,9 @@ CASES = {
     "bad_time": Case(
         {"a.yaml": event({"time": 'time: "2034-13-45"'})}, "a.yaml:3: time:", "bad time"
     ),
-    "time_number": Case({"a.yaml": event({"time": "time: 12"})}, "a.yaml:3: time:", "ISO 8601"),
+    "time_number": Case(
+        {"a.yaml": event({"time": "time: 12"})}, "a.yaml:3: time:", "write the time in quotes"
+    ),
     "missing_estimate": Case(
         {"a.yaml": event(drop=("estimate",))}, "a.yaml:1: estimate:", "missing required key"
     ),

@@ -51,8 +51,8 @@ def test_new_writes_a_template_that_checks_once_filled(tmp_path, capsys):
     path = tmp_path / "DX-0001.yaml"
     assert main(["check", str(tmp_path)]) == 1  # required values still empty
     err = capsys.readouterr().err
-    assert "estimate.heavier.mass: missing required key" in err and "time: missing" in err
-    assert "estimate.lighter.mass: missing required key" in err
+    assert "estimate.heavier.mass: empty: write a value" in err and "time: empty" in err
+    assert "estimate.lighter.mass: empty: write a value" in err
     text = path.read_text()
     for key, value in [
         ("title:", 'title: "A filled pair"'),

@@ -62,7 +62,10 @@ class Checker:
                 self.value(data[name], key, path, data.line_of(name))  # even when left empty
                 continue
             if name not in data or data[name] is None:
-                if key.required:
+                if key.required and name in data:  # written, but with nothing after the colon
+                    example = f": write a value, e.g. {name}: {key.example}" if key.example else ""
+                    self.fail(data.line_of(name), path, f"empty{example}")
+                elif key.required:
                     example = f" (e.g. {name}: {key.example})" if key.example else ""
                     self.fail(data.line, path, f"missing required key{example}")
                 continue

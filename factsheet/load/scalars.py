@@ -156,6 +156,11 @@ def choice(raw: object, key: Key) -> str:
 
 
 def time(raw: object, key: Key) -> Time:
+    if isinstance(raw, int | float) and not isinstance(raw, bool):
+        raise Bad(
+            f"YAML read this value as the number {show(raw)}: write the time in quotes, "
+            'e.g. "2034-04-12T07:26:41.2"'
+        )
     if not isinstance(raw, str):
         raise Bad(f"expected an ISO 8601 UTC time, got {show(raw)}")
     try:
@@ -164,7 +169,8 @@ def time(raw: object, key: Key) -> Time:
         raise Bad(f"bad time {show(raw)}: {exc}") from None
     except (ValueError, TypeError, OverflowError):
         raise Bad(
-            f"bad time {show(raw)} (expected ISO 8601 UTC, e.g. 2034-04-12T07:26:41.2)"
+            f"bad time {show(raw)} (expected a date and a time in ISO 8601 UTC, in quotes, "
+            'e.g. "2034-04-12T07:26:41.2")'
         ) from None
 
 

@@ -3,7 +3,7 @@
 Accepted forms (docs/input-format.md, "Values"):
 
 * ``"42 +7 -5 Msun"`` — a median with the distances to the bounds of the catalogue's credible
-  interval;
+  interval; ``"30 ± 5 Msun"`` (or ``+/-``) for a symmetric one;
 * ``"4 km"`` or ``14.3`` — an exact value (no interval);
 * ``"1 / 80 yr"`` or ``"2 / yr"`` — an exact rate, one count per so much time;
 * a mapping ``{median: 42, plus: 7, minus: 5, unit: Msun}`` (``plus``/``minus`` optional).
@@ -23,9 +23,27 @@ import astropy.units as u
 from factsheet.model import Interval
 
 UNIT_ALIASES = {"Msun": "solMass", "Mpc": "Mpc", "Gpc": "Gpc", "deg2": "deg2"}
+#: Spellings people type that astropy does not read, with the one it does.
+UNIT_SPELLINGS = {
+    "ly": "lyr", "light year": "lyr", "light years": "lyr", "light-year": "lyr",
+    "light-years": "lyr", "lightyears": "lyr", "parsecs": "pc", "kiloparsec": "kpc",
+    "megaparsec": "Mpc", "megaparsecs": "Mpc", "gigaparsec": "Gpc", "gigaparsecs": "Gpc",
+    "solar mass": "Msun", "solar masses": "Msun", "msun": "Msun", "M_sun": "Msun",
+    "Msol": "Msun", "msol": "Msun", "M_sol": "Msun", "Mo": "Msun", "M⊙": "Msun",
+    "years": "yr", "year": "yr", "yrs": "yr", "days": "d", "day": "d", "hours": "h",
+    "seconds": "s", "sec": "s", "secs": "s", "sq deg": "deg2", "sq. deg.": "deg2",
+    "square degrees": "deg2", "deg^2": "deg2", "degrees": "deg", "degree": "deg",
+}  # fmt: skip
+#: The accepted forms of a value, said once in an error.
+FORMS = (
+    "expected 'MEDIAN +PLUS -MINUS UNIT', 'MEDIAN ± ERROR UNIT', "
+    "'VALUE UNIT' or a rate 'COUNT / TIME'"
+)
 
 _NUMBER = r"[-+]?(?:\d+\.?\d*|\.\d+)(?:[eE][-+]?\d+)?"
 _INTERVAL = re.compile(rf"^\s*({_NUMBER})\s*\+\s*({_NUMBER})\s*-\s*({_NUMBER})\s*(.*?)\s*$")
+#: ``30 ± 5 Msun`` or ``30 +/- 5 Msun``: a symmetric interval, read as ``30 +5 -5 Msun``.
+_SYMMETRIC = re.compile(rf"^\s*({_NUMBER})\s*(?:±|\+/-|\+-)\s*({_NUMBER})\s*(.*?)\s*$")
 _RATE = re.compile(rf"^\s*({_NUMBER})\s*/\s*({_NUMBER})?\s*([A-Za-z].*?)\s*$")
 _EXACT = re.compile(rf"^\s*({_NUMBER})\s*(.*?)\s*$")
 
@@ -42,7 +60,9 @@ def parse_unit(text: str) -> u.UnitBase:
     try:
         unit = u.Unit(UNIT_ALIASES.get(text, text))
     except (ValueError, TypeError, ArithmeticError, KeyError):
-        raise ValueParseError(f"unknown unit {text[:60]!r}") from None
+        hint = UNIT_SPELLINGS.get(text) or UNIT_SPELLINGS.get(text.lower())
+        instead = f": write {hint!r}" if hint else " (astropy unit names, e.g. Msun, Mpc, Hz)"
+        raise ValueParseError(f"unknown unit {text[:60]!r}{instead}") from None
     if not isinstance(unit, u.UnitBase):
         raise ValueParseError(f"{text[:60]!r} is a logarithmic unit (expected a plain unit)")
     return unit
@@ -77,6 +97,11 @@ MAX_TEXT = 200  # longer value strings are refused before any pattern is tried o
 def _parse_text(text: str) -> Interval:
     if len(text) > MAX_TEXT:
         raise ValueParseError(f"value text is {len(text)} characters long (at most {MAX_TEXT})")
+    if m := _SYMMETRIC.match(text):
+        median, error = (_finite(g, "value") for g in m.groups()[:2])
+        if error < 0:
+            raise ValueParseError(f"the ± error must be non-negative in {text[:80]!r}")
+        return Interval(median, error, error, parse_unit(m.group(3)))
     if m := _INTERVAL.match(text):
         median, plus, minus = (_finite(g, "value") for g in m.groups()[:3])
         if plus < 0 or minus < 0:
@@ -95,9 +120,7 @@ def _parse_text(text: str) -> Interval:
         return Interval(_finite(count / per, "rate"), 0.0, 0.0, parse_unit(m.group(3)) ** -1)
     if m := _EXACT.match(text):
         return Interval(_finite(m.group(1), "value"), 0.0, 0.0, parse_unit(m.group(2)))
-    raise ValueParseError(
-        f"cannot read {text[:80]!r} (expected 'MEDIAN +PLUS -MINUS UNIT' or 'VALUE UNIT')"
-    )
+    raise ValueParseError(f"cannot read {text[:80]!r}: {FORMS}")
 
 
 def _parse_mapping(value: dict) -> Interval:

@@ -357,9 +357,50 @@ def read_yaml(data: bytes, limits: Limits = DEFAULT_LIMITS) -> object:
         mark = exc.problem_mark or exc.context_mark
         line = mark.line + 1 if mark else 1
         what = exc.problem or exc.context
+        if hint := indentation_hint(text, line):
+            line, message = hint
+            raise YamlProblem(message, line, _key_near(text, line)) from None
         raise YamlProblem(f"not valid YAML: {what}", line, _key_near(text, line)) from None
     except (yaml.YAMLError, RecursionError, ValueError, TypeError, OverflowError) as exc:
         raise YamlProblem(f"not valid YAML: {type(exc).__name__}", 1) from None
+
+
+def _blank(line: str) -> bool:
+    """A line with no content: empty, spaces only, or a comment."""
+    return not line.strip() or line.lstrip().startswith("#")
+
+
+def _indent(line: str) -> int:
+    return len(line) - len(line.lstrip(" "))
+
+
+def indentation_hint(text: str, line: int) -> tuple[int, str] | None:
+    """When YAML stops at ``line`` (1-based) because two neighbouring lines are indented
+    differently, the line to fix and a sentence saying how; None when that is not the cause."""
+    lines = text.splitlines()
+    if not 1 < line <= len(lines):
+        return None
+    here = lines[line - 1]
+    above = line - 1  # the nearest line above with content (not blank, not a comment)
+    while above > 0 and _blank(lines[above - 1]):
+        above -= 1
+    if above == 0:
+        return None
+    before = lines[above - 1]
+    a, b = _indent(before), _indent(here)
+    opens = before.rstrip().endswith(":")
+    if a > b and not opens:
+        return above, (
+            f"line {above} is indented {a} spaces and line {line} below it {b}: the keys of one "
+            f"mapping start in the same column, so indent line {above} like line {line} "
+            "(or the other way round)"
+        )
+    if b > a and not opens:
+        return line, (
+            f"line {line} is indented {b} spaces, more than line {above} above it ({a}), which "
+            f"already has a value: indent line {line} like line {above}"
+        )
+    return None
 
 
 _KEY_AT = re.compile(r"^[\s-]*([A-Za-z_][A-Za-z0-9_.-]*)\s*:")
