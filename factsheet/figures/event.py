@@ -19,6 +19,7 @@ from factsheet.notation import percent
 
 INTERVAL_COLOURS = ("primary", "secondary", "remnant")
 LINE_PT = 1.25 * style.FONT  # the height of one line of text
+NBSP = "\u00a0"
 NAME_CHARS = 44  # a row name wider than this runs onto a second line (the figure's width)
 
 
@@ -74,6 +75,12 @@ def _log_range(items: list[ComparisonItem]) -> tuple[float, float]:
     return 10 ** np.floor(np.log10(lo / pad)), 10 ** np.ceil(np.log10(hi * pad))
 
 
+def _name(row: ComparisonItem) -> str:
+    """``name: value`` wrapped between words of the name, never inside the value."""
+    glued = row.shown.replace(" ", NBSP)
+    return textwrap.fill(f"{row.name}: {glued}", NAME_CHARS).replace(NBSP, " ")
+
+
 @style.styled
 def comparison_points(
     title: str, unit: str | u.UnitBase, items: list[ComparisonItem], level: float = 0.9
@@ -81,7 +88,7 @@ def comparison_points(
     """The merger's value with its credible interval against reference values, as points on
     one log axis: equal distances are equal ratios, and no bar starts at an arbitrary base."""
     rows = sorted(items, key=lambda i: -i.median)
-    names = [textwrap.fill(f"{r.name}: {r.shown}", NAME_CHARS) for r in rows]
+    names = [_name(r) for r in rows]
     ys, row_in = _rows_layout(names)
     height = 0.62 + row_in * len(rows)
     fig = style.new_figure(style.WIDTH, height, (0.04, 0.96, 0.5 / height, 1 - 0.05 / height))

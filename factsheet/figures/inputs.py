@@ -79,6 +79,7 @@ class HistoryItem(NamedTuple):
     low: float
     high: float
     unit: str | u.UnitBase
+    shown: str = ""  # the value as the sheet's history list prints it; spoken as given
 
 
 class PlaneItem(NamedTuple):

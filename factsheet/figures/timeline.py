@@ -68,7 +68,7 @@ def _span(starts: np.ndarray, ends: np.ndarray) -> tuple[float, float, bool]:
     """The time axis that fits the windows: logarithmic from just before the first start when
     every window opens after the merger, otherwise symmetric-log around the merger."""
     if starts.min() > 0:
-        return starts.min() / 2.5, ends.max() * 2.5, True
+        return starts.min() / 2, ends.max() * 2, True
     return starts.min() * 3, ends.max() * 3, False
 
 
@@ -130,7 +130,7 @@ def _history_alt(groups: dict[str, list[HistoryItem]]) -> str:
         f"{name}: "
         + ", then ".join(
             f"{_estimate_name(p.label, p.date_iso)} "
-            f"{interval_words(p.median, p.low, p.high, p.unit)}"
+            f"{p.shown or interval_words(p.median, p.low, p.high, p.unit)}"
             for p in items
         )
         for name, items in groups.items()

@@ -25,6 +25,7 @@ from factsheet.labels import QUANTITIES
 MAX_TRACK_POINTS = 600  # the track is thinned to this many points for the drawing
 RINGDOWN_TAUS = 5  # the ringdown bar spans this many damping times after the merger
 NO_TRACK_S = (1.0, 1e-3)  # the span of the before-merger axis when no inspiral is in band
+NOTE_CHARS = 28  # the note's lines, at most this long (the before-merger panel's width)
 
 
 def _thin(t: np.ndarray, f: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
@@ -77,7 +78,7 @@ def _mark_frequencies(axes: list[Axes], track: Track) -> None:
             xycoords=axes[0].get_yaxis_transform(),
             xytext=(4, 3 if above else -3),
             textcoords="offset points",
-            color=colour if role != "band_edge" else style.INK,
+            color=style.TEXT_ROLE[role],
             fontsize=style.FONT,
             va="bottom" if above else "top",
         )
@@ -92,6 +93,8 @@ def _before_axis(ax: Axes, t: np.ndarray) -> None:
         10.0**e for e in range(math.ceil(math.log10(right)), 1 + math.floor(math.log10(left)))
     ]
     values = decades if len(decades) >= 3 else log_tick_values(right, left)
+    span = math.log10(left / right)  # no tick at the panel's right end, beside the other panel's
+    values = [v for v in values if 0.0 <= math.log10(left / v) <= 0.92 * span]
     ax.xaxis.set_major_locator(FixedLocator(values))
     ax.set_xticklabels([plain_number(v) for v in values])
     ax.xaxis.set_minor_locator(NullLocator())

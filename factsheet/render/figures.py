@@ -92,7 +92,7 @@ def event_figures(item: Derived) -> list[SiteFigure]:
     out.append(
         _save(
             f"{base}-track.svg",
-            lambda: fg.frequency_track(_track(item, note)),
+            lambda: fg.frequency_track(_track(item, IN_BAND_FIGURE_NOTE if note else "")),
             "Frequency of the waves as they swept through the detectors' band "
             "(leading-order inspiral; observed frequencies)." + (f" {note}" if note else ""),
         )
@@ -153,10 +153,15 @@ def share_image(item: Derived) -> SiteFigure:
     return SiteFigure(f"events/{event.id}-share.png", png, alt, "", time.perf_counter() - start)
 
 
+#: What the frequency track says in its panel when the inspiral ends below the band edge (its
+#: marks show the two frequencies; the caption gives the full sentence of :func:`in_band_note`).
+IN_BAND_FIGURE_NOTE = (
+    "The inspiral ends below the band edge: only the merger and ringdown are in band."
+)
 TRACK_TEXTS = ("isco_frequency", "ringdown_frequency", "ringdown_damping_time", "time_in_band")
 
 
-def _track(item: Derived, note: str | None) -> fg.Track:
+def _track(item: Derived, note: str) -> fg.Track:
     """The leading-order track from the band edge to the ISCO frequency (none when the ISCO
     lies below the band edge), with the marked numbers as the table prints them."""
     q, f_low = item.quantities, item.settings.low_frequency.to_value(u.Hz)
@@ -175,7 +180,7 @@ def _track(item: Derived, note: str | None) -> fg.Track:
         ring.median if ring else None,
         damp.median if damp else None,
         texts,
-        note or "",
+        note,
     )
 
 
@@ -235,7 +240,10 @@ def _history_points(item: Derived) -> list[fg.HistoryItem]:
         for path in HISTORY_FIGURE:
             if path in given:
                 v, name = given[path], labels.estimate_value(path, event.frame)
-                points.append(fg.HistoryItem(label, date, name, v.median, v.low, v.high, v.unit))
+                shown = format_interval(v.median, v.low, v.high, v.unit.to_string())
+                points.append(
+                    fg.HistoryItem(label, date, name, v.median, v.low, v.high, v.unit, shown)
+                )
     return points
 
 
