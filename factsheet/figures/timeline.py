@@ -28,7 +28,6 @@ _MARKS = [
     (10 * u.yr, "10 yr"),
 ]
 LINTHRESH_S = 1.0  # with windows before the merger: linear within ±1 s of it, logarithmic beyond
-MAX_MARKS = 7  # tick marks on the window axis, at most (their names need room at phone width)
 NAME_CHARS = 44  # a window's name wider than this runs onto a second line
 
 
@@ -41,24 +40,33 @@ def duration_words(seconds: float) -> str:
     return f"{sign}{plain_number(float(f'{x.to_value(u.s):.2g}'))} s"
 
 
-def _time_marks(left: float, right: float) -> tuple[list[float], list[str]]:
+def _time_marks(left: float, right: float) -> list[tuple[float, str]]:
     marks = [(0.0, "0")] if left <= 0 <= right else []
     for q, text in _MARKS:
         s = float((1 * q).to_value(u.s))
         marks += [(s, text)] if left <= s <= right else []
         marks += [(-s, "−" + text)] if left <= -s <= right else []
-    marks.sort()
-    while len(marks) > MAX_MARKS:  # drop every other mark, keeping zero and the outermost
-        keep = {0, len(marks) - 1} | {k for k, m in enumerate(marks) if m[0] == 0}
-        marks = [m for k, m in enumerate(marks) if k in keep or k % 2 == 0]
-    return [m[0] for m in marks], [m[1] for m in marks]
+    return sorted(marks)
+
+
+def _spaced(ax: Axes, marks: list[tuple[float, str]]) -> list[tuple[float, str]]:
+    """The marks whose names do not touch, zero and the largest first, then inwards."""
+    scale = 72 / ax.figure.dpi
+    at = ax.transData.transform([(v, 0.0) for v, _ in marks])[:, 0] * scale
+    half = [len(text) * 0.33 * style.FONT + 4 for _, text in marks]  # half a name, and a gap
+    order = sorted(range(len(marks)), key=lambda k: (marks[k][0] != 0, -abs(marks[k][0])))
+    kept: list[int] = []
+    for k in order:
+        if all(abs(at[k] - at[j]) >= half[k] + half[j] for j in kept):
+            kept.append(k)
+    return [marks[k] for k in sorted(kept)]
 
 
 def _window_axis(ax: Axes, left: float, right: float, merger_utc: str, log: bool) -> None:
     ax.set_xlim(left, right)
-    values, labels = _time_marks(left, right)
-    ax.xaxis.set_major_locator(FixedLocator(values))
-    ax.set_xticklabels(labels)
+    marks = _spaced(ax, _time_marks(left, right))
+    ax.xaxis.set_major_locator(FixedLocator([v for v, _ in marks]))
+    ax.set_xticklabels([text for _, text in marks])
     ax.xaxis.set_minor_locator(NullLocator())
     scale = "log scale" if log else "linear within ±1 s"
     ax.set_xlabel(f"Time after the merger at\n{merger_utc} ({scale})")
