@@ -114,6 +114,11 @@ def share_png(card: ShareCard) -> bytes:
         ax.text(0.04, 0.015, card.footer, fontsize=16, color=style.MUTED, va="bottom")
         buffer = io.BytesIO()
         fig.savefig(
-            buffer, format="png", dpi=DPI, facecolor=style.PANEL, metadata={"Software": None}
+            buffer,
+            format="png",
+            dpi=DPI,
+            facecolor=style.PANEL,
+            metadata={"Software": None},
+            pil_kwargs={"compress_level": 1},  # a third cheaper than the default; ~65 kB
         )
     return buffer.getvalue()
