@@ -20,7 +20,7 @@ from factsheet.figures import style
 from factsheet.figures.inputs import Drawing, Track
 from factsheet.figures.ticks import log_tick_values, plain_number, set_log_ticks
 from factsheet.figures.words import value_words
-from factsheet.labels import QUANTITIES
+from factsheet.labels import FIGURE_NAMES, QUANTITIES
 
 MAX_TRACK_POINTS = 600  # the track is thinned to this many points for the drawing
 RINGDOWN_TAUS = 5  # the ringdown bar spans this many damping times after the merger
@@ -45,7 +45,7 @@ def _marks(track: Track) -> list[tuple[str, float, str, str, bool]]:
     isco_in_band = track.f_isco_hz > track.f_low_hz
     marks = [
         (
-            f"band edge {value_words(track.f_low_hz, 'Hz')}",
+            f"{FIGURE_NAMES['band_edge']} {value_words(track.f_low_hz, 'Hz')}",
             track.f_low_hz,
             "band_edge",
             "--",
@@ -98,7 +98,7 @@ def _before_axis(ax: Axes, t: np.ndarray) -> None:
     ax.xaxis.set_major_locator(FixedLocator(values))
     ax.set_xticklabels([plain_number(v) for v in values])
     ax.xaxis.set_minor_locator(NullLocator())
-    ax.set_xlabel(style.unit_label("Time before merger", "s") + ", log scale")
+    ax.set_xlabel(style.unit_label(FIGURE_NAMES["time_before_merger"], "s") + ", log scale")
 
 
 def _after_axis(ax: Axes, track: Track) -> None:
@@ -106,11 +106,11 @@ def _after_axis(ax: Axes, track: Track) -> None:
     tau_ms = 1e3 * (track.tau_ringdown_s or 0.0)
     ax.set_xlim(0.0, max(RINGDOWN_TAUS * tau_ms * 1.25, 1.0))
     ax.xaxis.set_major_locator(MaxNLocator(2, integer=True))
-    ax.set_xlabel("after (ms)")
+    ax.set_xlabel(style.unit_label(FIGURE_NAMES["time_after_merger"], "ms"))
     ax.tick_params(axis="y", which="both", left=False, labelleft=False)
     ax.axvline(0.0, color=style.INK, linewidth=1.0)
     ax.annotate(
-        "merger",
+        FIGURE_NAMES["merger"],
         (0, 1),
         xycoords="axes fraction",
         xytext=(4, -4),
@@ -168,7 +168,7 @@ def frequency_track(track: Track) -> Drawing:
         _after_axis(axes[1], track)
     if track.note:
         _note(ax, track, lo, hi)
-    ax.set_ylabel(style.unit_label("Frequency", "Hz"))
+    ax.set_ylabel(style.unit_label(FIGURE_NAMES["frequency"], "Hz"))
     for each in axes:
         style.finish_axes(each)
     return Drawing(fig, _track_alt(track, t))

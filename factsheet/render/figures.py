@@ -203,13 +203,13 @@ def _comparisons(item: Derived, base: str) -> list[SiteFigure]:
     e_unit, e_rows = _comparison(
         item,
         "energy_radiated",
-        "this merger (gravitational waves)",
+        labels.FIGURE_NAMES["merger_energy"],
         {k: energies[k] for k in ENERGY_KEYS if k in energies},
     )
     l_unit, l_rows = _comparison(
         item,
         "peak_luminosity",
-        "this merger at its peak",
+        labels.FIGURE_NAMES["merger_peak"],
         {k: lums[k] for k in LUMINOSITY_KEYS if k in lums},
     )
     energy, peak = labels.QUANTITIES["energy_radiated"], labels.QUANTITIES["peak_luminosity"]
@@ -277,11 +277,13 @@ def index_figures(derived: list[Derived], edges: dict[str, float]) -> list[SiteF
         _save(
             "figures/mass-plane.svg",
             lambda: fg.mass_plane(plane, edges),
-            "Component masses of every event, with the mass bands shaded.",
+            "Component masses of every event, with the mass bands shaded; events are named "
+            "where there is room, and the table lists them all.",
         ),
         _save(
             "figures/distance-mass.svg",
             lambda: fg.distance_mass(dist),
-            f"{labels.QUANTITIES['distance'].name} against total mass (source frame).",
+            f"{labels.QUANTITIES['distance'].name} against total mass (source frame); events "
+            "are named where there is room, and the table lists them all.",
         ),
     ]
