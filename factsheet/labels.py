@@ -97,6 +97,17 @@ KINDS = {
     "derived": "derived",  # computed here from the inputs
 }
 
+#: Names in the figures for what is not a quantity of a sheet: axes, marks and the merger's rows.
+FIGURE_NAMES = {
+    "frequency": "Frequency",
+    "time_before_merger": "Time before merger",
+    "time_after_merger": "after",
+    "band_edge": "band edge",
+    "merger": "merger",
+    "merger_energy": "this merger (gravitational waves)",
+    "merger_peak": "this merger at its peak",
+}
+
 #: Parameters that fits are calibrated on but that are not quantities of a sheet.
 PARAMETERS = {"compactness": "the neutron star's compactness", "spin": "the black hole's spin"}
 

@@ -124,8 +124,7 @@ def inspiral_quantities(
             Caveat(
                 "inspiral-below-band",
                 "notice",
-                f"The inspiral ends (ISCO frequency "
-                f"{np.median(f_isco).to_value(u.Hz):.0f} Hz, observed) below the band edge of "
+                "The inspiral ends (at the ISCO frequency, observed) below the band edge of "
                 f"{low_frequency.to_value(u.Hz):g} Hz: what the detectors saw is mostly the merger "
                 "and ringdown, and the time and cycles in band are lower limits of little meaning.",
                 concerns=("isco_frequency", "time_in_band", "cycles_in_band"),

@@ -8,13 +8,14 @@ from matplotlib.axes import Axes
 from matplotlib.patches import Patch
 
 from factsheet import labels
-from factsheet.figures import style
+from factsheet.figures import names, style
 from factsheet.figures.inputs import DistanceItem, Drawing, PlaneItem
 from factsheet.figures.ticks import set_log_ticks
 from factsheet.figures.words import count_words, value_words
+from factsheet.notation import format_median
 
 MSUN, MPC = u.Msun, u.Mpc
-LABEL_ALL_UP_TO = 15  # with more events, only the notable ones are labelled
+LABEL_ALL_UP_TO = 15  # with more events, only the notable ones are candidates for a name
 STATUS_ORDER = ("confirmed", "candidate", "retracted")
 _SOURCE_FRAME = " (source frame)"
 
@@ -46,26 +47,12 @@ def _points(ax, xs: np.ndarray, ys: np.ndarray, statuses: list[str]) -> None:
             xerr=xerr,
             yerr=yerr,
             linestyle="none",
-            ms=5,
-            elinewidth=0.7,
-            alpha=0.9,
+            ms=7,
+            elinewidth=0.9,
+            alpha=0.95,
             label=status,
             zorder=3,
             **_status_style(status, style.ROLE["primary"]),
-        )
-
-
-def _label(ax, xs: np.ndarray, ys: np.ndarray, ids: list[str], marked: list[int]) -> None:
-    for i in marked:
-        ax.annotate(
-            ids[i],
-            (xs[i, 0], ys[i, 0]),
-            xytext=(4, 3),
-            textcoords="offset points",
-            fontsize=6.5,
-            color=style.INK,
-            zorder=4,
-            bbox={"boxstyle": "square,pad=0.1", "fc": style.AXES_FACE, "ec": "none", "alpha": 0.75},
         )
 
 
@@ -107,35 +94,45 @@ def _shade_bands(ax, bands: list[tuple[str, float, float]]) -> list[Patch]:
         ax.axvspan(a, b, color=shade, alpha=0.7, lw=0, zorder=0)
         ax.axhspan(a, b, color=shade, alpha=0.7, lw=0, zorder=0)
         handles.append(Patch(color=shade, label=labels.BANDS[name]))
-    # m2 > m1 is empty by convention: the shades fade there, and the legend sits there
+    # m2 > m1 is empty by convention: the shades fade there
     ax.fill_between(
         [1e-3, 1e6], [1e-3, 1e6], 1e6, color=style.AXES_FACE, alpha=0.6, lw=0, zorder=0.5
     )
     return handles
 
 
-def _square_log_axes(ax: Axes, lo: float, hi: float) -> None:
-    """Both axes log over lo..hi, the m2 = m1 diagonal drawn and named."""
+def _square_log_axes(ax: Axes, lo: float, hi: float) -> tuple[float, float, float, float]:
+    """Both axes log over lo..hi, the m2 = m1 diagonal drawn and named; return the box (pt) its
+    name takes."""
     ax.set_xscale("log")
     ax.set_yscale("log")
     ax.set_xlim(lo, hi)
     ax.set_ylim(lo, hi)
     for axis in (ax.xaxis, ax.yaxis):
         set_log_ticks(axis, lo, hi)
-    ax.plot([lo, hi], [lo, hi], color=style.MUTED, lw=0.8, ls="--", zorder=1)
-    ax.text(
-        lo * 1.5,
-        lo * 1.62,
+    ax.plot([lo, hi], [lo, hi], color=style.MUTED, lw=0.9, ls="--", zorder=1)
+    at = lo * (hi / lo) ** 0.12  # near the low end, on the empty side of the diagonal (m₂ > m₁)
+    ax.annotate(
         "m₂ = m₁",
+        (at, at),
+        xytext=(-4, 4),
+        textcoords="offset points",
         rotation=45,
         rotation_mode="anchor",
         ha="left",
         va="bottom",
-        fontsize=7,
-        color=style.MUTED,
+        fontsize=style.FONT,
+        color=style.INK,
     )
     ax.set_xlabel(style.unit_label(labels.QUANTITIES["heavier_mass"].name + _SOURCE_FRAME, MSUN))
     ax.set_ylabel(style.unit_label(labels.QUANTITIES["lighter_mass"].name + _SOURCE_FRAME, MSUN))
+    x, y = ax.transData.transform((at, at)) * 72 / ax.figure.dpi
+    side = 7 * 0.6 * style.FONT * 0.71 + style.FONT  # the rotated name's extent on each axis
+    return (x - side / 2, y, x + side, y + side + style.FONT)
+
+
+PLANE_AXES_IN = 3.9  # side of the square axes of the mass plane, in inches
+PLANE_LEFT_IN, PLANE_BOTTOM_IN = 0.85, 1.75  # room for the tick labels, axis names and legend
 
 
 @style.styled
@@ -146,17 +143,37 @@ def mass_plane(
     m1 = _intervals(events, ("m1_median", "m1_low", "m1_high"), MSUN)
     m2 = _intervals(events, ("m2_median", "m2_low", "m2_high"), MSUN)
     lo, hi = min(m2.min(), m1.min(), 1.0) / 1.3, max(m1.max(), 8.0) * 1.5
-    fig = style.new_figure(5.4, 5.4, (0.12, 0.97, 0.1, 0.95))  # square axes: the diagonal at 45°
-    ax = fig.add_subplot()
-    _square_log_axes(ax, lo, hi)
+    width, height = style.WIDTH, PLANE_BOTTOM_IN + PLANE_AXES_IN + 0.15
+    left, bottom = PLANE_LEFT_IN / width, PLANE_BOTTOM_IN / height
+    top = (PLANE_BOTTOM_IN + PLANE_AXES_IN) / height
+    fig = style.new_figure(width, height, (left, left + PLANE_AXES_IN / width, bottom, top))
+    ax = fig.add_subplot()  # square axes: the diagonal at 45°
+    diagonal = _square_log_axes(ax, lo, hi)
     band_handles = _shade_bands(ax, band_ranges(edges, lo, hi))
     statuses, ids = [e.status for e in events], [e.id for e in events]
     _points(ax, m1, m2, statuses)
-    _label(ax, m1, m2, ids, notable(m1, m2, ids, notable_ids))
+    chosen = names.order(statuses, notable(m1, m2, ids, notable_ids))
+    named = names.place(ax, m1, m2, ids, chosen, [diagonal])
     status_handles, _ = ax.get_legend_handles_labels()
-    ax.legend(handles=status_handles + band_handles, loc="upper left", fontsize=7, framealpha=0.9)
+    fig.legend(
+        handles=status_handles + band_handles,
+        loc="lower left",
+        ncols=2,
+        bbox_to_anchor=(0.01, 0.0),
+        fontsize=style.FONT,
+        frameon=False,
+        handlelength=1.2,
+        columnspacing=0.8,
+        borderaxespad=0.2,
+    )
     style.finish_axes(ax)
-    return Drawing(fig, _plane_alt(m1, m2, statuses, edges))
+    return Drawing(fig, _plane_alt(m1, m2, statuses, edges) + _named_words(len(named), ids))
+
+
+def _named_words(named: int, ids: list[str]) -> str:
+    if named == len(ids):
+        return ""
+    return f" {named} of the {len(ids)} events are named where there is room; the table lists all."
 
 
 def _status_counts(statuses: list[str]) -> str:
@@ -168,9 +185,10 @@ def _plane_alt(m1: np.ndarray, m2: np.ndarray, statuses: list[str], edges: dict)
     return (
         f"Component-mass plane of {count_words(len(statuses), 'event')} "
         f"({_status_counts(statuses)}): heavier bodies from "
-        f"{value_words(m1[:, 0].min(), MSUN)} to {value_words(m1[:, 0].max(), MSUN)}, lighter "
-        f"bodies from {value_words(m2[:, 0].min(), MSUN)} to "
-        f"{value_words(m2[:, 0].max(), MSUN)}. Shaded mass bands: "
+        f"{_median_words(m1, np.argmin(m1[:, 0]), MSUN)} to "
+        f"{_median_words(m1, np.argmax(m1[:, 0]), MSUN)}, lighter bodies from "
+        f"{_median_words(m2, np.argmin(m2[:, 0]), MSUN)} to "
+        f"{_median_words(m2, np.argmax(m2[:, 0]), MSUN)}. Shaded mass bands: "
         f"{labels.BANDS['neutron_star']} up to {value_words(edges['neutron_star_max'], MSUN)}, "
         f"{labels.BANDS['lower_gap']} to {value_words(edges['lower_gap_top'], MSUN)}, "
         f"{labels.BANDS['pair_instability_gap']} "
@@ -184,26 +202,41 @@ def distance_mass(events: list[DistanceItem], notable_ids: set[str] | None = Non
     """Luminosity distance against total source-frame mass, both on log axes."""
     d = _intervals(events, ("distance_median", "distance_low", "distance_high"), MPC)
     m = _intervals(events, ("total_mass_median", "total_mass_low", "total_mass_high"), MSUN)
-    fig = style.new_figure(6.0, 4.0, (0.12, 0.97, 0.12, 0.97))
+    fig = style.new_figure(style.WIDTH, 4.6, (0.19, 0.96, 0.8 / 4.6, 1 - 0.45 / 4.6))
     ax = fig.add_subplot()
     ax.set_xscale("log")
     ax.set_yscale("log")
     statuses, ids = [e.status for e in events], [e.id for e in events]
     _points(ax, m, d, statuses)
-    _label(ax, m, d, ids, notable(m, d, ids, notable_ids))
     (xlo, xhi), (ylo, yhi) = (m.min() / 1.4, m.max() * 1.6), (d.min() / 1.5, d.max() * 1.6)
     ax.set_xlim(xlo, xhi)
     ax.set_ylim(ylo, yhi)
     set_log_ticks(ax.xaxis, xlo, xhi)
     set_log_ticks(ax.yaxis, ylo, yhi)
+    chosen = names.order(statuses, notable(m, d, ids, notable_ids))
+    named = names.place(ax, m, d, ids, chosen, [])
     ax.set_xlabel(style.unit_label(labels.QUANTITIES["total_mass"].name + _SOURCE_FRAME, MSUN))
     ax.set_ylabel(style.unit_label(labels.QUANTITIES["distance"].name, MPC))
-    ax.legend(loc="lower right", fontsize=7, frameon=True, framealpha=0.9)
+    fig.legend(
+        loc="upper left",
+        bbox_to_anchor=(0.01, 1.0),
+        ncols=3,
+        fontsize=style.FONT,
+        frameon=False,
+        handlelength=1.2,
+        columnspacing=1.0,
+    )
     style.finish_axes(ax)
     alt = (
         f"Luminosity distance against total mass for {count_words(len(events), 'event')} "
-        f"({_status_counts(statuses)}): distances from {value_words(d[:, 0].min(), MPC)} to "
-        f"{value_words(d[:, 0].max(), MPC)}, total masses from "
-        f"{value_words(m[:, 0].min(), MSUN)} to {value_words(m[:, 0].max(), MSUN)}."
+        f"({_status_counts(statuses)}): distances from {_median_words(d, np.argmin(d[:, 0]), MPC)} "
+        f"to {_median_words(d, np.argmax(d[:, 0]), MPC)}, total masses from "
+        f"{_median_words(m, np.argmin(m[:, 0]), MSUN)} to "
+        f"{_median_words(m, np.argmax(m[:, 0]), MSUN)}."
     )
-    return Drawing(fig, alt)
+    return Drawing(fig, alt + _named_words(len(named), ids))
+
+
+def _median_words(values: np.ndarray, i, unit) -> str:
+    """One event's median as its sheet prints it (rounded by its own interval)."""
+    return format_median(*values[int(i)], unit)

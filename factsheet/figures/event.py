@@ -1,22 +1,26 @@
-"""Figures of one fact sheet: component intervals and log-scale comparisons.
+"""Figures of one fact sheet: component intervals and comparisons on a log axis.
 
-The functions only draw the numbers they are given (computed by the physics and derive stages).
+The functions only draw the numbers they are given (computed by the physics and derive stages);
+numbers written in a figure come in as text, printed as the sheet's table prints them.
 """
 
 from __future__ import annotations
 
+import textwrap
+
 import astropy.units as u
 import numpy as np
-from matplotlib.axes import Axes
-from matplotlib.ticker import FixedLocator
 
 from factsheet.figures import style
-from factsheet.figures.inputs import Drawing, IntervalItem
+from factsheet.figures.inputs import ComparisonItem, Drawing, IntervalItem
 from factsheet.figures.ticks import set_log_ticks
-from factsheet.figures.words import interval_words, value_words
+from factsheet.figures.words import interval_words
 from factsheet.notation import percent
 
 INTERVAL_COLOURS = ("primary", "secondary", "remnant")
+LINE_PT = 1.25 * style.FONT  # the height of one line of text
+NBSP = "\u00a0"
+NAME_CHARS = 44  # a row name wider than this runs onto a second line (the figure's width)
 
 
 def _quantity_name(unit: str) -> str:
@@ -24,35 +28,38 @@ def _quantity_name(unit: str) -> str:
     return "Mass" if kind == "mass" else (kind.capitalize() or "Value")
 
 
+def _shown(item: IntervalItem, unit: str = "") -> str:
+    return item.shown or interval_words(item.median, item.low, item.high, unit)
+
+
+def _rows_layout(names: list[str]) -> tuple[np.ndarray, float]:
+    """y of each row (first row on top) in row units, and the height of a row in inches: each
+    row holds its name above (one or two lines) and its mark below."""
+    lines = max(name.count("\n") + 1 for name in names)
+    row_pt = lines * LINE_PT + 7 + 14
+    return np.arange(len(names))[::-1].astype(float), row_pt / 72
+
+
 @style.styled
 def component_intervals(items: list[IntervalItem]) -> Drawing:
-    """Horizontal error bars of medians and credible intervals (standard interval plot)."""
+    """Horizontal error bars of medians and credible intervals (standard interval plot), each
+    row named above its bar with its interval as the sheet's table prints it."""
     unit = items[0].unit_str
-    names = [style.wrapped(item.label) for item in items]
-    height = 0.5 + style.row_height(names, 0.42) * len(items)
-    fig = style.new_figure(6.4, height, (style.label_margin(names, 6.4), 0.97, 0.6 / height, 0.97))
+    names = [f"{item.label}   {_shown(item, unit)}" for item in items]
+    ys, row_in = _rows_layout(names)
+    height = 0.62 + row_in * len(items)
+    fig = style.new_figure(style.WIDTH, height, (0.04, 0.96, 0.5 / height, 1 - 0.05 / height))
     ax = fig.add_subplot()
-    ys = np.arange(len(items))[::-1]
     for y, item, role in zip(ys, items, _cycle(INTERVAL_COLOURS, len(items)), strict=True):
-        colour = style.ROLE[role]
         err = [[item.median - item.low], [item.high - item.median]]
-        ax.errorbar(item.median, y, xerr=err, fmt="o", color=colour, ms=5, capsize=3, lw=1.6)
-        ax.annotate(
-            interval_words(item.median, item.low, item.high),
-            (item.high, y),
-            xytext=(6, 0),
-            textcoords="offset points",
-            va="center",
-            fontsize=8,
-            color=style.INK,
-        )
-    ax.yaxis.set_major_locator(FixedLocator(ys))
-    ax.set_yticklabels(names)
-    ax.set_ylim(-0.6, len(items) - 0.4)
-    ax.set_xlim(0, max(item.high for item in items) * 1.3)
+        colour = style.ROLE[role]
+        ax.errorbar(item.median, y, xerr=err, fmt="o", color=colour, ms=6, capsize=4, lw=2)
+    style.row_names(ax, ys, names)
+    ax.set_ylim(-0.45, len(items) - 0.2)
+    ax.set_xlim(0, max(item.high for item in items) * 1.08)
     ax.set_xlabel(style.unit_label(_quantity_name(unit), unit))
     style.finish_axes(ax, grid_axis="x")
-    parts = [f"{i.label} {interval_words(i.median, i.low, i.high, unit)}" for i in items]
+    parts = [f"{i.label} {_shown(i, unit)}" for i in items]
     levels = "/".join(dict.fromkeys(percent(i.level) for i in items))
     return Drawing(fig, f"Medians with {levels} credible intervals: " + "; ".join(parts) + ".")
 
@@ -61,41 +68,58 @@ def _cycle(names: tuple[str, ...], n: int) -> list[str]:
     return [names[i % len(names)] for i in range(n)]
 
 
-def _row_labels(ax: Axes, rows: list[tuple[str, float, bool]]) -> None:
-    """Names on the y axis and values after the bars; the event's own row in bold."""
-    ax.yaxis.set_major_locator(FixedLocator(np.arange(len(rows))))
-    ax.set_yticklabels([style.wrapped(r[0]) for r in rows])
-    for y, (tick, (_, v, mine)) in enumerate(zip(ax.get_yticklabels(), rows, strict=True)):
-        weight = "bold" if mine else "normal"
-        tick.set_fontweight(weight)
-        ax.text(v * 1.12, y, value_words(v, ""), va="center", fontsize=7.5, fontweight=weight)
-    ax.set_ylim(-0.6, len(rows) - 0.4)
+def _log_range(items: list[ComparisonItem]) -> tuple[float, float]:
+    lo = min(i.low for i in items)
+    hi = max(i.high for i in items)
+    pad = (hi / lo) ** 0.04
+    return 10 ** np.floor(np.log10(lo / pad)), 10 ** np.ceil(np.log10(hi * pad))
+
+
+def _name(row: ComparisonItem) -> str:
+    """``name: value`` wrapped between words of the name, never inside the value."""
+    glued = row.shown.replace(" ", NBSP)
+    return textwrap.fill(f"{row.name}: {glued}", NAME_CHARS).replace(NBSP, " ")
 
 
 @style.styled
-def comparison_bars(
-    title: str, value: u.Quantity, label: str, others: list[tuple[str, u.Quantity]]
+def comparison_points(
+    title: str, unit: str | u.UnitBase, items: list[ComparisonItem], level: float = 0.9
 ) -> Drawing:
-    """The event's value against comparison objects as log-scale horizontal bars."""
-    unit = value.unit
-    rows = [(label, float(value.value), True)]
-    rows += [(n, float(q.to_value(unit)), False) for n, q in others]
-    rows.sort(key=lambda r: r[1])
-    names = [style.wrapped(r[0]) for r in rows]
-    height = 0.7 + style.row_height(names, 0.34) * len(rows)
-    left = style.label_margin(names, 6.4)
-    fig = style.new_figure(6.4, height, (left, 0.95, 0.5 / height, 1 - 0.3 / height))
+    """The merger's value with its credible interval against reference values, as points on
+    one log axis: equal distances are equal ratios, and no bar starts at an arbitrary base."""
+    rows = sorted(items, key=lambda i: -i.median)
+    names = [_name(r) for r in rows]
+    ys, row_in = _rows_layout(names)
+    height = 0.62 + row_in * len(rows)
+    fig = style.new_figure(style.WIDTH, height, (0.04, 0.96, 0.5 / height, 1 - 0.05 / height))
     ax = fig.add_subplot()
     ax.set_xscale("log")
-    vals = np.array([r[1] for r in rows])
-    floor = 10.0 ** np.floor(np.log10(vals.min()) - 0.5)
-    colours = [style.ROLE["primary"] if r[2] else style.COMPARISON for r in rows]
-    ax.barh(np.arange(len(rows)), vals - floor, left=floor, color=colours, height=0.62)
-    _row_labels(ax, rows)
-    hi = vals.max() * (vals.max() / floor) ** 0.2  # room for the value written after the bar
-    ax.set_xlim(floor, hi)
-    set_log_ticks(ax.xaxis, floor, hi)
+    for y, r in zip(ys, rows, strict=True):
+        if r.own:
+            err = [[r.median - r.low], [r.high - r.median]]
+            ax.errorbar(
+                r.median,
+                y,
+                xerr=err,
+                fmt="D",
+                color=style.ROLE["primary"],
+                ms=7,
+                capsize=4,
+                lw=2,
+                zorder=3,
+            )
+        else:
+            ax.plot([r.median], [y], "o", color=style.MUTED, ms=6, zorder=3)
+    style.row_names(ax, ys, names, bold=[r.own for r in rows].index(True))
+    lo, hi = _log_range(rows)
+    ax.set_xlim(lo, hi)
+    set_log_ticks(ax.xaxis, lo, hi)
+    ax.set_ylim(-0.45, len(rows) - 0.2)
     ax.set_xlabel(style.unit_label(title, unit) + ", log scale")
     style.finish_axes(ax, grid_axis="x")
-    listed = "; ".join(f"{r[0]} {value_words(r[1], unit)}" for r in rows[::-1])
-    return Drawing(fig, f"{title} on a logarithmic scale, largest first: {listed}.")
+    listed = "; ".join(f"{r.name} {r.shown}" for r in rows)
+    return Drawing(
+        fig,
+        f"{title} on a logarithmic scale, largest first, the merger's with its {percent(level)} "
+        f"credible interval: {listed}.",
+    )

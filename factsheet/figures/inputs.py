@@ -31,6 +31,19 @@ class IntervalItem(NamedTuple):
     high: float
     unit_str: str
     level: float  # the credible level of the interval, e.g. 0.9
+    shown: str = ""  # the interval as the sheet's table prints it; drawn and spoken as given
+
+
+class ComparisonItem(NamedTuple):
+    """One row of a comparison: a value (with interval bounds for the merger's own, equal to
+    the value for a reference object) in the figure's unit, and the text that names it."""
+
+    name: str
+    median: float
+    low: float
+    high: float
+    shown: str  # the value as the sheet prints it (the merger's: its interval, as in the table)
+    own: bool = False  # the merger's own row
 
 
 class Track(NamedTuple):
@@ -42,6 +55,8 @@ class Track(NamedTuple):
     f_isco_hz: float
     f_ringdown_hz: float | None = None
     tau_ringdown_s: float | None = None
+    texts: dict[str, str] | None = None  # the numbers as the sheet prints them, by quantity key
+    note: str = ""  # a sentence drawn in the figure (e.g. that the inspiral ends below the band)
 
 
 class WindowItem(NamedTuple):
@@ -64,6 +79,7 @@ class HistoryItem(NamedTuple):
     low: float
     high: float
     unit: str | u.UnitBase
+    shown: str = ""  # the value as the sheet's history list prints it; spoken as given
 
 
 class PlaneItem(NamedTuple):

@@ -10,6 +10,15 @@ text, never mathtext or TeX: names written by catalogue authors may hold ``$``, 
 and are drawn as written. Units and symbols are Unicode characters (M⊙, χ, ⁻¹, m₁), which the
 font has, so no text needs maths markup.
 
+Size: a sheet figure is drawn :data:`WIDTH` inches (360 pt, the units of its SVG viewBox) wide, and
+the page shows it at 100 % of its column up to that natural width: 358 CSS px on a 390 px phone, at
+least 80 mm in A4 print. Its smallest text, :data:`FONT` = 11.5 units, then reads at ≥ 11 px on the
+phone and ≥ 7 pt on paper. Wider figures scale their fonts in proportion (:func:`font_for`).
+Text is stored as SVG ``<text>`` (``svg.fonttype: none``) so it can be read, searched and
+scaled; the SVG names ``'DejaVu Sans', sans-serif`` (matplotlib adds the generic family after
+the font it measured with), so a viewer without DejaVu Sans falls back to its own sans-serif,
+which is narrower than DejaVu in the common cases: labels placed with DejaVu's widths still fit.
+
 Dark mode: each figure is drawn on its own opaque light panel (figure and axes faces below), so
 the dark text and mid-tone lines read the same whether the page around it is light or dark.
 """
@@ -25,6 +34,7 @@ import matplotlib
 from matplotlib.axes import Axes
 from matplotlib.figure import Figure
 from matplotlib.text import Text
+from matplotlib.ticker import NullLocator
 
 from factsheet.notation import unit_text
 
@@ -46,6 +56,10 @@ ROLE = {
     "ringdown": "#009E73",  # bluish green
 }
 
+#: Text drawn in a role's colour uses this darker shade of its hue, which keeps at least 4.5:1
+#: contrast on the panel (WCAG 2.1, 1.4.3); the lines keep the brighter hue.
+TEXT_ROLE = {"isco": "#A34700", "ringdown": "#00775A", "band_edge": INK}
+
 BAND_SHADE = {  # pale tints, only ever behind labelled regions
     "neutron_star": "#CDE6F5",
     "lower_gap": "#F4EDB0",
@@ -62,16 +76,27 @@ WINDOW = {  # by window band (the keys of factsheet.labels.WINDOW_BANDS)
     "neutrino": "#56B4E9",
 }
 
+WIDTH = 5.0  # inches: the natural width of a sheet figure (360 pt, the SVG's user units)
+FONT = 11.5  # the smallest font size (pt = SVG user units) of a figure WIDTH wide
+PHONE_COLUMN_PX = 358  # the content column of a 390 px wide phone, in CSS px
+MIN_TEXT_PX = 11  # the smallest figure text a reader should meet there
+
+
+def font_for(width_in: float) -> float:
+    """The smallest font size for a figure ``width_in`` inches wide shown in the phone column."""
+    return max(FONT, MIN_TEXT_PX * width_in * 72 / PHONE_COLUMN_PX)
+
+
 RC = {
     "text.parse_math": False,  # "$5 to $10" is a price range, not maths: see the docstring
     "text.usetex": False,
     "axes.formatter.use_mathtext": False,  # tick labels of a default formatter stay plain too
     "font.family": "sans-serif",
     "font.sans-serif": ["DejaVu Sans"],
-    "font.size": 9.0,
+    "font.size": 11.5,
     "mathtext.fontset": "dejavusans",
     "axes.unicode_minus": True,
-    "svg.fonttype": "path",
+    "svg.fonttype": "none",  # text as <text>: see the docstring
     "svg.hashsalt": "factsheet-figures",
     "text.color": INK,
 }
@@ -114,11 +139,30 @@ def row_height(labels: list[str], single: float) -> float:
     return single * 1.3 if any("\n" in text for text in labels) else single
 
 
-def label_margin(labels: list[str], fig_width: float, fontsize: float = 8.0) -> float:
+def label_margin(labels: list[str], fig_width: float, fontsize: float = FONT) -> float:
     """Left margin (figure fraction) that fits the longest y label; DejaVu Sans ≈ 0.6 em a glyph."""
     longest = max((len(line) for text in labels for line in text.splitlines()), default=0)
     inches = 0.2 + longest * 0.6 * fontsize / 72
-    return min(0.5, max(0.1, inches / fig_width))
+    return min(0.5, max(0.06, inches / fig_width))
+
+
+def row_names(ax: Axes, ys, names: list[str], bold: int | None = None) -> None:
+    """Names written above their rows, from the axes' left edge, instead of y tick labels, so
+    long names take the figure's whole width (row ``bold`` in bold: the event's own)."""
+    ax.yaxis.set_major_locator(NullLocator())
+    for k, (y, name) in enumerate(zip(ys, names, strict=True)):
+        ax.annotate(
+            name,
+            (0, y),
+            xycoords=ax.get_yaxis_transform(),
+            xytext=(0, 7),
+            textcoords="offset points",
+            va="bottom",
+            ha="left",
+            fontsize=FONT,
+            color=INK,
+            fontweight="bold" if k == bold else "normal",
+        )
 
 
 def finish_axes(ax: Axes, grid_axis: str = "both") -> None:
@@ -127,7 +171,7 @@ def finish_axes(ax: Axes, grid_axis: str = "both") -> None:
     for spine in ax.spines.values():
         spine.set_color(INK)
         spine.set_linewidth(0.7)
-    ax.tick_params(which="both", colors=INK, labelsize=8, direction="out", width=0.6)
+    ax.tick_params(which="both", colors=INK, labelsize=FONT, direction="out", width=0.6)
     ax.tick_params(which="minor", length=2)
     if grid_axis:
         ax.grid(True, which="major", axis=grid_axis, color=GRID, linewidth=0.6)

@@ -2,11 +2,11 @@
 
 from __future__ import annotations
 
+import textwrap
+
 import astropy.units as u
 import numpy as np
 from matplotlib.axes import Axes
-from matplotlib.figure import Figure
-from matplotlib.patches import Patch
 from matplotlib.ticker import FixedLocator, MaxNLocator, NullLocator
 
 from factsheet.figures import style
@@ -21,11 +21,14 @@ _MARKS = [
     (u.min, "1 min"),
     (u.h, "1 h"),
     (u.day, "1 d"),
+    (7 * u.day, "1 wk"),
     (30 * u.day, "30 d"),
+    (100 * u.day, "100 d"),
     (u.yr, "1 yr"),
     (10 * u.yr, "10 yr"),
 ]
-LINTHRESH_S = 1.0  # the time axis is linear within ±1 s of the merger, logarithmic beyond
+LINTHRESH_S = 1.0  # with windows before the merger: linear within ±1 s of it, logarithmic beyond
+NAME_CHARS = 44  # a window's name wider than this runs onto a second line
 
 
 def duration_words(seconds: float) -> str:
@@ -37,64 +40,71 @@ def duration_words(seconds: float) -> str:
     return f"{sign}{plain_number(float(f'{x.to_value(u.s):.2g}'))} s"
 
 
-def _time_marks(left: float, right: float) -> tuple[list[float], list[str]]:
-    values, labels = [0.0], ["0"]
+def _time_marks(left: float, right: float) -> list[tuple[float, str]]:
+    marks = [(0.0, "0")] if left <= 0 <= right else []
     for q, text in _MARKS:
         s = float((1 * q).to_value(u.s))
-        if s <= right:
-            values.append(s), labels.append(text)
-        if -s >= left:
-            values.insert(0, -s), labels.insert(0, "−" + text)
-    return values, labels
+        marks += [(s, text)] if left <= s <= right else []
+        marks += [(-s, "−" + text)] if left <= -s <= right else []
+    return sorted(marks)
 
 
-def _window_axis(ax: Axes, left: float, right: float, merger_utc: str) -> None:
+def _spaced(ax: Axes, marks: list[tuple[float, str]]) -> list[tuple[float, str]]:
+    """The marks whose names do not touch, zero and the largest first, then inwards."""
+    scale = 72 / ax.figure.dpi
+    at = ax.transData.transform([(v, 0.0) for v, _ in marks])[:, 0] * scale
+    half = [len(text) * 0.33 * style.FONT + 4 for _, text in marks]  # half a name, and a gap
+    order = sorted(range(len(marks)), key=lambda k: (marks[k][0] != 0, -abs(marks[k][0])))
+    kept: list[int] = []
+    for k in order:
+        if all(abs(at[k] - at[j]) >= half[k] + half[j] for j in kept):
+            kept.append(k)
+    return [marks[k] for k in sorted(kept)]
+
+
+def _window_axis(ax: Axes, left: float, right: float, merger_utc: str, log: bool) -> None:
     ax.set_xlim(left, right)
-    values, labels = _time_marks(left, right)
-    ax.xaxis.set_major_locator(FixedLocator(values))
-    ax.set_xticklabels(labels)
+    marks = _spaced(ax, _time_marks(left, right))
+    ax.xaxis.set_major_locator(FixedLocator([v for v, _ in marks]))
+    ax.set_xticklabels([text for _, text in marks])
     ax.xaxis.set_minor_locator(NullLocator())
-    ax.set_xlabel(f"Time since merger at {merger_utc} (linear within ±1 s)")
+    scale = "log scale" if log else "linear within ±1 s"
+    ax.set_xlabel(f"Time after the merger at\n{merger_utc} ({scale})")
 
 
-def _band_legend(fig: Figure, windows: list[WindowItem], left: float) -> None:
-    bands = list(dict.fromkeys(w.band for w in windows))
-    handles = [Patch(color=style.WINDOW[b], label=WINDOW_BANDS[b]) for b in bands]
-    fig.legend(
-        handles=handles,
-        loc="upper left",
-        bbox_to_anchor=(left, 1.0),
-        ncols=len(bands),
-        frameon=False,
-        fontsize=7.5,
-        handlelength=1.2,
-        columnspacing=1.0,
-    )
+def _span(starts: np.ndarray, ends: np.ndarray) -> tuple[float, float, bool]:
+    """The time axis that fits the windows: logarithmic from just before the first start when
+    every window opens after the merger, otherwise symmetric-log around the merger."""
+    if starts.min() > 0:
+        return starts.min() / 2, ends.max() * 2, True
+    return starts.min() * 3, ends.max() * 3, False
 
 
 @style.styled
 def window_timeline(windows: list[WindowItem], merger_utc: str) -> Drawing:
-    """Counterpart windows as bars on a time axis, linear within ±1 s and logarithmic beyond."""
+    """Counterpart windows as bars on a time axis that fits them, each named above its bar."""
     day = float((1 * u.day).to_value(u.s))
     starts = np.array([w.start_days for w in windows]) * day
     ends = np.array([w.end_days for w in windows]) * day
-    n = len(windows)
-    names = [style.wrapped(w.name) for w in windows]
-    height = 1.1 + style.row_height(names, 0.32) * n
-    left = style.label_margin(names, 6.4)
-    fig = style.new_figure(6.4, height, (left, 0.97, 0.55 / height, 1 - 0.45 / height))
+    names = [textwrap.fill(_window_name(w), NAME_CHARS) for w in windows]
+    lines = max(name.count("\n") + 1 for name in names)
+    row_in = (lines * 1.25 * style.FONT + 7 + 14) / 72
+    height = 0.9 + row_in * len(windows)
+    fig = style.new_figure(style.WIDTH, height, (0.04, 0.96, 0.75 / height, 1 - 0.05 / height))
     ax = fig.add_subplot()
-    ax.set_xscale("symlog", linthresh=LINTHRESH_S, linscale=1.2)
-    ys = np.arange(n)[::-1]
+    left, right, log = _span(starts, ends)
+    if log:
+        ax.set_xscale("log")
+    else:
+        ax.set_xscale("symlog", linthresh=LINTHRESH_S, linscale=1.2)
+        ax.axvline(0.0, color=style.INK, linewidth=0.9)
+    ys = np.arange(len(windows))[::-1]
     ax.barh(
-        ys, ends - starts, left=starts, color=[style.WINDOW[w.band] for w in windows], height=0.6
+        ys, ends - starts, left=starts, color=[style.WINDOW[w.band] for w in windows], height=0.3
     )
-    ax.axvline(0.0, color=style.INK, linewidth=0.9)
-    _window_axis(ax, min(0.0, starts.min() * 3), ends.max() * 3, merger_utc)
-    ax.set_ylim(-0.6, n - 0.4)
-    ax.yaxis.set_major_locator(FixedLocator(ys))
-    ax.set_yticklabels(names)
-    _band_legend(fig, windows, left)
+    _window_axis(ax, left, right, merger_utc, log)
+    ax.set_ylim(-0.45, len(windows) - 0.2)
+    style.row_names(ax, ys, names)
     style.finish_axes(ax, grid_axis="x")
     parts = [
         f"{w.name} ({WINDOW_BANDS[w.band]}) from {duration_words(s)} to {duration_words(e)}"
@@ -102,6 +112,12 @@ def window_timeline(windows: list[WindowItem], merger_utc: str) -> Drawing:
     ]
     alt = f"Counterpart windows relative to the merger at {merger_utc}: " + "; ".join(parts)
     return Drawing(fig, alt + ". A planning aid, not a prediction.")
+
+
+def _window_name(w: WindowItem) -> str:
+    """The window's name, and its band when the name does not say it (colour is not alone)."""
+    band = WINDOW_BANDS[w.band]
+    return w.name if band.lower() in w.name.lower() else f"{w.name} ({band})"
 
 
 def _estimate_name(label: str, date_iso: str) -> str:
@@ -122,7 +138,7 @@ def _history_alt(groups: dict[str, list[HistoryItem]]) -> str:
         f"{name}: "
         + ", then ".join(
             f"{_estimate_name(p.label, p.date_iso)} "
-            f"{interval_words(p.median, p.low, p.high, p.unit)}"
+            f"{p.shown or interval_words(p.median, p.low, p.high, p.unit)}"
             for p in items
         )
         for name, items in groups.items()
@@ -132,23 +148,21 @@ def _history_alt(groups: dict[str, list[HistoryItem]]) -> str:
 
 @style.styled
 def history(points: list[HistoryItem]) -> Drawing:
-    """Intervals of key quantities per estimate (given earliest first), one panel per quantity."""
+    """Intervals of key quantities per estimate (given earliest first), one panel per quantity,
+    stacked so each panel takes the figure's width."""
     estimates, groups = _grouped(points)
-    ncols = min(len(groups), 4)
-    nrows = -(-len(groups) // ncols)
-    names = [style.wrapped(_estimate_name(label, date)) for date, label in estimates]
-    height = (0.75 + 0.3 * len(estimates)) * nrows + 0.2
-    margins = (style.label_margin(names, 6.4), 0.98, 0.5 / height, 1 - 0.3 / height)
-    fig = style.new_figure(6.4, height, margins)
-    fig.subplots_adjust(wspace=0.12, hspace=0.9 if nrows > 1 else 0.2)
-    axes = fig.subplots(nrows, ncols, sharey=True, squeeze=False).ravel()
+    names = [date or style.wrapped(label, 10) for date, label in estimates]
+    panel_in = (0.25 * len(estimates) + 0.2) + 0.62  # rows, and the title and ticks around them
+    height = panel_in * len(groups) + 0.15
+    margins = (style.label_margin(names, style.WIDTH), 0.96, 0.45 / height, 1 - 0.3 / height)
+    fig = style.new_figure(style.WIDTH, height, margins)
+    fig.subplots_adjust(hspace=0.62 / (panel_in - 0.62))
+    axes = fig.subplots(len(groups), 1, sharey=True, squeeze=False).ravel()
     ys = {e: len(estimates) - 1 - i for i, e in enumerate(estimates)}
-    for ax, (name, items) in zip(axes, groups.items(), strict=False):
+    for ax, (name, items) in zip(axes, groups.items(), strict=True):
         _history_panel(ax, name, items, ys, estimates[-1])
-    for ax in axes[len(groups) :]:
-        ax.set_visible(False)
-    axes[0].yaxis.set_major_locator(FixedLocator(list(ys.values())))
-    axes[0].set_yticklabels(names)
+        ax.yaxis.set_major_locator(FixedLocator(list(ys.values())))
+        ax.set_yticklabels(names)
     axes[0].set_ylim(-0.6, len(estimates) - 0.4)
     return Drawing(fig, _history_alt(groups))
 
@@ -163,15 +177,14 @@ def _history_panel(ax, name: str, items: list[HistoryItem], ys: dict, latest: tu
             xerr=[[p.median - p.low], [p.high - p.median]],
             fmt="o",
             color=colour,
-            ms=4,
-            capsize=2.5,
-            lw=1.4,
+            ms=5,
+            capsize=3,
+            lw=1.8,
         )
-    ax.set_title(name, fontsize=8.5, loc="left")
-    ax.set_xlabel(style.unit_label("", items[0].unit).strip(" ()") or " ", fontsize=8)
+    ax.set_title(style.unit_label(name, items[0].unit), fontsize=style.FONT, loc="left")
     lo = min(p.low for p in items)
     hi = max(p.high for p in items)
     pad = 0.15 * (hi - lo or abs(hi) or 1.0)
     ax.set_xlim(lo - pad, hi + pad)
     style.finish_axes(ax, grid_axis="x")
-    ax.xaxis.set_major_locator(MaxNLocator(4))  # small panels keep few ticks
+    ax.xaxis.set_major_locator(MaxNLocator(5))

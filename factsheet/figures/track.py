@@ -1,21 +1,31 @@
-"""The frequency track through the detector band, with the band edge, ISCO and ringdown marked."""
+"""The frequency track through the detector band, with the band edge, ISCO and ringdown marked.
+
+Two panels share the frequency axis: before the merger, time to merger on a logarithmic axis
+(read right to left as the waves approach the merger; the leading-order track is a straight
+line there), and after it, a linear axis in milliseconds holding the ringdown. Each panel has one
+scale, so the track shows no knee where an axis changes from logarithmic to linear; the gap
+between the panels is the merger.
+"""
 
 from __future__ import annotations
 
-import astropy.units as u
+import math
+import textwrap
+
 import numpy as np
 from matplotlib.axes import Axes
-from matplotlib.ticker import FixedLocator, NullLocator
+from matplotlib.ticker import FixedLocator, MaxNLocator, NullLocator
 
 from factsheet.figures import style
 from factsheet.figures.inputs import Drawing, Track
-from factsheet.figures.ticks import plain_number, set_log_ticks, symlog_tick_values
+from factsheet.figures.ticks import log_tick_values, plain_number, set_log_ticks
 from factsheet.figures.words import value_words
-from factsheet.labels import QUANTITIES
+from factsheet.labels import FIGURE_NAMES, QUANTITIES
 
 MAX_TRACK_POINTS = 600  # the track is thinned to this many points for the drawing
-LINTHRESH_S = 1e-2  # the time axis is linear within ±10 ms of the merger, logarithmic beyond
 RINGDOWN_TAUS = 5  # the ringdown bar spans this many damping times after the merger
+NO_TRACK_S = (1.0, 1e-3)  # the span of the before-merger axis when no inspiral is in band
+NOTE_CHARS = 28  # the note's lines, at most this long (the before-merger panel's width)
 
 
 def _thin(t: np.ndarray, f: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
@@ -25,86 +35,161 @@ def _thin(t: np.ndarray, f: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
     return t[keep], f[keep]
 
 
-def _marks(track: Track) -> list[tuple[str, float, str, str]]:
-    """(name, frequency, palette role, line style) of each marked frequency."""
+def _text(track: Track, key: str, value: float, unit: str) -> str:
+    return (track.texts or {}).get(key) or value_words(value, unit)
+
+
+def _marks(track: Track) -> list[tuple[str, float, str, str, bool]]:
+    """(label, frequency, palette role, line style, label above the line) of each mark; the
+    band edge's and the ISCO's labels go on their far sides, so they never overlap."""
+    isco_in_band = track.f_isco_hz > track.f_low_hz
     marks = [
-        ("band edge", track.f_low_hz, "band_edge", "--"),
-        (QUANTITIES["isco_frequency"].short, track.f_isco_hz, "isco", ":"),
+        (
+            f"{FIGURE_NAMES['band_edge']} {value_words(track.f_low_hz, 'Hz')}",
+            track.f_low_hz,
+            "band_edge",
+            "--",
+            not isco_in_band,
+        ),
+        (
+            f"{QUANTITIES['isco_frequency'].short} "
+            f"{_text(track, 'isco_frequency', track.f_isco_hz, 'Hz')}",
+            track.f_isco_hz,
+            "isco",
+            ":",
+            isco_in_band,
+        ),
     ]
     if track.f_ringdown_hz is not None:
-        marks.append(
-            (QUANTITIES["ringdown_frequency"].short, track.f_ringdown_hz, "ringdown", "-.")
-        )
+        text = _text(track, "ringdown_frequency", track.f_ringdown_hz, "Hz")
+        name = QUANTITIES["ringdown_frequency"].short
+        marks.append((f"{name} {text}", track.f_ringdown_hz, "ringdown", "-.", True))
     return marks
 
 
-def _mark_frequencies(ax: Axes, track: Track, x_text: float) -> None:
-    for name, f, role, linestyle in _marks(track):
+def _mark_frequencies(axes: list[Axes], track: Track) -> None:
+    for text, f, role, linestyle, above in _marks(track):
         colour = style.ROLE[role]
-        ax.axhline(f, color=colour, linestyle=linestyle, linewidth=1.0)
-        below = role == "band_edge"  # the track starts on the band edge: its name goes underneath
-        ax.text(
-            x_text,
-            f / 1.04 if below else f * 1.04,
-            f"{name} {value_words(f, 'Hz')}",
-            color=colour,
-            fontsize=8,
-            va="top" if below else "bottom",
-            ha="left",
+        for ax in axes:
+            ax.axhline(f, color=colour, linestyle=linestyle, linewidth=1.2, zorder=1)
+        axes[0].annotate(
+            text,
+            (0, f),
+            xycoords=axes[0].get_yaxis_transform(),
+            xytext=(4, 3 if above else -3),
+            textcoords="offset points",
+            color=style.TEXT_ROLE[role],
+            fontsize=style.FONT,
+            va="bottom" if above else "top",
         )
-    if track.f_ringdown_hz is not None and track.tau_ringdown_s:
+
+
+def _before_axis(ax: Axes, t: np.ndarray) -> None:
+    """Time to merger, log scale, decreasing to the right (towards the merger)."""
+    left, right = (t.max() * 1.6, t.min() / 1.6) if len(t) else NO_TRACK_S
+    ax.set_xscale("log")
+    ax.set_xlim(left, right)
+    decades = [
+        10.0**e for e in range(math.ceil(math.log10(right)), 1 + math.floor(math.log10(left)))
+    ]
+    values = decades if len(decades) >= 3 else log_tick_values(right, left)
+    span = math.log10(left / right)  # no tick at the panel's right end, beside the other panel's
+    values = [v for v in values if 0.0 <= math.log10(left / v) <= 0.92 * span]
+    ax.xaxis.set_major_locator(FixedLocator(values))
+    ax.set_xticklabels([plain_number(v) for v in values])
+    ax.xaxis.set_minor_locator(NullLocator())
+    ax.set_xlabel(style.unit_label(FIGURE_NAMES["time_before_merger"], "s") + ", log scale")
+
+
+def _after_axis(ax: Axes, track: Track) -> None:
+    """Time after the merger in milliseconds, linear, with the ringdown's bar."""
+    tau_ms = 1e3 * (track.tau_ringdown_s or 0.0)
+    ax.set_xlim(0.0, max(RINGDOWN_TAUS * tau_ms * 1.25, 1.0))
+    ax.xaxis.set_major_locator(MaxNLocator(2, integer=True))
+    ax.set_xlabel(style.unit_label(FIGURE_NAMES["time_after_merger"], "ms"))
+    ax.tick_params(axis="y", which="both", left=False, labelleft=False)
+    ax.axvline(0.0, color=style.INK, linewidth=1.0)
+    ax.annotate(
+        FIGURE_NAMES["merger"],
+        (0, 1),
+        xycoords="axes fraction",
+        xytext=(4, -4),
+        textcoords="offset points",
+        va="top",
+        fontsize=style.FONT,
+    )
+    if track.f_ringdown_hz is not None and tau_ms:
         ax.plot(
-            [0.0, RINGDOWN_TAUS * track.tau_ringdown_s],
+            [0.0, RINGDOWN_TAUS * tau_ms],
             [track.f_ringdown_hz] * 2,
             color=style.ROLE["ringdown"],
-            linewidth=4,
+            linewidth=5,
             solid_capstyle="butt",
             label=f"ringdown ({RINGDOWN_TAUS} τ)",
         )
 
 
-def _time_axis(ax: Axes, left: float, right: float) -> None:
-    ax.set_xlim(left, right)
-    values = symlog_tick_values(left, right, LINTHRESH_S)
-    ax.xaxis.set_major_locator(FixedLocator(values))
-    ax.set_xticklabels([plain_number(v) for v in values])
-    ax.xaxis.set_minor_locator(NullLocator())
-    ax.set_xlabel(style.unit_label("Time relative to merger", "s"))
+def _note(ax: Axes, track: Track, lo: float, hi: float) -> None:
+    """The caller's sentence in the middle of the before-merger panel, between the marks."""
+    top = track.f_ringdown_hz or hi
+    y = math.sqrt(max(track.f_low_hz, track.f_isco_hz) * top)
+    ax.text(
+        0.5,
+        y,
+        textwrap.fill(track.note, 30),
+        transform=ax.get_yaxis_transform(),
+        ha="center",
+        va="center",
+        fontsize=style.FONT,
+        color=style.INK,
+    )
 
 
 @style.styled
 def frequency_track(track: Track) -> Drawing:
-    """GW frequency against time to merger (log frequency, symlog time) with marked frequencies."""
-    t, f = _thin(-np.asarray(track.time_to_merger_s, float), np.asarray(track.frequency_hz, float))
-    tau = track.tau_ringdown_s or 0.0
-    left, right = min(t.min(), -1.0) * 1.3, max(LINTHRESH_S, RINGDOWN_TAUS * tau) * 1.6
-    fig = style.new_figure(6.4, 3.4, (0.11, 0.97, 0.14, 0.95))
-    ax = fig.add_subplot()
-    ax.set_xscale("symlog", linthresh=LINTHRESH_S, linscale=0.6)
+    """Gravitational-wave frequency against time to merger (log–log before the merger, linear
+    after it), the band edge, the ISCO and the ringdown frequency marked."""
+    t, f = _thin(np.asarray(track.time_to_merger_s, float), np.asarray(track.frequency_hz, float))
+    ring = track.f_ringdown_hz is not None
+    fig = style.new_figure(style.WIDTH, 3.4, (0.16, 0.97, 0.16, 0.97))
+    grid = fig.add_gridspec(1, 2 if ring else 1, width_ratios=[3, 1] if ring else [1], wspace=0.06)
+    ax = fig.add_subplot(grid[0])
+    axes = [ax, fig.add_subplot(grid[1], sharey=ax)] if ring else [ax]
     ax.set_yscale("log")
-    ax.plot(t, f, color=style.ROLE["track"], linewidth=1.8, label="frequency track")
-    ax.axvline(0.0, color=style.INK, linewidth=0.8)
-    ax.text(0.0, 0.98, " merger", transform=ax.get_xaxis_transform(), fontsize=8, va="top")
-    _mark_frequencies(ax, track, left * 0.9)
-    fs = [f.min(), f.max()] + [m[1] for m in _marks(track)]
-    lo, hi = min(fs) / 1.4, max(fs) * 1.6
+    if len(t):
+        ax.plot(t, f, color=style.ROLE["track"], linewidth=2.2, label="frequency track", zorder=2)
+    _mark_frequencies(axes, track)
+    fs = [*([f.min(), f.max()] if len(f) else []), *(m[1] for m in _marks(track))]
+    lo, hi = min(fs) / 1.5, max(fs) * 1.7
     ax.set_ylim(lo, hi)
     set_log_ticks(ax.yaxis, lo, hi)
-    _time_axis(ax, left, right)
-    ax.set_ylabel(style.unit_label("Gravitational-wave frequency", "Hz"))
-    style.finish_axes(ax)
-    return Drawing(fig, _track_alt(track, float(-t.min())))
+    _before_axis(ax, t)
+    if ring:
+        _after_axis(axes[1], track)
+    if track.note:
+        _note(ax, track, lo, hi)
+    ax.set_ylabel(style.unit_label(FIGURE_NAMES["frequency"], "Hz"))
+    for each in axes:
+        style.finish_axes(each)
+    return Drawing(fig, _track_alt(track, t))
 
 
-def _track_alt(track: Track, duration: float) -> str:
-    text = (
-        f"Gravitational-wave frequency rising from {value_words(track.f_low_hz, 'Hz')} at the "
-        f"band edge, {value_words(duration, 's')} before merger, through the ISCO frequency "
-        f"{value_words(track.f_isco_hz, 'Hz')}"
-    )
+def _track_alt(track: Track, t: np.ndarray) -> str:
+    edge = value_words(track.f_low_hz, "Hz")
+    isco = _text(track, "isco_frequency", track.f_isco_hz, "Hz")
+    if len(t):
+        duration = _text(track, "time_in_band", float(t.max()), "s")
+        text = (
+            f"Gravitational-wave frequency rising from {edge} at the band edge, {duration} "
+            f"before merger, through the ISCO frequency {isco}"
+        )
+    else:
+        text = f"The inspiral ends at the ISCO frequency {isco}, below the band edge at {edge}"
     if track.f_ringdown_hz is not None:
-        text += f", to the ringdown frequency {value_words(track.f_ringdown_hz, 'Hz')}"
+        ring = _text(track, "ringdown_frequency", track.f_ringdown_hz, "Hz")
+        text += f", to the ringdown frequency {ring}"
         if track.tau_ringdown_s:
-            tau_ms = (track.tau_ringdown_s * u.s).to_value(u.ms)
-            text += f" with damping time {value_words(tau_ms, 'ms')}"
-    return text + "."
+            tau = _text(track, "ringdown_damping_time", track.tau_ringdown_s * 1e3, "ms")
+            text += f" with damping time {tau}"
+    text += "."
+    return f"{text} {track.note}" if track.note else text

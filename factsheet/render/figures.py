@@ -16,10 +16,12 @@ import numpy as np
 
 from factsheet import figures as fg
 from factsheet import labels
-from factsheet.model import Derived, SiteFigure
+from factsheet.model import Derived, SiteFigure, Summary
+from factsheet.notation import format_interval, format_median, format_value
 from factsheet.physics import inspiral
 from factsheet.render.contexts import display_summary
 from factsheet.render.history import CURRENT_LABEL
+from factsheet.render.sound import band_note
 
 ENERGY_KEYS = (
     "sun_lifetime",
@@ -42,8 +44,27 @@ def _save(path: str, draw: Callable[[], fg.Drawing], caption: str) -> SiteFigure
     return SiteFigure(path, svg, drawing.alt, caption, time.perf_counter() - start)
 
 
-def _item(label: str, s) -> fg.IntervalItem:
-    return fg.IntervalItem(label, s.median, s.low, s.high, s.unit, s.level)
+def _item(label: str, s: Summary) -> fg.IntervalItem:
+    return fg.IntervalItem(label, s.median, s.low, s.high, s.unit, s.level, interval_text(s))
+
+
+def interval_text(summary: Summary, energy_units: str = "SI") -> str:
+    """A quantity's interval exactly as the sheet's table prints it."""
+    s = display_summary(summary, energy_units)
+    return format_interval(s.median, s.low, s.high, s.unit)
+
+
+def median_text(summary: Summary, energy_units: str = "SI") -> str:
+    """A quantity's median alone, rounded as the table rounds its interval."""
+    s = display_summary(summary, energy_units)
+    return format_median(s.median, s.low, s.high, s.unit)
+
+
+def in_band_note(item: Derived) -> str | None:
+    """The sentence for a pair whose inspiral ends below the band edge: only the merger and
+    ringdown were in band. Said in the frequency track's caption and alt text and in the chirp
+    sound's text, in one wording (:func:`factsheet.render.sound.band_note`); None otherwise."""
+    return band_note(item)
 
 
 def event_figures(item: Derived) -> list[SiteFigure]:
@@ -60,12 +81,13 @@ def event_figures(item: Derived) -> list[SiteFigure]:
             "Masses (source frame) with credible intervals.",
         )
     )
+    note = in_band_note(item)
     out.append(
         _save(
             f"{base}-track.svg",
-            lambda: fg.frequency_track(_track(item)),
+            lambda: fg.frequency_track(_track(item, IN_BAND_FIGURE_NOTE if note else "")),
             "Frequency of the waves as they swept through the detectors' band "
-            "(leading-order inspiral; observed frequencies).",
+            "(leading-order inspiral; observed frequencies)." + (f" {note}" if note else ""),
         )
     )
     if "energy_radiated" in q:
@@ -97,53 +119,105 @@ def event_figures(item: Derived) -> list[SiteFigure]:
                 "How the estimate changed from one analysis to the next.",
             )
         )
+    out.append(share_image(item))
     return out
 
 
-def _track(item: Derived) -> fg.Track:
+#: The word across the top of a sharing image, by status (a confirmed event shows none).
+SHARE_STATUS = {"candidate": "candidate", "retracted": "retracted"}
+
+
+def share_image(item: Derived) -> SiteFigure:
+    """The sheet's sharing image (PNG bytes in the ``svg`` field), written at
+    ``events/<id>-share.png``; its alt text says what it shows."""
+    start, event, q = time.perf_counter(), item.event, item.quantities
+    roles = {"heavier_mass": "primary", "lighter_mass": "secondary", "remnant_mass": "remnant"}
+    keys = [k for k in roles if k in q]
+    bodies = tuple(
+        fg.ShareBody(labels.QUANTITIES[k].short, median_text(q[k]), q[k].median, roles[k])
+        for k in keys
+    )
+    status = SHARE_STATUS.get(event.status)
+    subtitle = f"{event.id} · {event.time.utc.isot[:10]} · {item.source_class}"
+    card = fg.ShareCard(event.title, subtitle, status, bodies, item.settings.title)
+    png = fg.share_png(card)
+    masses = ", ".join(f"{b.label} {b.text}" for b in bodies)
+    alt = f"{status.capitalize() + ': ' if status else ''}{event.title} ({subtitle}); {masses}."
+    return SiteFigure(f"events/{event.id}-share.png", png, alt, "", time.perf_counter() - start)
+
+
+#: What the frequency track says in its panel when the inspiral ends below the band edge (its
+#: marks show the two frequencies; the caption gives the full sentence of :func:`in_band_note`).
+IN_BAND_FIGURE_NOTE = (
+    "The inspiral ends below the band edge: only the merger and ringdown are in band."
+)
+TRACK_TEXTS = ("isco_frequency", "ringdown_frequency", "ringdown_damping_time", "time_in_band")
+
+
+def _track(item: Derived, note: str) -> fg.Track:
+    """The leading-order track from the band edge to the ISCO frequency (none when the ISCO
+    lies below the band edge), with the marked numbers as the table prints them."""
     q, f_low = item.quantities, item.settings.low_frequency.to_value(u.Hz)
     mc = q["chirp_mass_detector"].median * u.Msun
     f_isco = q["isco_frequency"].median
-    f_top = max(f_isco, f_low * 1.05)
-    freq = np.geomspace(f_low, f_top, 200) * u.Hz
-    tau = inspiral.time_to_merger(mc, freq).to_value(u.s)
+    freq = np.geomspace(f_low, f_isco, 200) * u.Hz if f_isco > f_low else np.zeros(0) * u.Hz
+    tau = inspiral.time_to_merger(mc, freq).to_value(u.s) if len(freq) else np.zeros(0)
     ring = q.get("ringdown_frequency")
     damp = q.get("ringdown_damping_time")
+    texts = {k: median_text(q[k]) for k in TRACK_TEXTS if k in q}
     return fg.Track(
-        tau, freq.value, f_low, f_isco, ring.median if ring else None, damp.median if damp else None
+        tau,
+        freq.value,
+        f_low,
+        f_isco,
+        ring.median if ring else None,
+        damp.median if damp else None,
+        texts,
+        note,
     )
 
 
-def _median_as_shown(summary, energy_units: str) -> u.Quantity:
-    """A median in the unit the sheet's table and the index show it in (J or erg, W or erg/s)."""
-    shown = display_summary(summary, energy_units)
-    return shown.median * u.Unit(shown.unit)
+def _comparison(item: Derived, key: str, own: str, others: dict) -> tuple[str, list]:
+    """The merger's value (its interval as the table prints it) and the reference values, all
+    in the unit the sheet shows the quantity in."""
+    units, names = item.settings.energy_units, item.reference.comparison_labels()
+    s = display_summary(item.quantities[key], units)
+    shown = format_interval(s.median, s.low, s.high, s.unit)
+    rows = [fg.ComparisonItem(own, s.median, s.low, s.high, shown, own=True)]
+    for k, value in others.items():
+        v = float(value.to_value(s.unit))
+        rows.append(fg.ComparisonItem(names[k], v, v, v, format_value(v, s.unit)))
+    return s.unit, rows
 
 
 def _comparisons(item: Derived, base: str) -> list[SiteFigure]:
-    ref, q, units = item.reference, item.quantities, item.settings.energy_units
-    energies, lums, names = ref.energies(), ref.luminosities(), ref.comparison_labels()
-    energy = _median_as_shown(q["energy_radiated"], units)
-    peak = _median_as_shown(q["peak_luminosity"], units)
-    e_others = [(names[k], energies[k].to(energy.unit)) for k in ENERGY_KEYS if k in energies]
-    l_others = [(names[k], lums[k].to(peak.unit)) for k in LUMINOSITY_KEYS if k in lums]
+    ref, level = item.reference, item.quantities["energy_radiated"].level
+    energies, lums = ref.energies(), ref.luminosities()
+    e_unit, e_rows = _comparison(
+        item,
+        "energy_radiated",
+        labels.FIGURE_NAMES["merger_energy"],
+        {k: energies[k] for k in ENERGY_KEYS if k in energies},
+    )
+    l_unit, l_rows = _comparison(
+        item,
+        "peak_luminosity",
+        labels.FIGURE_NAMES["merger_peak"],
+        {k: lums[k] for k in LUMINOSITY_KEYS if k in lums},
+    )
+    energy, peak = labels.QUANTITIES["energy_radiated"], labels.QUANTITIES["peak_luminosity"]
     return [
         _save(
             f"{base}-energy.svg",
-            lambda: fg.comparison_bars(
-                labels.QUANTITIES["energy_radiated"].name,
-                energy,
-                "this merger (gravitational waves)",
-                e_others,
-            ),
-            "Energy radiated as gravitational waves against familiar sources (log scale).",
+            lambda: fg.comparison_points(energy.name, e_unit, e_rows, level),
+            f"{energy.name} as gravitational waves, with its credible interval, against familiar "
+            "sources (log scale: equal steps are equal ratios).",
         ),
         _save(
             f"{base}-luminosity.svg",
-            lambda: fg.comparison_bars(
-                labels.QUANTITIES["peak_luminosity"].name, peak, "this merger at its peak", l_others
-            ),
-            "Peak power in gravitational waves against familiar sources (log scale).",
+            lambda: fg.comparison_points(peak.name, l_unit, l_rows, level),
+            f"{peak.name} in gravitational waves, with its credible interval, against familiar "
+            "sources (log scale: equal steps are equal ratios).",
         ),
     ]
 
@@ -159,7 +233,10 @@ def _history_points(item: Derived) -> list[fg.HistoryItem]:
         for path in HISTORY_FIGURE:
             if path in given:
                 v, name = given[path], labels.estimate_value(path, event.frame)
-                points.append(fg.HistoryItem(label, date, name, v.median, v.low, v.high, v.unit))
+                shown = format_interval(v.median, v.low, v.high, v.unit.to_string())
+                points.append(
+                    fg.HistoryItem(label, date, name, v.median, v.low, v.high, v.unit, shown)
+                )
     return points
 
 
@@ -193,11 +270,13 @@ def index_figures(derived: list[Derived], edges: dict[str, float]) -> list[SiteF
         _save(
             "figures/mass-plane.svg",
             lambda: fg.mass_plane(plane, edges),
-            "Component masses of every event, with the mass bands shaded.",
+            "Component masses of every event, with the mass bands shaded; events are named "
+            "where there is room, and the table lists them all.",
         ),
         _save(
             "figures/distance-mass.svg",
             lambda: fg.distance_mass(dist),
-            f"{labels.QUANTITIES['distance'].name} against total mass (source frame).",
+            f"{labels.QUANTITIES['distance'].name} against total mass (source frame); events "
+            "are named where there is room, and the table lists them all.",
         ),
     ]

@@ -140,6 +140,7 @@ class EventPage:
     figures: tuple[FigureInfo, ...]  # every figure, for the downloads
     audio: Audio | None  # none for a retracted event: no sound of a non-event
     share_image: str  # site path of the sharing image, or ""
+    share_alt: str  # what the sharing image shows, in words
     description: str  # one-sentence page description for the metadata
     previous: Link | None
     next: Link | None
@@ -315,7 +316,7 @@ def event_page(
     shown = tuple(f for f in figures if f.path.endswith(".svg"))
     if retracted:  # no comparisons for a non-event
         shown = tuple(f for f in shown if _figure_group(f) != "remnant")
-    share = next((f.path for f in figures if f.path.endswith(".png")), "")
+    share = next((f for f in figures if f.path.endswith(".png")), None)
     notes = numbered(placed["rows"])
     headline = prose.headline(item)
     large_sky = any(c.code == "large-sky-area" for c in placed["prose"])
@@ -339,7 +340,8 @@ def event_page(
         history_figures=tuple(f for f in shown if _figure_group(f) == "history"),
         figures=shown,
         audio=None if retracted else audio,
-        share_image=share,
+        share_image=share.path if share else "",
+        share_alt=share.alt if share else "",
         description=" ".join([*opening(event)[:1], headline[0]]),
         previous=previous and Link(previous.event.id, page_of(previous.event.id)),
         next=following and Link(following.event.id, page_of(following.event.id)),

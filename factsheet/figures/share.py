@@ -1,0 +1,124 @@
+"""The sharing image of a sheet: a 1200 × 630 PNG that chat apps and social sites show.
+
+Drawn with the figures' palette and fonts: the status first when it is not "confirmed" (a
+retracted event says so across the top, before anything else), the title, the designation and
+date, and the two bodies and the remnant as discs whose areas follow their masses, each with its
+mass as the sheet prints it. Text only and a few patches on one axes, so it costs little.
+"""
+
+from __future__ import annotations
+
+import io
+import math
+import textwrap
+from typing import NamedTuple
+
+import matplotlib
+from matplotlib.figure import Figure
+from matplotlib.patches import Circle, FancyArrowPatch, Rectangle
+
+from factsheet.figures import style
+
+SIZE_PX = (1200, 630)  # the size social sites and chat apps expect of a sharing card
+DPI = 100
+DISC_Y = 0.22  # the discs' centre line (the card is 1 wide and 0.525 high)
+TITLE_CHARS = 40  # a title longer than this runs onto a second line
+STATUS_SHADE = {"retracted": "#F2D5C4", "candidate": "#F4EDB0"}  # pale tints under dark text
+
+
+class ShareBody(NamedTuple):
+    """One disc of the card: its label, its mass as printed, its mass in M⊙ and palette role."""
+
+    label: str
+    text: str
+    mass: float
+    role: str
+
+
+class ShareCard(NamedTuple):
+    """Everything the card says, as text already written for readers."""
+
+    title: str
+    subtitle: str  # designation and date
+    status: str | None  # the word shown across the top (a candidate, a retraction), or None
+    bodies: tuple[ShareBody, ...]  # the heavier, the lighter, then the remnant if there is one
+    footer: str  # the catalogue's title
+
+
+def _disc(ax, x: float, body: ShareBody, scale: float, label_y: float) -> float:
+    radius = scale * math.sqrt(body.mass)
+    ax.add_patch(Circle((x, DISC_Y), radius, color=style.ROLE[body.role], lw=0))
+    ax.text(
+        x,
+        label_y,
+        f"{body.label}\n{body.text}",
+        ha="center",
+        va="top",
+        fontsize=22,
+        color=style.INK,
+        linespacing=1.3,
+    )
+    return radius
+
+
+def _discs(ax, bodies: tuple[ShareBody, ...]) -> None:
+    """The two bodies, an arrow, the remnant; disc areas follow the masses, the largest disc
+    0.08 in radius, and every name on one line below the largest."""
+    scale = 0.08 / math.sqrt(max(b.mass for b in bodies))
+    label_y = DISC_Y - 0.095
+    xs = (0.14, 0.36, 0.7)
+    radii = [_disc(ax, x, b, scale, label_y) for x, b in zip(xs, bodies, strict=False)]
+    if len(bodies) == 3:
+        start, end = (xs[1] + radii[1] + 0.03, DISC_Y), (xs[2] - radii[2] - 0.03, DISC_Y)
+        arrow = FancyArrowPatch(
+            start, end, arrowstyle="-|>", mutation_scale=30, lw=2.5, color=style.MUTED
+        )
+        ax.add_patch(arrow)
+
+
+def _status(ax, status: str) -> None:
+    """The status word across the top of the card, on a pale band."""
+    shade = STATUS_SHADE.get(status.lower(), style.GRID)
+    ax.add_patch(Rectangle((0, 0.455), 1, 0.07, lw=0, color=shade))
+    ax.text(
+        0.04, 0.49, status.upper(), fontsize=34, fontweight="bold", va="center", color=style.INK
+    )
+
+
+def share_png(card: ShareCard) -> bytes:
+    """The card as PNG bytes, identical for identical input (no software tag, fixed size)."""
+    with matplotlib.rc_context(style.RC):
+        fig = Figure(figsize=(SIZE_PX[0] / DPI, SIZE_PX[1] / DPI), dpi=DPI, facecolor=style.PANEL)
+        ax = fig.add_axes((0, 0, 1, 1))
+        ax.set_axis_off()
+        ax.set_xlim(0, 1)
+        ax.set_ylim(0, SIZE_PX[1] / SIZE_PX[0])
+        top = 0.5
+        if card.status:
+            _status(ax, card.status)
+            top = 0.435
+        title = textwrap.fill(card.title, TITLE_CHARS)
+        ax.text(
+            0.04,
+            top,
+            title,
+            fontsize=30,
+            fontweight="bold",
+            va="top",
+            color=style.INK,
+            linespacing=1.15,
+        )
+        below = top - 0.042 * (title.count("\n") + 1) - 0.012
+        ax.text(0.04, below, card.subtitle, fontsize=22, va="top", color=style.INK)
+        _discs(ax, card.bodies)
+        ax.text(0.04, 0.015, card.footer, fontsize=16, color=style.MUTED, va="bottom")
+        buffer = io.BytesIO()
+        fig.savefig(
+            buffer,
+            format="png",
+            dpi=DPI,
+            facecolor=style.PANEL,
+            metadata={"Software": None},
+            pil_kwargs={"compress_level": 1},  # a third cheaper than the default; ~65 kB
+        )
+    return buffer.getvalue()
