@@ -16,11 +16,12 @@ import numpy as np
 
 from factsheet import figures as fg
 from factsheet import labels
-from factsheet.model import Derived, SiteFigure, Summary
-from factsheet.notation import format_interval, format_median, format_value
+from factsheet.model import Derived, SiteFigure
+from factsheet.notation import format_value
 from factsheet.physics import inspiral
+from factsheet.render import numbers
 from factsheet.render.contexts import display_summary
-from factsheet.render.history import CURRENT_LABEL
+from factsheet.render.history import CURRENT_LABEL, value_text
 from factsheet.render.sound import band_note
 
 ENERGY_KEYS = (
@@ -44,20 +45,20 @@ def _save(path: str, draw: Callable[[], fg.Drawing], caption: str) -> SiteFigure
     return SiteFigure(path, svg, drawing.alt, caption, time.perf_counter() - start)
 
 
-def _item(label: str, s: Summary) -> fg.IntervalItem:
-    return fg.IntervalItem(label, s.median, s.low, s.high, s.unit, s.level, interval_text(s))
+def _item(item: Derived, key: str) -> fg.IntervalItem:
+    s = item.quantities[key]
+    label, text = labels.QUANTITIES[key].short, interval_text(item, key)
+    return fg.IntervalItem(label, s.median, s.low, s.high, s.unit, s.level, text)
 
 
-def interval_text(summary: Summary, energy_units: str = "SI") -> str:
+def interval_text(item: Derived, key: str) -> str:
     """A quantity's interval exactly as the sheet's table prints it."""
-    s = display_summary(summary, energy_units)
-    return format_interval(s.median, s.low, s.high, s.unit)
+    return numbers.quantity_text(item, key)
 
 
-def median_text(summary: Summary, energy_units: str = "SI") -> str:
-    """A quantity's median alone, rounded as the table rounds its interval."""
-    s = display_summary(summary, energy_units)
-    return format_median(s.median, s.low, s.high, s.unit)
+def median_text(item: Derived, key: str) -> str:
+    """A quantity's median alone, as the table prints it, with its unit."""
+    return numbers.median_text(item, key, unit=True)
 
 
 def in_band_note(item: Derived) -> str | None:
@@ -76,7 +77,7 @@ def event_figures(item: Derived) -> list[SiteFigure]:
         _save(
             f"{base}-masses.svg",
             lambda: fg.component_intervals(
-                [_item(labels.QUANTITIES[k].short, q[k]) for k in masses]
+                [_item(item, k) for k in masses]
             ),
             "Masses (source frame) with credible intervals.",
         )
@@ -134,7 +135,7 @@ def share_image(item: Derived) -> SiteFigure:
     roles = {"heavier_mass": "primary", "lighter_mass": "secondary", "remnant_mass": "remnant"}
     keys = [k for k in roles if k in q]
     bodies = tuple(
-        fg.ShareBody(labels.QUANTITIES[k].short, median_text(q[k]), q[k].median, roles[k])
+        fg.ShareBody(labels.QUANTITIES[k].short, median_text(item, k), q[k].median, roles[k])
         for k in keys
     )
     status = SHARE_STATUS.get(event.status)
@@ -164,7 +165,7 @@ def _track(item: Derived, note: str) -> fg.Track:
     tau = inspiral.time_to_merger(mc, freq).to_value(u.s) if len(freq) else np.zeros(0)
     ring = q.get("ringdown_frequency")
     damp = q.get("ringdown_damping_time")
-    texts = {k: median_text(q[k]) for k in TRACK_TEXTS if k in q}
+    texts = {k: median_text(item, k) for k in TRACK_TEXTS if k in q}
     return fg.Track(
         tau,
         freq.value,
@@ -182,7 +183,7 @@ def _comparison(item: Derived, key: str, own: str, others: dict) -> tuple[str, l
     in the unit the sheet shows the quantity in."""
     units, names = item.settings.energy_units, item.reference.comparison_labels()
     s = display_summary(item.quantities[key], units)
-    shown = format_interval(s.median, s.low, s.high, s.unit)
+    shown = interval_text(item, key)
     rows = [fg.ComparisonItem(own, s.median, s.low, s.high, shown, own=True)]
     for k, value in others.items():
         v = float(value.to_value(s.unit))
@@ -227,13 +228,14 @@ def _history_points(item: Derived) -> list[fg.HistoryItem]:
     event = item.event
     steps = [(h.label, h.date.utc.isot[:10], h.estimate) for h in event.history if h.estimate]
     steps.append((CURRENT_LABEL, "", event.estimate))
+    current = numbers.estimate_texts(item)  # the current estimate as its sheet prints it
     points = []
     for label, date, estimate in steps:
         given = estimate.values()
         for path in HISTORY_FIGURE:
             if path in given:
                 v, name = given[path], labels.estimate_value(path, event.frame)
-                shown = format_interval(v.median, v.low, v.high, v.unit.to_string())
+                shown = current[path] if estimate is event.estimate else value_text(v, path)
                 points.append(
                     fg.HistoryItem(label, date, name, v.median, v.low, v.high, v.unit, shown)
                 )

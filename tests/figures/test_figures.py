@@ -220,7 +220,7 @@ def test_comparison_points_on_a_log_axis_with_the_mergers_interval():
     others = sorted(ln.get_xdata()[0] for ln in ax.lines if ln.get_linestyle() == "None")
     assert 3.828e26 in others and 1e40 in others and 2e37 in others
     assert "this merger (3.6 +0.9 −0.6) × 10⁴⁹ W" in d.alt and "Sun 3.8 × 10²⁶ W" in d.alt
-    assert "with its 90 % credible interval" in d.alt
+    assert "with its 90\xa0% credible interval" in d.alt
     names = [t.get_text() for t in ax.texts]
     assert names[0] == "this merger: (3.6 +0.9 −0.6) × 10⁴⁹ W"  # largest first
     assert ax.texts[0].get_fontweight() == "bold"

@@ -49,8 +49,8 @@ def test_heavy_pair_says_only_merger_and_ringdown_are_in_band(demo):
     heavy = derived(demo, "MER34-006")  # its ISCO frequency lies below the 20 Hz band edge
     note = in_band_note(heavy)
     assert note is not None
-    assert median_text(heavy.quantities["isco_frequency"]) in note
-    assert "only the merger and ringdown are in the detectors' band" in note
+    assert median_text(heavy, "isco_frequency") in note
+    assert "Only the merger and the ringdown are in the detectors' band" in note
     track = next(f for f in event_figures(heavy) if f.path.endswith("-track.svg"))
     assert note in track.caption
     assert "only the merger and ringdown are in band" in track.alt
