@@ -38,6 +38,7 @@ from factsheet.model import (
     Settings,
     SiteFigure,
 )
+from factsheet.progress import Progress
 from factsheet.publish import HELD, OutputLock, Staging, check_output
 from factsheet.render import Site, render_site
 from factsheet.render.assets import event_files
@@ -105,10 +106,11 @@ def build(
     if strict and catalogue.warnings:
         raise InputError(problems=list(catalogue.warnings))
     events, internal, embargoed = select_events(catalogue, audience, build_time())
+    shown = Progress(progress)
     try:
         with OutputLock(out):
             made, index, count = _build_locked(
-                events, catalogue.settings, out, audience, force, jobs, progress
+                events, catalogue.settings, out, audience, force, jobs, shown
             )
     except OSError as exc:
         raise BuildError(_os_problem(exc, out)) from exc
@@ -126,7 +128,7 @@ def build(
     )
 
 
-def _build_locked(events, settings, out, audience, force, jobs, progress):
+def _build_locked(events, settings, out, audience, force, jobs, progress: Progress):
     """The part of a build that writes: bundles, pages, the swap; the output's lock is held."""
     cache = Cache(out)
     with Staging(out, force) as staging:
@@ -145,7 +147,9 @@ def _build_locked(events, settings, out, audience, force, jobs, progress):
         def memo(parts: tuple, make) -> dict[str, bytes]:
             return cached_files(cache, content_key("page", *parts), make)
 
-        render_site(bundles, settings, audience, index, site=StagedSite(staging), memo=memo)
+        site = StagedSite(staging, progress)
+        render_site(bundles, settings, audience, index, site=site, memo=memo)
+        progress.step(site.written, site.written, "pages and files written")
         staging.commit()
     cache.prune()
     return made, index, len(bundles)
@@ -160,16 +164,18 @@ def _os_problem(exc: OSError, out: Path) -> str:
 class StagedSite(Site):
     """A :class:`Site` that writes each page straight into the staging folder (flat memory)."""
 
-    def __init__(self, staging: Staging):
+    def __init__(self, staging: Staging, progress: Progress | None = None):
         super().__init__()
-        self.staging = staging
+        self.staging, self.progress, self.written = staging, progress or Progress(), 0
 
     def add(self, path: str, content: str | bytes) -> None:
         self.staging.write(path, content.encode("utf-8") if isinstance(content, str) else content)
+        self.written += 1
+        self.progress.tick(self.written, "pages and files written")
 
 
 def make_bundles(
-    events: list[Event], settings: Settings, cache: Cache, jobs: int, progress: bool
+    events: list[Event], settings: Settings, cache: Cache, jobs: int, progress: Progress
 ) -> tuple[list[EventBundle], list[EventBundle]]:
     """Every event's bundle, from the cache or made afresh; also the freshly made ones."""
     keys = [event_key(e, settings) for e in events]
@@ -190,10 +196,7 @@ def make_bundles(
             continue
         bundles[i] = cache.store(keys[i], result)  # drops the file bytes from memory
         made.append(bundles[i])
-        if progress:
-            print(f"\r  {done}/{len(todo)} events derived and drawn", end="", file=sys.stderr)
-    if progress and todo:
-        print(file=sys.stderr)
+        progress.step(done, len(todo), "events derived and drawn")
     if failures:
         raise BuildError(problems=failures)
     return [b for b in bundles if b is not None], made

@@ -156,7 +156,7 @@ def run_build(args: argparse.Namespace) -> int:
         args.audience,
         args.force,
         jobs=args.jobs,
-        progress=sys.stderr.isatty(),
+        progress=True,  # a line rewritten in place on a terminal, a line every few s in a log
         strict=args.strict,
     )
     _print_skipped(report.skipped)

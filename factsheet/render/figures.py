@@ -76,9 +76,7 @@ def event_figures(item: Derived) -> list[SiteFigure]:
     out.append(
         _save(
             f"{base}-masses.svg",
-            lambda: fg.component_intervals(
-                [_item(item, k) for k in masses]
-            ),
+            lambda: fg.component_intervals([_item(item, k) for k in masses]),
             "Masses (source frame) with credible intervals.",
         )
     )
