@@ -1,4 +1,4 @@
-"""Command line: ``factsheet build``, ``check`` and ``new``.
+"""Command line: ``factsheet build``, ``check``, ``serve``, ``new`` and ``init``.
 
 Problems in the input are printed one per line as ``FILE:LINE: key: message`` and the command
 exits with status 1; a traceback is shown only with ``--debug``.
@@ -120,6 +120,15 @@ def make_parser() -> argparse.ArgumentParser:
     n.add_argument("id", help="designation of the new event (letters, digits, . _ -)")
     n.add_argument("-d", "--dir", type=Path, default=Path("."), help="catalogue folder")
     n.set_defaults(run=run_new)
+
+    i = sub.add_parser(
+        "init",
+        help="start a catalogue of your own in a new folder",
+        description="Write a new catalogue folder that checks and builds as it is: "
+        "catalogue.yaml with every setting commented, an example event and a README.",
+    )
+    i.add_argument("folder", type=Path, help="the new catalogue folder (must not exist yet)")
+    i.set_defaults(run=run_init)
     return parser
 
 
@@ -150,6 +159,8 @@ def _catalogue_arg(parser: argparse.ArgumentParser) -> None:
 def run_build(args: argparse.Namespace) -> int:
     from factsheet.build import build
 
+    if args.catalogue is None:
+        print(DEMO_NOTE, file=sys.stderr)
     report = build(
         args.catalogue or demo_dir(),
         args.out,
@@ -187,6 +198,8 @@ def summary_line(report) -> str:
 def run_serve(args: argparse.Namespace) -> int:
     from factsheet.serve import serve
 
+    if args.catalogue is None:
+        print(DEMO_NOTE, file=sys.stderr)
     serve(args.catalogue or demo_dir(), args.out, args.port, args.audience)
     return 0
 
@@ -215,6 +228,24 @@ def _print_skipped(skipped) -> None:
 def _print_warnings(warnings) -> None:
     for problem in warnings:
         print(f"warning: {printable(str(problem))}", file=sys.stderr)
+
+
+def run_init(args: argparse.Namespace) -> int:
+    from factsheet.load.scaffold import init_catalogue
+
+    for path in init_catalogue(args.folder):
+        print(f"wrote {path}")
+    print(
+        f"next: edit {args.folder}/example-001.yaml, then `factsheet check {args.folder}` and "
+        f"`factsheet build {args.folder} -o site`"
+    )
+    return 0
+
+
+DEMO_NOTE = (
+    "note: no catalogue given, so this is the packaged demo (invented events, a read-only copy "
+    "inside the installed package); `factsheet init my-catalogue` starts one of your own"
+)
 
 
 def run_new(args: argparse.Namespace) -> int:

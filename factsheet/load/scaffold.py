@@ -80,3 +80,99 @@ def write_new_event(event_id: str, folder: Path) -> Path:
         message = f"cannot write the new event file here ({exc.strerror})"
         raise InputError(problems=[Problem(where, None, "", message)]) from None
     return path
+
+
+# -- factsheet init: a new catalogue folder -----------------------------------------------------
+
+SETTINGS_TEMPLATE = """\
+# Settings of this catalogue. Every key is optional: remove the "# " before a key to set it.
+# The values shown are the defaults (or examples); docs/settings.md describes each key.
+title: {title}
+
+# description: |                  # Markdown shown at the top of the index page
+#   What this catalogue is, who keeps it and how to reach them.
+# base_url: https://example.org/sheets/   # where the site is published (feed, link previews)
+# licence: CC BY 4.0              # shown in every page's footer and in the exports
+# citation: |                     # how to cite the catalogue (Markdown), on every sheet
+#   Your group (2034). Title of the catalogue.
+# cosmology: Planck18             # astropy cosmology for redshifts and source-frame masses
+# credible_level: 0.9             # probability held by every quoted interval
+# samples: 4000                   # samples drawn per event from its summary values
+# low_frequency: 20 Hz            # lower edge of the detectors' band
+# arm_length: 4 km                # for the arm-length-change comparison
+# energy_units: SI                # SI (J, W) or cgs (erg, erg/s)
+# neutron_star_radius: 12 km      # assumed for the tidal-disruption estimate
+# low_significance_rate: 1 / yr   # false-alarm rate above which a sheet calls an event marginal
+# large_sky_area: 1000 deg2       # sky area above which a sheet says the region is large
+# mass_bands: {{}}                  # overrides of the packaged mass-band edges
+# comparisons: {{}}                 # overrides or additions to the comparison objects
+"""
+
+EXAMPLE_EVENT = """\
+# An example event to overwrite with your own (the values are invented, plausible ones).
+# Copy this file for each event, or write a blank one with `factsheet new ID`.
+# Values: MEDIAN +PLUS -MINUS UNIT (the bounds of the catalogue's credible interval) or
+# VALUE UNIT for an exact value; docs/input-format.md describes every key.
+id: EXAMPLE-001
+title: An example pair of black holes
+time: "2034-01-15T03:12:45.6"     # merger time, UTC (in quotes)
+status: candidate                 # candidate, confirmed or retracted
+detection:
+  network: [A1, B1]               # your sites' labels
+  snr: 11.8                       # network signal-to-noise ratio
+  false_alarm_rate: 1 / 40 yr
+  sky_area: 900 deg2              # area of the 90 % credible region
+estimate:
+  heavier:
+    mass: 32 +6 -5 Msun
+    spin: 0.1 +0.4 -0.4           # aligned component, -1..1
+  lighter:
+    mass: 24 +5 -6 Msun
+    spin: 0.0 +0.5 -0.5
+  distance: 1200 +500 -450 Mpc    # luminosity distance
+summary: |
+  A few plain sentences for the page: what was seen, and why it matters.
+caveats: []                       # Markdown notes from the editors
+"""
+
+README_TEMPLATE = """\
+# {title}
+
+A factsheet catalogue: `catalogue.yaml` holds the settings, every other `*.yaml` file one event.
+
+Next: overwrite `example-001.yaml` with your first event (or add one with
+`factsheet new ID -d {folder}`), then `factsheet check {folder}` to validate,
+`factsheet build {folder} -o site` to build the site into `site/`, and
+`factsheet serve {folder}` to preview it while you edit.
+"""
+
+
+def init_catalogue(folder: Path) -> list[Path]:
+    """A new catalogue folder that checks and builds as it is: settings with every key
+    commented, one example event to overwrite and a README saying what to do next. Refuses a
+    folder that exists and is not empty (nothing is ever overwritten)."""
+    if folder.exists() and (not folder.is_dir() or any(folder.iterdir())):
+        what = "is a file" if not folder.is_dir() else "exists and is not empty"
+        message = f"{what}; give a new folder (nothing is overwritten)"
+        raise InputError(problems=[Problem(folder, None, "", message)])
+    title = folder.name.replace("-", " ").replace("_", " ").strip() or "My catalogue"
+    files = {
+        "catalogue.yaml": SETTINGS_TEMPLATE.format(title=_yaml_text(title.capitalize())),
+        "example-001.yaml": EXAMPLE_EVENT,
+        "README.md": README_TEMPLATE.format(title=title.capitalize(), folder=folder),
+    }
+    try:
+        folder.mkdir(parents=True, exist_ok=True)
+        for name, text in files.items():
+            with (folder / name).open("x", encoding="utf-8") as handle:
+                handle.write(text)
+    except OSError as exc:
+        where = exc.filename or folder
+        message = f"cannot write the new catalogue here ({exc.strerror})"
+        raise InputError(problems=[Problem(where, None, "", message)]) from None
+    return [folder / name for name in files]
+
+
+def _yaml_text(text: str) -> str:
+    """A title as a double-quoted YAML string."""
+    return '"' + text.replace("\\\\", "\\\\\\\\").replace('"', '\\\\"') + '"'
