@@ -9,6 +9,8 @@
 'BBH'
 >>> result.summary("remnant_mass").unit
 'solMass'
+>>> result.summary("remnant_mass").quantity.unit
+Unit("solMass")
 
 ``result.samples`` holds every per-sample Quantity, ``result.quantities`` the summaries (median,
 credible bounds and level, fit spread, methods) and ``result.caveats`` the caveats. The keys are
@@ -18,6 +20,7 @@ those of the JSON export (docs/json-export.md); docs/api.md has more examples.
 from __future__ import annotations
 
 import tempfile
+from dataclasses import replace
 from pathlib import Path
 from typing import Any
 
@@ -27,6 +30,9 @@ from factsheet.derive import derive_event
 from factsheet.errors import InputError
 from factsheet.load import load_event, load_settings
 from factsheet.model import Derived, Settings
+
+#: How a problem of an event given as a mapping names where it is (the key path follows).
+MAPPING = "<event mapping>"
 
 
 def derive(
@@ -47,6 +53,8 @@ def derive(
             path = Path(folder) / "event.yaml"
             path.write_text(yaml.safe_dump(event, sort_keys=False), encoding="utf-8")
             loaded = load_event(path, path.parent, settings, problems)
+        # the temporary file is gone: name the mapping and the key path, not its lines
+        problems = [replace(p, file=MAPPING, line=None) for p in problems]
     else:
         path = Path(event)
         loaded = load_event(path, path.parent, settings, problems)

@@ -364,6 +364,16 @@ class Summary:
     fit_spread: float | None = None
     methods: tuple[str, ...] = ()
 
+    @property
+    def quantity(self) -> u.Quantity:
+        """The median as an astropy Quantity (``88.0 solMass``)."""
+        return self.median * u.Unit(self.unit)
+
+    @property
+    def bounds(self) -> u.Quantity:
+        """The bounds of the credible interval as a Quantity of two values (low, high)."""
+        return [self.low, self.high] * u.Unit(self.unit)
+
     def as_dict(self) -> dict:
         data: dict[str, Any] = {
             "median": self.median,

@@ -168,3 +168,12 @@ def test_json_page_lists_every_quantity_in_order():
     assert listed == list(JSON_QUANTITIES)
     columns = ", ".join(f"`{name}`" for name in CONTRACT_QUANTITIES)
     assert columns in text
+
+
+def test_the_api_module_examples_run():
+    import doctest
+
+    import factsheet.api
+
+    result = doctest.testmod(factsheet.api)
+    assert result.attempted >= 4 and result.failed == 0
