@@ -7,11 +7,12 @@ Each rule is a small function of the event and what derive found; it returns a
 from __future__ import annotations
 
 import astropy.units as u
+import numpy as np
 
 from factsheet import labels
 from factsheet.derive.sampling import BODY_SPINS, drawn_from_summary, used_paths
-from factsheet.model import Caveat, Event
-from factsheet.notation import how_often
+from factsheet.model import Caveat, Event, Summary
+from factsheet.notation import format_given_median, format_median, how_often
 
 
 def status_caveat(event: Event, far_threshold: u.Quantity | None = None) -> Caveat | None:
@@ -155,3 +156,35 @@ def significance_caveats(
             )
         )
     return notes
+
+
+#: A shift of the drawn median beyond this share of the interval's half-width is worth saying.
+RELABEL_MATTERS = 0.02
+
+
+def relabel_caveat(given: dict[str, Summary], drawn: dict[str, np.ndarray]) -> Caveat | None:
+    """When relabelling the draws heavier-first moved a mass's median visibly away from the
+    given one (the two intervals overlap), say that the derived numbers rest on the relabelled
+    draws while the table shows the masses as given."""
+    moved = []
+    for key in ("heavier_mass", "lighter_mass", "heavier_mass_detector", "lighter_mass_detector"):
+        if key not in given or key not in drawn:
+            continue
+        g = given[key]
+        half = (g.high - g.low) / 2
+        median = float(np.median(drawn[key]))
+        if half > 0 and abs(median - g.median) > RELABEL_MATTERS * half:
+            moved.append(
+                f"{labels.QUANTITIES[key].short} {format_median(median, g.low, g.high)} "
+                f"instead of {format_given_median(g.median, g.low, g.high)}"
+            )
+    if not moved:
+        return None
+    return Caveat(
+        "relabelled-draws",
+        "info",
+        "The two masses' intervals overlap, so in some draws the lighter body came out heavier "
+        "and the two were swapped; the derived numbers rest on these draws, whose medians are "
+        f"{_listed(moved).replace(' or ', ' and ')} (the table shows the masses as given).",
+        concerns=(),
+    )

@@ -57,8 +57,12 @@ def derive_event(event: Event, settings: Settings, reference: Reference | None =
     compared = comparison_values(
         medians.get("energy_radiated"), medians.get("peak_luminosity"), reference
     )
+    drawn = {k: s[k].value for k in ("heavier_mass", "lighter_mass") if k in s}
+    drawn |= {f"{k}_detector": s[f"{k}_detector"].value for k in ("heavier_mass", "lighter_mass")}
+    relabel = cv.relabel_caveat(given_summaries(event, level), drawn)
     notes = [
         *cv.input_caveats(event, settings.cosmology, settings.low_significance_rate),
+        *([relabel] if relabel else []),
         *([gate_note] if gate_note else []),
         *computed.caveats,
         *band_notes,

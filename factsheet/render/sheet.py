@@ -45,6 +45,7 @@ ROUTINE = (
     "spin-assumed-zero",
     "spins-from-effective-spin",
     "redshift-from-cosmology",
+    "relabelled-draws",
 )
 WINDOW_NOTES = ("counterpart-windows-planning-aid", "windows-beyond-calendar")
 REMNANT_NOTES = ("neutron-star-remnant", "neutron-star-disrupted", "neutron-star-plunges")

@@ -353,3 +353,22 @@ def test_windows_past_the_year_9999_are_left_out_with_a_caveat(tmp_path):
     assert r.windows == ()
     assert "windows-beyond-calendar" in codes(r)
     assert "9999" in r.no_window_reason
+
+
+def test_relabelled_draws_are_said_when_they_move_a_median():
+    """Overlapping mass intervals: relabelling the draws heavier-first moves the medians the
+    derived numbers rest on; the sheet says so (and shows the masses as given)."""
+    import yaml
+    from helpers import VALID_EVENT
+
+    from factsheet.api import derive
+
+    close = yaml.safe_load(VALID_EVENT)
+    close["estimate"]["heavier"]["mass"] = "30 +5 -4 Msun"
+    close["estimate"]["lighter"]["mass"] = "29 +4 -5 Msun"
+    item = derive(close)
+    (note,) = [c for c in item.caveats if c.code == "relabelled-draws"]
+    assert "m₁" in note.text and "instead of 30" in note.text
+    assert item.quantities["heavier_mass"].median == 30  # the table's value is the given one
+    apart = derive(yaml.safe_load(VALID_EVENT))  # 36 +5 -4 against 29 +4 -5: barely overlap
+    assert not [c for c in apart.caveats if c.code == "relabelled-draws"]
