@@ -177,3 +177,12 @@ def test_the_api_module_examples_run():
 
     result = doctest.testmod(factsheet.api)
     assert result.attempted >= 4 and result.failed == 0
+
+
+def test_readme_python_example_runs_on_a_new_catalogue(tmp_path, monkeypatch):
+    from factsheet.load.scaffold import init_catalogue
+
+    (code,) = blocks(ROOT / "README.md", "python")
+    monkeypatch.chdir(tmp_path)
+    init_catalogue(Path("my-catalogue"))
+    exec(compile(code, "README.md", "exec"), {})  # the README's own example
