@@ -13,15 +13,10 @@ from pathlib import Path
 
 import pytest
 
-from factsheet.build import build
-from factsheet.resources import demo_dir
-
 
 @pytest.fixture(scope="module")
-def site(tmp_path_factory) -> Path:
-    out = tmp_path_factory.mktemp("one-number") / "site"
-    build(demo_dir(), out)
-    return out
+def site(demo_site) -> Path:
+    return demo_site  # the demo, built once for the session (conftest.py)
 
 
 class Sheet(HTMLParser):

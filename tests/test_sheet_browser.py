@@ -14,9 +14,6 @@ from pathlib import Path
 
 import pytest
 
-from factsheet.build import build
-from factsheet.resources import demo_dir
-
 pytestmark = pytest.mark.browser
 
 CHROMIUM = Path("/usr/bin/chromium")
@@ -34,10 +31,8 @@ BOXES_BEFORE_NUMBERS = """() => {
 
 
 @pytest.fixture(scope="module")
-def site(tmp_path_factory) -> Path:
-    out = tmp_path_factory.mktemp("sheets") / "site"
-    build(demo_dir(), out)
-    return out
+def site(demo_site) -> Path:
+    return demo_site  # the demo, built once for the session (conftest.py)
 
 
 @pytest.fixture(scope="module")

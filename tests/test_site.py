@@ -99,13 +99,6 @@ def alt_texts(page: Path) -> dict[str, str]:
     return parser.alt
 
 
-@pytest.fixture(scope="module")
-def demo_site(tmp_path_factory) -> Path:
-    out = tmp_path_factory.mktemp("demo") / "site"
-    build(demo_dir(), out)
-    return out
-
-
 def test_every_public_event_has_a_page_and_json(demo_site):
     events = [
         e

@@ -19,7 +19,6 @@ import numpy as np
 import pytest
 from helpers import PLANE_EDGES as EDGES
 
-from factsheet.build import build
 from factsheet.figures import (
     PlaneItem,
     ShareBody,
@@ -33,19 +32,11 @@ from factsheet.figures import (
     to_svg,
     window_timeline,
 )
-from factsheet.resources import demo_dir
 
 SVG = "{http://www.w3.org/2000/svg}"
 PHONE_COLUMN_PX = 358  # the content column of a 390 px wide phone (the page's CSS)
 PRINT_WIDTH_MM = 80  # the narrowest a figure is printed on A4 (the page's print CSS)
 PT_MM = 25.4 / 72
-
-
-@pytest.fixture(scope="module")
-def demo_site(tmp_path_factory) -> Path:
-    out = tmp_path_factory.mktemp("demo") / "site"
-    build(demo_dir(), out)
-    return out
 
 
 def svg_files(site: Path) -> list[Path]:
