@@ -24,7 +24,7 @@ import factsheet
 
 PACKAGE = Path(factsheet.__file__).resolve().parent
 SHARED = {"model", "labels", "notation", "errors", "resources"}
-TOP = {"build", "cache", "publish", "serve", "cli", "api"}
+TOP = {"build", "cache", "progress", "publish", "serve", "cli", "api"}
 #: The parts each part may import (besides itself).
 ALLOWED = {
     "physics": set(),
