@@ -54,6 +54,20 @@ def test_test_mass_limit_energy_radiated(fit):
     assert fit(1 * M, 1e-3 * M, 0, 0) / eta == pytest.approx(1 - np.sqrt(8 / 9), rel=0.015)
 
 
+@pytest.mark.parametrize(("chi", "low", "high"), [(0.95, -0.25, -0.12), (-0.9, -0.35, -0.2)])
+def test_jf17_misses_the_spinning_test_particle_limit(chi, low, high):
+    # A test particle plunging from the ISCO of a Kerr hole radiates 1 - E_isco(chi) per unit
+    # mass (Bardeen, Press & Teukolsky 1972). JF17's fit was calibrated down to q = 1/18 only
+    # and misses that limit with a spinning heavier body (here -12 to -35 % at q = 1e-4), so its
+    # registry entry limits the mass ratio and the calibration caveat fires below 1/18.
+    eta = 1e-4 / (1 + 1e-4) ** 2
+    exact = 1 - float(isco_energy(np.array([chi]))[0])
+    ratio = float(remnant.radiated_fraction_jf17(1 * M, 1e-4 * M, chi, 0.0)) / eta / exact
+    assert low < ratio - 1 < high
+    limits = METHODS[remnant.JF17_ERAD].limits
+    assert limits["mass_ratio"][0] == pytest.approx(1 / 18)
+
+
 def test_bmr12_spinning_test_particle_limit():
     # BMR12 is built to reduce to nu (1 - E_isco(a)) as nu -> 0 (docs/methods.md §4.1; BPT 1972).
     eta6 = 1e-6 / (1 + 1e-6) ** 2
@@ -130,5 +144,6 @@ def test_method_ids_exported():
         assert {"energy_radiated", "radiated_mass", "remnant_mass"} <= set(
             METHODS[method_id].quantities
         )
-    for method_id in (remnant.JF17_SPIN, remnant.HBR16_SPIN, remnant.JF17_ERAD):
+    for method_id in (remnant.JF17_SPIN, remnant.HBR16_SPIN):
         assert set(METHODS[method_id].limits) == {"heavier_spin", "lighter_spin"}
+    assert set(METHODS[remnant.JF17_ERAD].limits) == {"heavier_spin", "lighter_spin", "mass_ratio"}
