@@ -19,6 +19,7 @@ from factsheet.notation import (
     how_often,
     percent,
 )
+from factsheet.physics.comparisons import emission_time
 from factsheet.render.numbers import median_text
 
 #: What a body in each mass band is called; ``None``: an object neither band can name.
@@ -111,6 +112,9 @@ def _remnant(item: Derived, conditional: bool = False) -> list[str]:
     if compared.sun_years is not None and compared.luminosity:
         sun = compared.sun_years.to_value(u.yr)
         line = f"The Sun would need about {format_value(sun, '', 1)} years to emit that energy"
+        quasar = _quasar_time(item)
+        if quasar:
+            line += f", and {quasar}"
         galaxy = compared.luminosity.get("milky_way")
         if galaxy:
             line += (
@@ -124,6 +128,32 @@ def _remnant(item: Derived, conditional: bool = False) -> list[str]:
             "windows below say when to look."
         )
     return text
+
+
+#: Units for a duration in words, largest first (a year of 365.25 days).
+DURATIONS = (("year", 365.25 * 86400), ("day", 86400), ("hour", 3600), ("minute", 60))
+
+
+def duration_words(seconds: float) -> str:
+    """A duration in the largest unit that keeps it at one or more: "about 3 days"."""
+    for unit, size in DURATIONS:
+        if seconds >= size:
+            count = format_value(seconds / size, "", 1).removesuffix(".0")
+            return f"about {count} {unit}{'' if count == '1' else 's'}"
+    count = format_value(seconds, "", 1)
+    return f"about {count} second{'' if count == '1' else 's'}"
+
+
+def _quasar_time(item: Derived) -> str:
+    """How long one of the most luminous quasars (the packaged comparison object) would shine
+    to emit the merger's energy, in words; "" without the energy or the object."""
+    quasar = item.reference.luminosities().get("luminous_quasar")
+    energy = item.quantities.get("energy_radiated")
+    if quasar is None or energy is None:
+        return ""
+    shine = emission_time(energy.quantity, quasar).to_value(u.s)
+    name = item.reference.comparison_labels().get("luminous_quasar", "a luminous quasar")
+    return f"{name} {duration_words(shine)}"
 
 
 def _listed(words: list[str]) -> str:

@@ -141,3 +141,20 @@ def _audio():
     from factsheet.model import Audio
 
     return Audio("events/TEST-1.wav", "A sound.", 1.0)
+
+
+def test_the_headline_says_how_long_a_luminous_quasar_would_shine():
+    import astropy.constants as const
+
+    item = derive(event())
+    energy = item.quantities["energy_radiated"].quantity
+    # the packaged object: 4.3e14 L_sun (Wu et al. 2015, Nature 518, 512); IAU 2015 B3 L_sun
+    days = (energy / (4.3e14 * const.L_sun)).to_value(u.day)
+    text = " ".join(prose.headline(item))
+    assert f"one of the most luminous quasars known about {round(days, -1):.0f} days" in text
+
+
+def test_durations_in_words():
+    assert prose.duration_words(3 * 86400) == "about 3 days"
+    assert prose.duration_words(2.2e9) == "about 70 years"
+    assert prose.duration_words(1.0) == "about 1 second"
