@@ -37,6 +37,7 @@ from factsheet.model import (
     EventBundle,
     FigureInfo,
     Reference,
+    SecondGeneration,
     Settings,
     Summary,
 )
@@ -239,6 +240,7 @@ def bundle_to_json(bundle: EventBundle) -> dict[str, Any]:
     return {
         "quantities": {k: asdict(s) for k, s in d.quantities.items()},
         "caveats": [asdict(c) for c in d.caveats],
+        "second_generation": [asdict(g) for g in d.second_generation],
         "source_class": d.source_class,
         "class_probabilities": dict(d.class_probabilities),
         "mass_bands": {k: dict(v) for k, v in d.mass_bands.items()},
@@ -293,6 +295,7 @@ def bundle_from_json(
             None if sun_years is None else float(sun_years) * u.yr,
         ),
         other_methods=tuple(data["other_methods"]),
+        second_generation=tuple(SecondGeneration.from_fields(g) for g in data["second_generation"]),
     )
     figures = tuple(FigureInfo(*map(str, f)) for f in data["figures"])
     return EventBundle(derived, figures, Audio(**data["audio"]), {}, data["figure_seconds"])

@@ -422,6 +422,46 @@ class Comparisons:
 
 
 @dataclass(frozen=True)
+class SecondGeneration:
+    """A body compared with the remnants of first-generation mergers (a reasoning aid):
+    their mass, spin magnitude and spin component along a new orbit, and the shares of the
+    body's mass and (when given) spin samples inside those ranges."""
+
+    subject: str  # heavier or lighter
+    mass: Summary
+    spin: Summary
+    spin_along: Summary
+    mass_inside: float
+    spin_inside: float | None
+
+    def as_dict(self) -> dict[str, Any]:
+        return {
+            "subject": self.subject,
+            "remnant_mass": self.mass.as_dict(),
+            "remnant_spin": self.spin.as_dict(),
+            "remnant_spin_along_orbit": self.spin_along.as_dict(),
+            "mass_inside": self.mass_inside,
+            "spin_inside": self.spin_inside,
+        }
+
+    @classmethod
+    def from_fields(cls, data: dict[str, Any]) -> SecondGeneration:
+        """The record from ``dataclasses.asdict`` of one (the build cache's form)."""
+
+        def summary(d: dict[str, Any]) -> Summary:
+            return Summary(**{**d, "methods": tuple(d["methods"])})
+
+        return cls(
+            str(data["subject"]),
+            summary(data["mass"]),
+            summary(data["spin"]),
+            summary(data["spin_along"]),
+            float(data["mass_inside"]),
+            None if data["spin_inside"] is None else float(data["spin_inside"]),
+        )
+
+
+@dataclass(frozen=True)
 class Derived:
     """Everything derived for one event: summaries, classes, bands, windows and caveats.
 
@@ -443,6 +483,7 @@ class Derived:
     no_window_reason: str = ""
     comparisons: Comparisons = field(default_factory=Comparisons)
     other_methods: tuple[str, ...] = ()  # methods behind the class, bands, windows, comparisons
+    second_generation: tuple[SecondGeneration, ...] = ()  # bodies in or above the gap
     samples: Mapping[str, u.Quantity] = field(default_factory=dict, compare=False, repr=False)
 
     @property

@@ -22,6 +22,8 @@ from factsheet.derive.sampling import (
     fill_missing,
     used_paths,
 )
+from factsheet.derive.second_generation import METHOD as second_generation_method
+from factsheet.derive.second_generation import second_generation
 from factsheet.derive.summaries import summarise
 from factsheet.derive.windows import comparison_values, methods_used, windows
 from factsheet.load.reference import reference_for
@@ -49,6 +51,9 @@ def derive_event(event: Event, settings: Settings, reference: Reference | None =
         )  # fmt: skip
     quantities["lookback_time"] = lookback(quantities["redshift"], settings.cosmology)
     bands, intermediate, band_notes = mass_bands(s, reference)
+    earlier = second_generation(
+        s, bands, reference, level, event.seed(), spins_given=_spins_given(event)
+    )
     z = float(np.median(s["redshift"].value))
     found, no_window, window_notes = windows(
         event, z, c, s.get("kick_velocity"), np.median(s["total_mass"]), reference, level
@@ -83,7 +88,9 @@ def derive_event(event: Event, settings: Settings, reference: Reference | None =
         windows=found,
         no_window_reason=no_window,
         comparisons=compared,
-        other_methods=methods_used(c, found, compared),
+        other_methods=methods_used(c, found, compared)
+        + ((second_generation_method,) if earlier else ()),
+        second_generation=earlier,
         samples=s,
     )
 
@@ -99,6 +106,12 @@ def lookback(redshift: Summary, cosmology_name: str) -> Summary:
         redshift.level,
         methods=redshift.methods,
     )
+
+
+def _spins_given(event: Event) -> frozenset[str]:
+    """The bodies whose spin the input gives (in the estimate or the samples file)."""
+    given = used_paths(event)
+    return frozenset(body for body in ("heavier", "lighter") if f"{body}.spin" in given)
 
 
 def input_samples(event: Event, settings: Settings) -> dict[str, np.ndarray]:

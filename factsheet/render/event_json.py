@@ -54,7 +54,14 @@ def event_json(item: Derived) -> dict[str, Any]:
         "intermediate_mass": dict(item.intermediate_mass),
         "counterpart_windows": [window_json(w) for w in item.windows],
         "caveats": [c.as_dict() for c in item.caveats],
-    }
+    } | _second_generation(item)
+
+
+def _second_generation(item: Derived) -> dict[str, Any]:
+    """The comparison with first-generation remnants, for bodies in or above the gap."""
+    if not item.second_generation:
+        return {}
+    return {"second_generation": [g.as_dict() for g in item.second_generation]}
 
 
 def detection_json(found: Detection) -> dict[str, Any]:

@@ -22,6 +22,7 @@ from dataclasses import dataclass
 
 from factsheet import __version__, labels
 from factsheet.derive.event import measured_names
+from factsheet.derive.second_generation import MIN_MASS
 from factsheet.model import Audio, Caveat, Derived, Edge, Event, FigureInfo, Summary
 from factsheet.notation import (
     format_like_interval,
@@ -132,6 +133,7 @@ class EventPage:
     groups: tuple[Group, ...]
     bands: BandTable | None
     made: tuple[str, ...]  # the "how these numbers were made" paragraph
+    earlier: tuple[str, ...]  # could a body come from an earlier merger (sentences), or ()
     windows: tuple[WindowRow, ...]
     window_text: tuple[str, ...]
     window_figures: tuple[FigureInfo, ...]
@@ -279,6 +281,47 @@ def made(item: Derived, placed: dict[str, list[Caveat]]) -> tuple[str, ...]:
     return tuple(text)
 
 
+def earlier_merger(item: Derived) -> tuple[str, ...]:
+    """For a body in or above the pair-instability gap: what a first-generation merger would
+    leave, and how much of the body's mass and spin lies inside that, in words."""
+    if not item.second_generation or item.event.status == "retracted":
+        return ()
+    g = item.second_generation[0]
+    edge = item.reference.mass_bands.quantities()["pair_instability_lower"].to_value("solMass")
+    mass = f"{format_value(g.mass.low, '', 2)}–{format_value(g.mass.high, 'solMass', 2)}"
+    spin = f"{format_value(g.spin.low, '', 2)}–{format_value(g.spin.high, '', 2)}"
+    text = [
+        f"Stars are not expected to leave black holes in the pair-instability gap, but a merger "
+        f"can. A merger of two black holes below the gap (each of {MIN_MASS:g}–{edge:g} solar "
+        f"masses, with small spins in random directions) leaves a remnant of {mass} spinning "
+        f"at {spin} ({labels.percent_level(g.mass.level)} ranges, from the fits used above)."
+    ]
+    for found in item.second_generation:
+        body = f"The {found.subject} body's mass"
+        line = f"{body} lies in that range for {_share(found.mass_inside)} of its samples"
+        if found.spin_inside is not None:
+            along = (
+                f"{format_value(found.spin_along.low, '', 2)} to "
+                f"{format_value(found.spin_along.high, '', 2)}"
+            )
+            line += (
+                f"; its spin along the orbit lies in the range such a remnant would show "
+                f"({along}, its direction random) for {_share(found.spin_inside)}"
+            )
+        else:
+            line += "; its spin was not given, so it cannot be compared"
+        text.append(line + ".")
+    text.append(
+        "This is a reasoning aid, not a verdict: the first-generation masses and spins are "
+        "assumptions, and a body's mass and spin can fit this picture without coming from it."
+    )
+    return tuple(text)
+
+
+def _share(fraction: float) -> str:
+    return "<1\u00a0%" if 0 < fraction < 0.005 else f"{round(100 * fraction)}\u00a0%"
+
+
 def comparison_rows(item: Derived) -> tuple[ComparisonRow, ...]:
     """Energy and luminosity against the comparison objects, largest ratio first."""
     names, rows = item.reference.comparison_labels(), []
@@ -333,6 +376,7 @@ def event_page(
         groups=groups(item, notes, placed, shown),
         bands=band_table(item, notes),
         made=made(item, placed),
+        earlier=earlier_merger(item),
         windows=window_rows(item),
         window_text=tuple(c.text for c in placed["windows"]),
         window_figures=tuple(f for f in shown if _figure_group(f) == "windows"),
