@@ -97,9 +97,10 @@ def remnant_quantities(s: dict[str, u.Quantity], out: Computed) -> None:
         "kick_velocity", kick.kick_velocity(m1, m2, c1, c2).to(u.km / u.s), (kick.METHOD,), None
     )
     remnant_detector = (total - radiated) * (1 + s["redshift"].value)
-    f_ring, tau_ring = ringdown.qnm_220(remnant_detector, np.abs(spin))
+    f_ring, tau_ring = ringdown.qnm_220(remnant_detector, spin)  # signed: picks the branch
     out.put("ringdown_frequency", f_ring.to(u.Hz), (ringdown.METHOD,), DETECTOR)
     out.put("ringdown_damping_time", tau_ring.to(u.s), (ringdown.METHOD,), DETECTOR)
+    _counter_rotating_caveat(spin, out)
     _calibration_caveats(s, spin, out)
 
 
@@ -135,6 +136,24 @@ def inspiral_quantities(
 #: Share of samples outside a fit's calibration below which no caveat is shown: a few per cent
 #: of extrapolated samples barely move a median or a 90 % bound (common practice, not a rule).
 MATTERS = 0.05
+
+
+def _counter_rotating_caveat(spin: np.ndarray, out: Computed) -> None:
+    """Say when many samples have the remnant spin against the orbit (docs/methods.md §7.3)."""
+    against = float(np.mean(spin < 0)) if np.size(spin) else 0.0
+    if against < MATTERS:
+        return
+    out.caveats.append(
+        Caveat(
+            "counter-rotating-ringdown",
+            "notice",
+            f"The remnant spins against the orbit in {against:.0%} of the samples. For those the "
+            "ringdown given is the counter-rotating mode of the black hole, the one expected to "
+            "dominate then: lower in frequency and slightly faster damped than the co-rotating "
+            "mode of a hole of the same spin turning with the orbit.",
+            concerns=("remnant_spin", "ringdown_frequency", "ringdown_damping_time"),
+        )
+    )
 
 
 def _calibration_caveats(s: dict[str, u.Quantity], spin: np.ndarray, out: Computed) -> None:

@@ -1,10 +1,13 @@
 """Kerr quasinormal modes by Leaver's continued fractions (Leaver 1985, Proc. R. Soc. A 402, 285).
 
-Units 2M = 1, a = j/2, spin weight s = -2, time dependence exp(-i omega t); m > 0 is the
-co-rotating mode. The angular (spin-weighted spheroidal) and radial three-term recurrences are
-solved together for the fundamental mode (no inversion needed for n = 0, l = |m|). Used once, by
-:mod:`factsheet.physics._make_qnm_table`, to tabulate the 220 mode, and by a test that re-solves a
-few table points. Plain Python complex arithmetic: the loops run over recurrence terms, not samples.
+Units 2M = 1, a = j/2 >= 0, spin weight s = -2, time dependence exp(-i omega t). With Re omega > 0,
+m > 0 is the co-rotating mode (its pattern turns with the hole) and m < 0 the counter-rotating one;
+the mirror solutions (m -> -m, omega -> -conj(omega)) carry no new frequencies. The angular
+(spin-weighted spheroidal) and radial three-term recurrences are solved together for the
+fundamental mode (no inversion needed for n = 0, l = |m|). Used once, by
+``tools/make_qnm_table.py``, to tabulate both l = |m| = 2, n = 0 branches, and by tests that
+re-solve table points. Plain Python complex arithmetic: the loops run over recurrence terms, not
+samples.
 """
 
 from __future__ import annotations
@@ -100,10 +103,16 @@ def solve_mode(
     return w / 2, state["sep"]
 
 
-def mode_220(spins: list[float]) -> list[complex]:
-    """M omega of the Kerr 220 mode at increasing spins from 0, by continuation (Leaver 1985)."""
+def mode_220(spins: list[float], counter_rotating: bool = False) -> list[complex]:
+    """M omega of the Kerr l = 2, n = 0 mode at increasing spins from 0, by continuation.
+
+    Leaver 1985 (Proc. R. Soc. A 402, 285). ``counter_rotating`` selects the branch whose pattern
+    turns against the hole's spin (m = -2 with Re omega > 0): the dominant mode of a remnant that
+    spins against the orbit. Both branches start from the Schwarzschild value at j = 0.
+    """
+    m = -2 if counter_rotating else 2
     guess, sep, out = 0.3736717 - 0.0889623j, 4.0 + 0j, []
     for spin in spins:
-        guess, sep = solve_mode(spin, guess, sep)
+        guess, sep = solve_mode(spin, guess, sep, m=m)
         out.append(guess)
     return out

@@ -1,7 +1,11 @@
-"""Ringdown of the remnant: the Kerr l = m = 2, n = 0 quasinormal mode.
+"""Ringdown of the remnant: the dominant Kerr l = |m| = 2, n = 0 quasinormal mode.
 
-Preferred: exact values from Leaver's continued fractions (Leaver 1985), tabulated once in
-:mod:`._qnm_table` and interpolated. Cross-check and fallback: the Berti, Cardoso & Will 2006 fit.
+The remnant spin is signed along the orbital angular momentum. Spinning with the orbit (j >= 0)
+the dominant mode is the co-rotating l = m = 2 one; spinning against it (j < 0) the orbit's
+m = 2 pattern turns against the hole, so the dominant mode is the counter-rotating one of a hole
+of spin |j| (lower frequency, slightly faster damping). Both branches are exact values from
+Leaver's continued fractions (Leaver 1985), tabulated once in :mod:`._qnm_table` and
+interpolated. Cross-check: the Berti, Cardoso & Will 2006 fit of the co-rotating branch.
 """
 
 from __future__ import annotations
@@ -18,16 +22,19 @@ from .registry import Method, register
 LEAVER = register(
     Method(
         id="leaver-1985-kerr-qnm-220",
-        title="Kerr quasinormal mode (2,2,0), exact, Leaver continued fractions",
+        title="Kerr quasinormal mode ℓ = 2, n = 0, co- or counter-rotating, exact, Leaver "
+        "continued fractions",
         citation="Leaver E. W., 1985, Proc. R. Soc. Lond. A 402, 285",
-        formula="M ω solved from Leaver's angular and radial three-term recurrences (s = −2), "
-        "tabulated once on j = 1 − u² (u uniform) and interpolated; f = Re(ω)/(2π), "
-        "τ = 1/|Im(ω)|, ω scaled by G M_{f}/c³",
-        validity="remnant spin 0 to 0.9999 (table range); a negative aligned spin is used as |j|",
+        formula="M ω solved from Leaver's angular and radial three-term recurrences (s = −2) for "
+        "both branches, tabulated once on |χ_{f}| = 1 − u² (u uniform) and interpolated: the "
+        "co-rotating mode (m = 2) when the remnant spins with the orbit (χ_{f} ≥ 0), the "
+        "counter-rotating mode (m = −2) of a hole of spin |χ_{f}| when it spins against it "
+        "(χ_{f} < 0); f = Re(ω)/(2π), τ = 1/|Im(ω)|, ω scaled by G M_{f}/c³",
+        validity="remnant spin −0.9999 to 0.9999 (table range), both signs",
         accuracy="interpolation better than 10^{−6} (relative); exact for an isolated Kerr "
         "black hole",
         quantities=("ringdown_frequency", "ringdown_damping_time"),
-        limits={"remnant_spin": (0.0, 0.9999)},
+        limits={"remnant_spin": (-0.9999, 0.9999)},
     )
 )
 BCW06 = register(
@@ -54,35 +61,50 @@ def _mass_time(remnant_mass) -> np.ndarray:
     return m * (GM_sun / c**3).to_value(u.s)
 
 
-def _spin(remnant_spin) -> np.ndarray:
-    return np.abs(dimensionless(remnant_spin, "remnant_spin"))
+def _table_mode(j: np.ndarray) -> np.ndarray:
+    """Interpolated M omega at signed spins j: co-rotating for j >= 0, counter-rotating below."""
+    size = np.abs(j)
+    inside = (size <= 1 - _qnm_table.U_LAST**2) & np.isfinite(j)
+    uu = np.where(inside, np.sqrt(np.clip(1 - size, 0, None)), 1.0)
+    grid = (_qnm_table.U_FIRST, _qnm_table.U_LAST, uu)
+    counter = j < 0
+    w_re = np.where(
+        counter,
+        interpolate_uniform(_qnm_table.COUNTER_REAL, *grid),
+        interpolate_uniform(_qnm_table.REAL, *grid),
+    )
+    w_im = np.where(
+        counter,
+        interpolate_uniform(_qnm_table.COUNTER_IMAG, *grid),
+        interpolate_uniform(_qnm_table.IMAG, *grid),
+    )
+    return np.where(inside, w_re + 1j * w_im, complex(np.nan, np.nan))
 
 
 def qnm_220(remnant_mass, remnant_spin) -> tuple[u.Quantity, u.Quantity]:
-    """Kerr 220 mode (frequency [Hz], damping time [s]), exact (Leaver 1985), from a table.
+    """Dominant l = 2, n = 0 Kerr mode (frequency [Hz], damping time [s]), exact, from a table.
 
-    The mass sets the frame: a source-frame mass gives source-frame values. A negative aligned
-    remnant spin is taken as |j| (the l = m mode is then counter-rotating with respect to the hole).
-    Spins beyond the table (|j| > 0.9999) give NaN; the registry's limits flag them.
+    Leaver 1985 (Proc. R. Soc. A 402, 285), both branches tabulated by ``tools/make_qnm_table.py``.
+    ``remnant_spin`` is signed along the orbital angular momentum: j >= 0 gives the co-rotating
+    l = m = 2 mode, j < 0 the counter-rotating mode of a hole of spin |j| (the two meet at j = 0).
+    The mass sets the frame: a source-frame mass gives source-frame values. Spins beyond the table
+    (|j| > 0.9999) give NaN; the registry's limits flag them.
     """
     t_m = _mass_time(remnant_mass)
-    j = _spin(remnant_spin)
-    uu = np.sqrt(np.clip(1 - j, 0, None))
-    inside = (j <= 1 - _qnm_table.U_LAST**2) & np.isfinite(j)
-    args = (_qnm_table.U_FIRST, _qnm_table.U_LAST, np.where(inside, uu, 1.0))
-    w_re = np.where(inside, interpolate_uniform(_qnm_table.REAL, *args), np.nan)
-    w_im = np.where(inside, interpolate_uniform(_qnm_table.IMAG, *args), np.nan)
-    frequency = w_re / (2 * np.pi * t_m) * u.Hz
-    return frequency, t_m / np.abs(w_im) * u.s
+    omega = _table_mode(dimensionless(remnant_spin, "remnant_spin"))
+    frequency = omega.real / (2 * np.pi * t_m) * u.Hz
+    return frequency, t_m / np.abs(omega.imag) * u.s
 
 
 def qnm_220_bcw06(remnant_mass, remnant_spin) -> tuple[u.Quantity, u.Quantity]:
-    """Kerr 220 mode (frequency [Hz], damping time [s]) from the Berti-Cardoso-Will 2006 fit.
+    """Co-rotating Kerr 220 mode (frequency [Hz], damping time [s]), Berti-Cardoso-Will 2006 fit.
 
-    A negative aligned remnant spin is taken as |j|.
+    The fit covers the co-rotating branch only (PRD 73, 064030, j from 0 to 0.99): a negative
+    remnant spin, whose dominant mode is the counter-rotating one, gives NaN.
     """
     t_m = _mass_time(remnant_mass)
-    j = _spin(remnant_spin)
+    j = dimensionless(remnant_spin, "remnant_spin")
+    j = np.where(j >= 0, j, np.nan)
     big_f = 1.5251 - 1.1568 * (1 - j) ** 0.1292
     quality = 0.7000 + 1.4187 * (1 - j) ** -0.4990
     return big_f / (2 * np.pi * t_m) * u.Hz, 2 * quality * t_m / big_f * u.s

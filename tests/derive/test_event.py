@@ -372,3 +372,24 @@ def test_relabelled_draws_are_said_when_they_move_a_median():
     assert item.quantities["heavier_mass"].median == 30  # the table's value is the given one
     apart = derive(yaml.safe_load(VALID_EVENT))  # 36 +5 -4 against 29 +4 -5: barely overlap
     assert not [c for c in apart.caveats if c.code == "relabelled-draws"]
+
+
+def test_remnant_against_the_orbit_rings_in_the_counter_rotating_mode():
+    # 40 + 4 M_sun with the heavier spin -0.8: the remnant spins against the orbit, and the
+    # ringdown is the counter-rotating mode (docs/methods.md §7.3 worked example: 248.3 Hz in the
+    # source frame, from the qnm package's values, Stein 2019, JOSS 4, 1683), said in a caveat.
+    r = derive(
+        event(
+            heavier_mass="40 +0.4 -0.4 Msun",
+            lighter_mass="4 +0.04 -0.04 Msun",
+            heavier_spin="-0.8 +0.01 -0.01",
+            lighter_spin="0.0 +0.01 -0.01",
+            redshift="0.08491816 +0.0001 -0.0001",
+        )
+    )
+    assert r.quantities["remnant_spin"].median == pytest.approx(-0.357, abs=0.01)
+    observed = r.quantities["ringdown_frequency"].median
+    assert observed == pytest.approx(248.3 / 1.08491816, rel=0.01)  # not the co-rotating 293 Hz
+    (note,) = [c for c in r.caveats if c.code == "counter-rotating-ringdown"]
+    assert note.level == "notice" and "ringdown_frequency" in note.concerns
+    assert "counter-rotating-ringdown" not in codes(derive(event()))
