@@ -22,13 +22,13 @@ from factsheet.derive.sampling import (
     fill_missing,
     used_paths,
 )
-from factsheet.derive.second_generation import METHOD as second_generation_method
 from factsheet.derive.second_generation import second_generation
 from factsheet.derive.summaries import summarise
 from factsheet.derive.windows import comparison_values, methods_used, windows
 from factsheet.load.reference import reference_for
 from factsheet.model import DETECTOR, SOURCE, Derived, Event, Reference, Settings, Summary
 from factsheet.physics import cosmology, inspiral
+from factsheet.physics.second_generation import METHOD as second_generation_method
 
 
 def derive_event(event: Event, settings: Settings, reference: Reference | None = None) -> Derived:

@@ -22,12 +22,12 @@ from dataclasses import dataclass
 
 from factsheet import __version__, labels
 from factsheet.derive.event import measured_names
-from factsheet.derive.second_generation import MIN_MASS
 from factsheet.model import Audio, Caveat, Derived, Edge, Event, FigureInfo, Summary
 from factsheet.notation import (
     format_like_interval,
     format_value,
 )
+from factsheet.physics.second_generation import MIN_MASS
 from factsheet.render import prose
 from factsheet.render.assets import samples_path
 from factsheet.render.contexts import Link, display_summary, page_of, time_utc

@@ -7,7 +7,7 @@ import yaml
 from helpers import VALID_EVENT
 
 from factsheet.api import derive
-from factsheet.derive.second_generation import first_generation_remnants
+from factsheet.physics.second_generation import first_generation_remnants
 from factsheet.render.event_json import event_json
 from factsheet.render.sheet import earlier_merger
 

@@ -21,6 +21,7 @@ from factsheet.physics import (
     registry,
     remnant,
     ringdown,
+    second_generation,
 )
 
 PACKAGE = Path(physics_pkg.__file__).parent
@@ -79,6 +80,7 @@ EXPORTED_IDS = [
     disruption.REMNANT_MASS,
     disruption.BARYON_MASS,
     comparisons.COMPARISON,
+    second_generation.METHOD,
 ]
 # Parameters a calibration range may name: the mass ratio and the spins of the heavier body, the
 # lighter body and the remnant (checked on the samples), the redshift, the Kerr spin of the ISCO
