@@ -65,8 +65,8 @@ def _in_plane_caveat(typical: float, reach: float) -> Caveat:
         "notice",
         f"The spins are known only along the orbit. Spin in the orbital plane would raise "
         f"the {name}: by about {typical:.2g} (up to {reach:.2g}) with in-plane spins drawn up to "
-        "the largest the aligned spins allow. The spread shown beside it includes this, "
-        "which is larger than the difference between the fits.",
+        "the largest the aligned spins allow. Its systematic spread is this shift where it is "
+        "larger than the difference between the fits, which assume no in-plane spin.",
         concerns=("remnant_spin",),
     )
 
@@ -75,8 +75,8 @@ def _angles_caveat(s: dict[str, u.Quantity]) -> Caveat:
     text = (
         "The directions of the spins within the orbital plane are not in any summary: the "
         "angle between them and their phase at merger were drawn uniformly for each sample "
-        "(common practice). The remnant spin comes from one fit for precessing spins, and the "
-        "spread shown beside it is that fit's stated accuracy."
+        "(common practice). The remnant spin comes from the one fit made for such spins; its "
+        f"systematic spread is that fit's stated accuracy, {remnant.HBR16_GENERIC_RMS:g}."
     )
     if "precession_spin_capped" in s:
         text += (

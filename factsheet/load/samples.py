@@ -227,14 +227,15 @@ def _column(path: Path, name: str, unit_text: str, line: int, problems: list[Pro
     except ValueParseError as exc:
         problems.append(Problem(path, line, name, str(exc)))
         return None
-    if unit.physical_type != (key.physical_type or "dimensionless"):
+    wanted = key.physical_type or "dimensionless"
+    if unit.physical_type != wanted:
         example = f"{name} [{key.canonical_unit}]" if key.canonical_unit else name
         problems.append(
             Problem(
                 path,
                 line,
                 name,
-                f"unit {unit.to_string() or 'none'} is not {article(key.physical_type)} (e.g. '{example}')",
+                f"unit {unit.to_string() or 'none'} is not {article(wanted)} (e.g. '{example}')",
             )
         )
         return None
