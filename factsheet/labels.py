@@ -53,7 +53,28 @@ QUANTITIES: dict[str, QuantityLabel] = {
     "lighter_spin": Q(
         "Aligned spin of the lighter body χ₂", "χ₂", "bodies", "the lighter body's spin"
     ),
+    "heavier_spin_magnitude": Q(
+        "Spin magnitude of the heavier body a₁", "a₁", "bodies", "the heavier body's spin magnitude"
+    ),
+    "heavier_tilt": Q(
+        "Spin tilt of the heavier body θ₁ (to the orbit's axis)",
+        "θ₁",
+        "bodies",
+        "the heavier body's spin tilt",
+    ),
+    "lighter_spin_magnitude": Q(
+        "Spin magnitude of the lighter body a₂", "a₂", "bodies", "the lighter body's spin magnitude"
+    ),
+    "lighter_tilt": Q(
+        "Spin tilt of the lighter body θ₂ (to the orbit's axis)",
+        "θ₂",
+        "bodies",
+        "the lighter body's spin tilt",
+    ),
     "effective_spin": Q("Effective spin χ_eff", "χ_eff", "bodies", "the effective spin"),
+    "precession_spin": Q(
+        "Effective precession spin χ_p", "χ_p", "bodies", "the effective precession spin"
+    ),
     "remnant_mass": Q("Remnant mass", "Remnant mass", "remnant"),
     "remnant_spin": Q("Remnant spin", "Remnant spin", "remnant"),
     "radiated_mass": Q("Mass-energy radiated", "Mass-energy radiated", "remnant"),

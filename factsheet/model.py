@@ -125,10 +125,13 @@ class Settings:
 
 @dataclass(frozen=True)
 class Body:
-    """One of the two bodies of an estimate: its mass and, when given, its aligned spin."""
+    """One of the two bodies of an estimate: its mass and, when given, its spin as the aligned
+    component (``spin``) or as a magnitude with its tilt to the orbital angular momentum."""
 
     mass: Interval
     spin: Interval | None = None
+    spin_magnitude: Interval | None = None
+    tilt: Interval | None = None  # degrees
 
 
 #: The paths of an estimate's values, in a fixed order (also the samples-file column names).
@@ -137,7 +140,12 @@ ESTIMATE_PATHS = (
     "lighter.mass",
     "heavier.spin",
     "lighter.spin",
+    "heavier.spin_magnitude",
+    "heavier.tilt",
+    "lighter.spin_magnitude",
+    "lighter.tilt",
     "effective_spin",
+    "precession_spin",
     "distance",
     "redshift",
 )
@@ -152,6 +160,7 @@ class Estimate:
     distance: Interval
     effective_spin: Interval | None = None
     redshift: Interval | None = None
+    precession_spin: Interval | None = None
 
     def values(self) -> dict[str, Interval]:
         """Every given value by its path (``heavier.mass``, ``distance``, ...), in path order."""
@@ -160,7 +169,12 @@ class Estimate:
             "lighter.mass": self.lighter.mass,
             "heavier.spin": self.heavier.spin,
             "lighter.spin": self.lighter.spin,
+            "heavier.spin_magnitude": self.heavier.spin_magnitude,
+            "heavier.tilt": self.heavier.tilt,
+            "lighter.spin_magnitude": self.lighter.spin_magnitude,
+            "lighter.tilt": self.lighter.tilt,
             "effective_spin": self.effective_spin,
+            "precession_spin": self.precession_spin,
             "distance": self.distance,
             "redshift": self.redshift,
         }

@@ -36,6 +36,7 @@ CONTRACT_QUANTITIES = (
     "chirp_mass",
     "mass_ratio",
     "effective_spin",
+    "precession_spin",
     "heavier_spin",
     "lighter_spin",
     "distance",

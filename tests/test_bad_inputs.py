@@ -235,7 +235,7 @@ CASES = {
     "body_not_mapping": Case(
         {"a.yaml": event({"estimate.heavier": "  heavier: 36 +5 -4 Msun"})},
         "a.yaml:11: estimate.heavier:",
-        "expected a mapping {mass, spin}, e.g. {mass: 36 +5 -4 Msun}",
+        "expected a mapping {mass, spin, spin_magnitude, tilt}, e.g. {mass: 36 +5 -4 Msun}",
     ),
     "body_mass_missing": Case(
         {"a.yaml": event(drop=("estimate.lighter.mass",))},
@@ -375,10 +375,10 @@ CASES = {
         "s.csv:1: lighter.mass:",
         "twice",
     ),
-    "samples_not_supported_yet": Case(
-        with_samples(HEADER.rstrip() + ",heavier.tilt\n30,20,400,0.5\n"),
+    "samples_tilt_without_magnitude": Case(
+        with_samples(HEADER.rstrip() + ",heavier.tilt [deg]\n30,20,400,50\n"),
         "s.csv:1: heavier.tilt:",
-        "not supported yet",
+        "needs the column heavier.spin_magnitude too",
     ),
     "samples_empty": Case(with_samples(""), "s.csv:1: file:", "empty"),
     "samples_in_build": Case(

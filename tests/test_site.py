@@ -37,6 +37,7 @@ QUANTITY_KEYS = {
 }
 #: Spins an event may give; the effective spin is summarised only when one of them is given.
 SPIN_PATHS = {"heavier.spin", "lighter.spin", "effective_spin"}
+SPIN_PATHS |= {"heavier.spin_magnitude", "lighter.spin_magnitude"}  # spin vectors (with tilts)
 REMNANT_KEYS = {
     "remnant_mass",
     "remnant_spin",
@@ -111,6 +112,8 @@ def test_every_public_event_has_a_page_and_json(demo_site):
         assert data.keys() >= CONTRACT_KEYS and data["quantities"].keys() >= QUANTITY_KEYS
         given = set(event.estimate.values()) | set(event.samples.values if event.samples else ())
         assert ("effective_spin" in data["quantities"]) == bool(given & SPIN_PATHS), event.id
+        in_plane = given & {"heavier.tilt", "lighter.tilt", "precession_spin"}
+        assert ("precession_spin" in data["quantities"]) == bool(in_plane), event.id
         for name, q in data["quantities"].items():
             assert q["low"] <= q["median"] <= q["high"], name
             u.Unit(q["unit"])  # the export gives astropy unit strings

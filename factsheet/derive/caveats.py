@@ -10,7 +10,7 @@ import astropy.units as u
 import numpy as np
 
 from factsheet import labels
-from factsheet.derive.sampling import BODY_SPINS, drawn_from_summary, used_paths
+from factsheet.derive.sampling import drawn_from_summary, used_paths
 from factsheet.model import Caveat, Event, Summary
 from factsheet.notation import format_given_median, format_median, how_often
 
@@ -75,11 +75,11 @@ def _listed(words: list[str]) -> str:
 
 def spin_caveat(event: Event) -> Caveat | None:
     given = used_paths(event)
-    bodies = [path for path in BODY_SPINS if path in given]
+    bodies = [b for b in ("heavier", "lighter") if given & {f"{b}.spin", f"{b}.spin_magnitude"}]
     if bodies:
-        if len(bodies) == len(BODY_SPINS):
+        if len(bodies) == 2:
             return None
-        missing = "lighter" if bodies == ["heavier.spin"] else "heavier"
+        missing = "lighter" if bodies == ["heavier"] else "heavier"
         return Caveat(
             "spin-assumed-zero",
             "notice",
@@ -91,6 +91,13 @@ def spin_caveat(event: Event) -> Caveat | None:
             "notice",
             "Only the effective spin was given: "
             "both aligned spin components were set equal to it for the remnant fits.",
+        )
+    if "precession_spin" in given:
+        return Caveat(
+            "aligned-spins-assumed-zero",
+            "notice",
+            "Only the effective precession spin was given: the spins along the orbit were "
+            "taken as zero for the remnant fits.",
         )
     return Caveat(
         "spins-assumed-zero",

@@ -16,18 +16,20 @@ from factsheet.derive import caveats as cv
 from factsheet.derive.classify import classify, mass_bands, remnant_allowed
 from factsheet.derive.remnant import Computed, inspiral_quantities, remnant_quantities
 from factsheet.derive.sampling import (
-    BODY_SPINS,
+    ALIGNED_FORMS,
+    SPIN_VECTORS,
     draw_estimate,
     drawn_from_summary,
     fill_missing,
     used_paths,
 )
 from factsheet.derive.second_generation import second_generation
+from factsheet.derive.spins import SpinSamples, spin_samples
 from factsheet.derive.summaries import summarise
 from factsheet.derive.windows import comparison_values, methods_used, windows
 from factsheet.load.reference import reference_for
 from factsheet.model import DETECTOR, SOURCE, Derived, Event, Reference, Settings, Summary
-from factsheet.physics import cosmology, inspiral
+from factsheet.physics import cosmology, inspiral, precession
 from factsheet.physics.second_generation import METHOD as second_generation_method
 
 
@@ -41,7 +43,7 @@ def derive_event(event: Event, settings: Settings, reference: Reference | None =
     computed = Computed()
     allowed, gate_note = remnant_allowed(c)
     if allowed:
-        remnant_quantities(s, computed)
+        remnant_quantities(s, computed, has_host=event.host is not None)
     inspiral_quantities(s, settings.low_frequency, settings.arm_length, computed)
     s.update(computed.samples)
     for name, values in computed.samples.items():
@@ -129,10 +131,8 @@ def base_samples(event: Event, settings: Settings) -> dict[str, u.Quantity]:
     """The input quantities per sample, source-frame masses, and what follows from them alone."""
     values = input_samples(event, settings)
     size = len(values["heavier.mass"])
-    spins = [values.get(path) for path in BODY_SPINS]
-    if "effective_spin" in values and all(x is None for x in spins):
-        spins = [values["effective_spin"]] * 2
-    chi1, chi2 = (np.zeros(size) if x is None else x for x in spins)
+    spins = spin_samples(values, size, event.seed())
+    chi1, chi2 = spins.aligned
     distance = values["distance"] * u.Mpc
     z = values.get("redshift")
     if z is None:
@@ -155,6 +155,30 @@ def base_samples(event: Event, settings: Settings) -> dict[str, u.Quantity]:
     }
     for name in ("heavier_mass", "lighter_mass", "total_mass", "chirp_mass"):
         s[f"{name}_detector"] = cosmology.to_detector_frame(s[name], z)
+    s.update(spin_vector_samples(values, spins, m1, m2))
+    return s
+
+
+def spin_vector_samples(
+    values: dict[str, np.ndarray], spins: SpinSamples, m1: u.Quantity, m2: u.Quantity
+) -> dict[str, u.Quantity]:
+    """The given spin magnitudes and tilts, the in-plane spins and their angles, the precession
+    spin, and the in-plane spins drawn from their prior range (keys of the remnant stage)."""
+    s = {
+        f"{path.replace('.', '_')}": values[path] * (u.deg if path.endswith("tilt") else u.one)
+        for path in SPIN_VECTORS
+        if path in values
+    }
+    s["spin_azimuth_difference"] = spins.azimuth_difference * u.rad
+    s["merger_phase"] = spins.phase * u.rad
+    s["prior_heavier_spin_in_plane"], s["prior_lighter_spin_in_plane"] = (
+        x * u.one for x in spins.prior_in_plane
+    )
+    if spins.in_plane is not None:
+        s["heavier_spin_in_plane"], s["lighter_spin_in_plane"] = (x * u.one for x in spins.in_plane)
+        s["precession_spin"] = precession.precession_spin(m1, m2, *spins.in_plane) * u.one
+    if spins.capped is not None:
+        s["precession_spin_capped"] = spins.capped * u.one
     return s
 
 
@@ -165,6 +189,8 @@ BASE_UNITS = {
     "heavier_mass_detector": u.Msun,
     "lighter_mass_detector": u.Msun,
     "distance": u.Mpc,
+    "heavier_tilt": u.deg,
+    "lighter_tilt": u.deg,
 }
 
 #: The input quantities a sheet summarises, with their frames.
@@ -177,6 +203,11 @@ BASE_FRAMES = {
     "effective_spin": None,
     "heavier_spin": None,
     "lighter_spin": None,
+    "heavier_spin_magnitude": None,
+    "heavier_tilt": None,
+    "lighter_spin_magnitude": None,
+    "lighter_tilt": None,
+    "precession_spin": None,
     "distance": None,
     "redshift": None,
     "heavier_mass_detector": DETECTOR,
@@ -194,16 +225,27 @@ def _summarise_base(event: Event, s: dict[str, u.Quantity], level: float) -> dic
         "chirp_mass_detector": (inspiral.CHIRP_METHOD,),
         "redshift": () if event.estimate.redshift is not None else (cosmology.METHOD,),
     }
-    given = used_paths(event)
-    skipped = {path.replace(".", "_") for path in BODY_SPINS if path not in given}
-    if not given & {*BODY_SPINS, "effective_spin"}:
-        skipped.add("effective_spin")
+    if "precession_spin" not in used_paths(event):
+        methods["precession_spin"] = (precession.METHOD,)
+    skipped = _spins_not_given(used_paths(event))
     found = {
         name: summarise(s[name], level, frame, methods.get(name, ()))
         for name, frame in BASE_FRAMES.items()
-        if name not in skipped
+        if name not in skipped and name in s
     }
     return found | given_summaries(event, level)
+
+
+def _spins_not_given(given: set[str]) -> set[str]:
+    """Spin quantities a sheet leaves out: a body's aligned spin unless its spin or its spin
+    vector was given, the effective spin unless some spin was given."""
+    skipped = set()
+    for body in ("heavier", "lighter"):
+        if not given & {f"{body}.spin", f"{body}.spin_magnitude"}:
+            skipped.add(f"{body}_spin")
+    if not given & set(ALIGNED_FORMS):
+        skipped.add("effective_spin")
+    return skipped
 
 
 def input_name(path: str, frame: str) -> str:

@@ -14,8 +14,9 @@ import astropy.units as u
 import numpy as np
 
 from factsheet import labels
+from factsheet.derive import spin_effects
 from factsheet.model import DETECTOR, SOURCE, Caveat
-from factsheet.physics import inspiral, kick, luminosity, remnant, ringdown
+from factsheet.physics import inspiral, luminosity, remnant, ringdown
 from factsheet.physics.registry import METHODS, fraction_outside
 
 
@@ -50,13 +51,12 @@ def _mean_and_spread(results: list[np.ndarray]) -> tuple[np.ndarray, float]:
     return stack.mean(axis=0), float(np.median((stack.max(axis=0) - stack.min(axis=0)) / 2))
 
 
-def remnant_quantities(s: dict[str, u.Quantity], out: Computed) -> None:
-    """Remnant spin and mass, energy radiated, peak luminosity, kick and ringdown (BH fits)."""
+def remnant_quantities(s: dict[str, u.Quantity], out: Computed, has_host: bool = False) -> None:
+    """Remnant spin and mass, energy radiated, peak luminosity, kick and ringdown (BH fits);
+    ``has_host``: the event's counterpart windows include the disk flares the kick sets."""
     m1, m2 = s["heavier_mass"], s["lighter_mass"]
     c1, c2 = s["heavier_spin"].value, s["lighter_spin"].value
-    spin, spin_spread = _mean_and_spread(
-        [remnant.remnant_spin_jf17(m1, m2, c1, c2), remnant.remnant_spin_hbr16(m1, m2, c1, c2)]
-    )
+    spin = _put(out, "remnant_spin", spin_effects.remnant_spin(s))
     erad, erad_spread = _mean_and_spread(
         [
             remnant.radiated_fraction_jf17(m1, m2, c1, c2),
@@ -65,7 +65,6 @@ def remnant_quantities(s: dict[str, u.Quantity], out: Computed) -> None:
     )
     total = s["total_mass"]
     radiated = (erad * total).to(u.Msun)
-    out.put("remnant_spin", spin * u.one, remnant.REMNANT_SPIN_METHODS, None, spin_spread * u.one)
     out.put(
         "radiated_mass",
         radiated,
@@ -93,15 +92,22 @@ def remnant_quantities(s: dict[str, u.Quantity], out: Computed) -> None:
         (luminosity.METHOD,),
         None,
     )
-    out.put(
-        "kick_velocity", kick.kick_velocity(m1, m2, c1, c2).to(u.km / u.s), (kick.METHOD,), None
-    )
+    _put(out, "kick_velocity", spin_effects.kick(s, has_host))
+    if "heavier_spin_in_plane" in s:
+        out.caveats.append(spin_effects.aligned_fits_caveat())
     remnant_detector = (total - radiated) * (1 + s["redshift"].value)
     f_ring, tau_ring = ringdown.qnm_220(remnant_detector, spin)  # signed: picks the branch
     out.put("ringdown_frequency", f_ring.to(u.Hz), (ringdown.METHOD,), DETECTOR)
     out.put("ringdown_damping_time", tau_ring.to(u.s), (ringdown.METHOD,), DETECTOR)
     _counter_rotating_caveat(spin, out)
     _calibration_caveats(s, spin, out)
+
+
+def _put(out: Computed, name: str, found: spin_effects.Found) -> np.ndarray:
+    """Record one quantity found with its methods, spread and caveats; return its values."""
+    out.put(name, found.values, found.methods, None, found.spread)
+    out.caveats.extend(found.caveats)
+    return found.values.value
 
 
 def inspiral_quantities(

@@ -85,6 +85,10 @@ def draw_estimate(
 
 
 BODY_SPINS = ("heavier.spin", "lighter.spin")
+#: A body's spin as a vector: its magnitude and its tilt to the orbital angular momentum.
+SPIN_VECTORS = ("heavier.spin_magnitude", "heavier.tilt", "lighter.spin_magnitude", "lighter.tilt")
+#: The values that say how the bodies spin along the orbit: one form excludes the others.
+ALIGNED_FORMS = (*BODY_SPINS, *SPIN_VECTORS, "effective_spin")
 
 
 def used_paths(event: Event) -> set[str]:
@@ -97,15 +101,18 @@ def used_paths(event: Event) -> set[str]:
 
 def drawn_from_summary(event: Event) -> list[str]:
     """The values a samples file lacks and the summary gives, drawn independently (in path
-    order). A spin given in one form in the file (the bodies' spins or the effective spin) is
-    not completed from the other form in the summary."""
+    order). Spins given in one form in the file (the bodies' aligned spins, their magnitudes
+    and tilts, or the effective spin) are not completed from another form in the summary, and
+    tilts in the file leave out the summary's precession spin."""
     if event.samples is None:
         return []
     skipped = set(event.samples.values)
-    if "effective_spin" in skipped:
-        skipped |= set(BODY_SPINS)
-    if skipped & set(BODY_SPINS):
-        skipped.add("effective_spin")
+    if skipped & set(ALIGNED_FORMS):
+        skipped |= set(ALIGNED_FORMS)
+    if skipped & set(SPIN_VECTORS):
+        skipped.add("precession_spin")
+    if "precession_spin" in skipped:
+        skipped |= set(SPIN_VECTORS)
     return [path for path in event.estimate.values() if path not in skipped]
 
 

@@ -13,7 +13,7 @@ from pathlib import Path
 from typing import Any
 
 from factsheet.errors import Problem
-from factsheet.load import scalars
+from factsheet.load import scalars, spins
 from factsheet.load.scalars import Bad, show
 from factsheet.load.schema import (
     BODY_KEYS,
@@ -116,7 +116,12 @@ class Checker:
 
     def _body(self, raw, key, path, line) -> Body | None:
         values = self._section(raw, BODY_KEYS, path, line, ", e.g. {mass: 36 +5 -4 Msun}")
-        return None if values is None else Body(**values)
+        if values is None:
+            return None
+        found = spins.body_problems(values)
+        for name, message in found:
+            self.fail(raw.line_of(name), f"{path}.{name}", message)
+        return None if found else Body(**values)
 
     def _estimate(self, raw, key, path, line) -> Estimate | None:
         values = self._section(raw, ESTIMATE_KEYS, path, line, "")
@@ -128,12 +133,10 @@ class Checker:
             if beyond:
                 self.fail(raw.line_of("distance"), f"{path}.distance", beyond)
                 return None
-        if "effective_spin" in values and (heavier.spin or lighter.spin):
-            self.fail(
-                raw.line_of("effective_spin"),
-                f"{path}.effective_spin",
-                "give either effective_spin or the bodies' spin, not both",
-            )
+        found = spins.estimate_problems(values)
+        for name, message in found:
+            self.fail(raw.line_of(name), f"{path}.{name}", message)
+        if found:
             return None
         if lighter.mass.median > heavier.mass.median:
             self.fail(

@@ -26,6 +26,7 @@ import numpy as np
 from factsheet.errors import InputError, Problem
 from factsheet.load import files
 from factsheet.load.checker import distance_beyond_table
+from factsheet.load.scalars import article
 from factsheet.load.schema import physical_range, value_key
 from factsheet.load.values import ValueParseError, parse_unit
 from factsheet.load.yaml_lines import bad_character
@@ -34,17 +35,18 @@ from factsheet.model import ESTIMATE_PATHS, Limits, SamplesFile
 REQUIRED_COLUMNS = ("heavier.mass", "lighter.mass", "distance")
 #: Columns of the format whose feature is not built yet.
 NOT_YET = (
-    "heavier.spin_magnitude",
-    "heavier.tilt",
-    "lighter.spin_magnitude",
-    "lighter.tilt",
-    "precession_spin",
     "chirp_mass",
     "mass_ratio",
 )
 HEADER_CELL = re.compile(r"^\s*([A-Za-z_][A-Za-z0-9_.]*)\s*(?:\[(.*)\])?\s*$")
 MAX_LINE = 4096  # bytes in one line; seven numbers need far fewer
 DEFAULT_LIMITS = Limits()
+
+
+#: The two bodies' columns that travel together when the bodies are relabelled.
+BODY_PAIRS = tuple(
+    (f"heavier.{name}", f"lighter.{name}") for name in ("mass", "spin", "spin_magnitude", "tilt")
+)
 
 
 def heavier_first(values: dict[str, np.ndarray], in_place: bool = False) -> dict[str, np.ndarray]:
@@ -57,7 +59,7 @@ def heavier_first(values: dict[str, np.ndarray], in_place: bool = False) -> dict
     if not swap.any():
         return values
     out = dict(values)
-    for a, b in (("heavier.mass", "lighter.mass"), ("heavier.spin", "lighter.spin")):
+    for a, b in BODY_PAIRS:
         if a in values and b in values:
             if in_place:
                 kept = values[a][swap]
@@ -180,16 +182,36 @@ def _read_header(
     missing = [c for c in REQUIRED_COLUMNS if c not in seen]
     if missing:
         problems.append(Problem(path, line, "header", f"missing column(s): {', '.join(missing)}"))
-    if "effective_spin" in seen and seen & {"heavier.spin", "lighter.spin"}:
-        problems.append(
-            Problem(
-                path,
-                line,
-                "effective_spin",
-                "give either effective_spin or the bodies' spin columns, not both",
-            )
-        )
+    for name, message in spin_column_problems(seen):
+        problems.append(Problem(path, line, name, message))
     return columns
+
+
+def spin_column_problems(seen: set[str]) -> list[tuple[str, str]]:
+    """The spin columns must describe each body one way (the rules of the estimate's keys)."""
+    found = []
+    body_columns = {f"{b}.{n}" for b in ("heavier", "lighter") for n in ("spin", *VECTOR)}
+    if "effective_spin" in seen and seen & body_columns:
+        found.append(
+            ("effective_spin", "give either effective_spin or the bodies' spin columns, not both")
+        )
+    for body in ("heavier", "lighter"):
+        vector = [f"{body}.{n}" for n in VECTOR if f"{body}.{n}" in seen]
+        if f"{body}.spin" in seen and vector:
+            found.append((vector[0], f"give either {body}.spin or {body}.spin_magnitude with "
+                          f"{body}.tilt, not both"))  # fmt: skip
+        elif len(vector) == 1:
+            other = f"{body}.{'tilt' if vector[0].endswith('magnitude') else 'spin_magnitude'}"
+            found.append((vector[0], f"needs the column {other} too"))
+    if "precession_spin" in seen and any(name.endswith(".tilt") for name in seen):
+        found.append(
+            ("precession_spin", "the tilt columns already give the in-plane spins: leave "
+             "precession_spin out")
+        )  # fmt: skip
+    return found
+
+
+VECTOR = ("spin_magnitude", "tilt")
 
 
 _IGNORED = (
@@ -205,14 +227,15 @@ def _column(path: Path, name: str, unit_text: str, line: int, problems: list[Pro
     except ValueParseError as exc:
         problems.append(Problem(path, line, name, str(exc)))
         return None
-    if unit.physical_type != (key.physical_type or "dimensionless"):
+    wanted = key.physical_type or "dimensionless"
+    if unit.physical_type != wanted:
         example = f"{name} [{key.canonical_unit}]" if key.canonical_unit else name
         problems.append(
             Problem(
                 path,
                 line,
                 name,
-                f"unit {unit or 'none'} is not a {key.physical_type} (e.g. '{example}')",
+                f"unit {unit.to_string() or 'none'} is not {article(wanted)} (e.g. '{example}')",
             )
         )
         return None
@@ -262,7 +285,8 @@ def _read_rows(
 def _check_values(path: Path, values: dict[str, np.ndarray], lines, cosmology) -> None:
     for name, x in values.items():
         low, high = physical_range(name)
-        bad = ~np.isfinite(x) | (x < low) | (x > high) | ((x == low) & (low == 0.0))
+        on_low = (x == low) & (low == 0.0) & (not value_key(name).low_inclusive)
+        bad = ~np.isfinite(x) | (x < low) | (x > high) | on_low
         if bad.any():
             i = int(np.argmax(bad))
             raise InputError(

@@ -294,11 +294,16 @@ def _check_unit(value: Interval, key: Key) -> None:
             f"(write it without a unit, e.g. {key.example})"
         )
     if value.unit == u.dimensionless_unscaled:
-        raise Bad(f"missing unit (expected a {wanted}, e.g. {key.example})")
+        raise Bad(f"missing unit (expected {article(wanted)}, e.g. {key.example})")
     raise Bad(
         f"unit {value.unit} is a {value.unit.physical_type}, "
-        f"expected a {wanted} (e.g. {key.example})"
+        f"expected {article(wanted)} (e.g. {key.example})"
     )
+
+
+def article(word: str) -> str:
+    """``word`` with its indefinite article: "a mass", "an angle"."""
+    return f"{'an' if word[:1] in 'aeiou' else 'a'} {word}"
 
 
 def in_range(x: float, key: Key, what: str) -> None:

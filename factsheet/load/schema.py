@@ -110,8 +110,15 @@ ESTIMATE_KEYS: dict[str, Key] = {
     "effective_spin": spin_key(
         "effective spin (both bodies' aligned spins are taken equal to it)", "0.05 +0.1 -0.1"
     ),
-    "precession_spin": unsupported(
-        "effective precession spin", "give the bodies' aligned spins or effective_spin"
+    "precession_spin": Key(
+        "interval",
+        "effective precession spin, 0 to 1, beside the bodies' aligned spins or effective_spin",
+        False,
+        "dimensionless",
+        "0.4 +0.3 -0.3",
+        low=0.0,
+        high=1.0,
+        low_inclusive=True,
     ),
     "chirp_mass": unsupported("chirp mass", "give the bodies' masses"),
     "mass_ratio": unsupported("mass ratio (lighter / heavier)", "give the bodies' masses"),
@@ -139,9 +146,27 @@ BODY_KEYS: dict[str, Key] = {
         "interval", "mass", True, "mass", "36 +5 -4 Msun", low=0.0, canonical_unit="solMass"
     ),
     "spin": spin_key("spin component along the orbital angular momentum, -1 to 1", "0.1 +0.2 -0.2"),
-    "spin_magnitude": unsupported("spin magnitude, 0 to 1", "give the aligned component as spin"),
-    "tilt": unsupported(
-        "angle of the spin to the orbital angular momentum", "give the aligned component as spin"
+    "spin_magnitude": Key(
+        "interval",
+        "spin magnitude, 0 to 1, with its tilt (instead of spin)",
+        False,
+        "dimensionless",
+        "0.4 +0.4 -0.3",
+        low=0.0,
+        high=1.0,
+        low_inclusive=True,
+    ),
+    "tilt": Key(
+        "interval",
+        "angle of the spin to the orbital angular momentum, 0 to 180 deg, with spin_magnitude",
+        False,
+        "angle",
+        "60 +40 -40 deg",
+        low=0.0,
+        high=180.0,
+        low_inclusive=True,
+        canonical_unit="deg",
+        range_note="0 deg is along the orbit, 180 deg against it",
     ),
 }
 

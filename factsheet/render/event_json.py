@@ -21,6 +21,7 @@ FORMAT_VERSION = 2
 #: The quantity keys of the contract, in order; the ECSV and CSV tables carry the same.
 CONTRACT_QUANTITIES = (
     "heavier_mass", "lighter_mass", "total_mass", "chirp_mass", "mass_ratio", "effective_spin",
+    "precession_spin",
     "heavier_spin", "lighter_spin", "distance", "redshift", "remnant_mass", "remnant_spin",
     "radiated_mass", "energy_radiated", "peak_luminosity", "kick_velocity",
     "ringdown_frequency", "ringdown_damping_time", "isco_frequency", "time_in_band",

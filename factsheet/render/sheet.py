@@ -81,7 +81,7 @@ class Row:
     label: str
     text: str  # the value as printed: an interval, a bound or an exact value
     kind: str  # a value of labels.KINDS
-    spread: str  # the spread between fits where it matters at this precision, else ""
+    spread: str  # the systematic (fits and model) where it matters at this precision, else ""
     marks: tuple[Note, ...]
 
 
@@ -181,13 +181,14 @@ def _row(key: str, s: Summary, kind: str, marks: tuple[Note, ...]) -> Row:
 
 
 def spread_text(s: Summary) -> str:
-    """The spread between published fits, where it matters: at least a tenth of the smaller
+    """The systematic apart from the interval (the spread between published fits, and for the
+    remnant spin what unknown in-plane spin could add), where it matters: at least a tenth of the smaller
     side of the interval and not zero at the interval's precision."""
     smaller = min(s.high - s.median, s.median - s.low)
     if not s.fit_spread or s.fit_spread < SPREAD_MATTERS * smaller:
         return ""
     shown = format_like_interval(s.fit_spread, s.median, s.low, s.high, s.unit)
-    return f"± {shown} between fits" if shown else ""
+    return f"± {shown} systematic (fits and model)" if shown else ""
 
 
 def numbered(caveats: list[Caveat]) -> list[tuple[Note, Caveat]]:

@@ -39,9 +39,14 @@ def test_samples_csv_with_units_in_header(tmp_path):
         ("heavier.mass [Msun],lighter.mass [Msun]\n1,1\n", 1, "missing column(s): distance"),
         ("heavier.mass [Mpc],lighter.mass [Msun],distance [Mpc]\n1,1,1\n", 1, "not a mass"),
         (
-            f"{HEADER},heavier.tilt\n1,1,1,0.5\n",
+            f"{HEADER},heavier.tilt [deg]\n1,1,1,50\n",
             1,
-            "heavier.tilt: not supported yet in samples files",
+            "heavier.tilt: needs the column heavier.spin_magnitude too",
+        ),
+        (
+            f"{HEADER},heavier.spin_magnitude,heavier.tilt\n1,1,1,0.5,0.5\n",
+            1,
+            "heavier.tilt: unit none is not an angle (e.g. 'heavier.tilt [deg]')",
         ),
         (f"{HEADER}\n1,1,1\n2,x,1\n", 3, "not a number"),
         (f"{HEADER}\n1,1\n", 2, "2 cells, expected 3"),

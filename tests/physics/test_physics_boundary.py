@@ -18,6 +18,7 @@ from factsheet.physics import (
     kerr,
     kick,
     luminosity,
+    precession,
     registry,
     remnant,
     ringdown,
@@ -63,6 +64,9 @@ def test_only_allowed_imports(path):
 
 EXPORTED_IDS = [
     *remnant.REMNANT_SPIN_METHODS,
+    *remnant.PRECESSING_SPIN_METHODS,
+    precession.METHOD,
+    kick.SUPERKICK_METHOD,
     *remnant.RADIATED_METHODS,
     remnant.CROSS_CHECK_SPIN_METHOD,
     luminosity.METHOD,
