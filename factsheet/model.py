@@ -125,9 +125,10 @@ class Settings:
 
 @dataclass(frozen=True)
 class Body:
-    """One of the two bodies of an estimate: its mass and, when given, its aligned spin."""
+    """One of the two bodies of an estimate: its mass and, when given, its aligned spin. The
+    mass may be absent when the estimate gives the chirp mass instead."""
 
-    mass: Interval
+    mass: Interval | None = None
     spin: Interval | None = None
 
 
@@ -152,6 +153,8 @@ class Estimate:
     distance: Interval
     effective_spin: Interval | None = None
     redshift: Interval | None = None
+    chirp_mass: Interval | None = None  # in the event's frame, like the masses
+    mass_ratio: Interval | None = None  # lighter / heavier, 0 < q <= 1
 
     def values(self) -> dict[str, Interval]:
         """Every given value by its path (``heavier.mass``, ``distance``, ...), in path order."""
@@ -163,6 +166,8 @@ class Estimate:
             "effective_spin": self.effective_spin,
             "distance": self.distance,
             "redshift": self.redshift,
+            "chirp_mass": self.chirp_mass,
+            "mass_ratio": self.mass_ratio,
         }
         return {path: value for path, value in found.items() if value is not None}
 

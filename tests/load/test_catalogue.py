@@ -92,8 +92,6 @@ SKY_AREA = "  sky_area: 580 deg2\n"
         ),
         (BODY_SPIN, BODY_SPIN + "    tilt: 0.5\n", 14, "estimate.heavier.tilt"),
         (DISTANCE, DISTANCE + "  precession_spin: 0.3\n", 18, "estimate.precession_spin"),
-        (DISTANCE, DISTANCE + "  chirp_mass: 28 Msun\n", 18, "estimate.chirp_mass"),
-        (DISTANCE, DISTANCE + "  mass_ratio: 0.8\n", 18, "estimate.mass_ratio"),
         (
             "summary: A *test* event.\n",
             "summary: A *test* event.\ncounterpart_candidates: [a flash]\n",
