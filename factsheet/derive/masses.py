@@ -30,7 +30,9 @@ GIVEN, FROM_MASSES, ASSUMED = "given", "from-masses", "assumed"
 Draw = Callable[[str, Interval], np.ndarray]
 
 
-def masses_from_chirp_mass(chirp_mass: np.ndarray, ratio: np.ndarray):
+def masses_from_chirp_mass(
+    chirp_mass: np.ndarray, ratio: np.ndarray
+) -> tuple[np.ndarray, np.ndarray]:
     """The heavier and lighter masses of a chirp mass and a mass ratio q = m2/m1 <= 1, in the
     chirp mass's unit (inverse of Cutler & Flanagan 1994's definition, see the module)."""
     heavier = chirp_mass * (1 + ratio) ** 0.2 * ratio**-0.6
@@ -52,7 +54,9 @@ def mass_ratio_source(estimate: Estimate) -> str:
     return ASSUMED
 
 
-def draw_masses(estimate: Estimate, n: int, draw: Draw, rng: np.random.Generator):
+def draw_masses(
+    estimate: Estimate, n: int, draw: Draw, rng: np.random.Generator
+) -> dict[str, np.ndarray]:
     """The masses, chirp mass and mass ratio of ``n`` draws through the chirp mass, by path.
 
     ``draw(path, value)`` draws one summary value inside its range. With the masses but no mass
