@@ -125,10 +125,11 @@ class Settings:
 
 @dataclass(frozen=True)
 class Body:
-    """One of the two bodies of an estimate: its mass and, when given, its spin as the aligned
-    component (``spin``) or as a magnitude with its tilt to the orbital angular momentum."""
+    """One of the two bodies of an estimate: its mass (absent when the estimate gives the chirp
+    mass instead) and, when given, its spin as the aligned component (``spin``) or as a
+    magnitude with its tilt to the orbital angular momentum."""
 
-    mass: Interval
+    mass: Interval | None = None
     spin: Interval | None = None
     spin_magnitude: Interval | None = None
     tilt: Interval | None = None  # degrees
@@ -161,6 +162,8 @@ class Estimate:
     effective_spin: Interval | None = None
     redshift: Interval | None = None
     precession_spin: Interval | None = None
+    chirp_mass: Interval | None = None  # in the event's frame, like the masses
+    mass_ratio: Interval | None = None  # lighter / heavier, 0 < q <= 1
 
     def values(self) -> dict[str, Interval]:
         """Every given value by its path (``heavier.mass``, ``distance``, ...), in path order."""
@@ -177,6 +180,8 @@ class Estimate:
             "precession_spin": self.precession_spin,
             "distance": self.distance,
             "redshift": self.redshift,
+            "chirp_mass": self.chirp_mass,
+            "mass_ratio": self.mass_ratio,
         }
         return {path: value for path, value in found.items() if value is not None}
 

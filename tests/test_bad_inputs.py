@@ -273,10 +273,10 @@ CASES = {
         "a.yaml:19: samples:",
         "control character (U+0000 NUL)",
     ),
-    "not_supported_yet": Case(
-        {"a.yaml": event({"estimate.distance": "  distance: 440 Mpc\n  chirp_mass: 28 Msun"})},
-        "a.yaml:18: estimate.chirp_mass:",
-        "not supported yet",
+    "mass_ratio_without_chirp_mass": Case(
+        {"a.yaml": event({"estimate.distance": "  distance: 440 Mpc\n  mass_ratio: 0.8"})},
+        "a.yaml:18: estimate.mass_ratio:",
+        "a mass ratio needs the chirp mass beside it",
     ),
     # -- contradictory inputs ---------------------------------------------------------------
     "effective_spin_and_body_spin": Case(

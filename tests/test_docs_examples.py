@@ -74,7 +74,7 @@ def _write(folder: Path, files: dict[str, str]) -> Path:
 
 
 def test_input_format_examples_load_without_problems_or_warnings(tmp_path):
-    complete, minimal, _history = blocks(DOCS / "input-format.md", "yaml")
+    complete, minimal, *_ = blocks(DOCS / "input-format.md", "yaml")
     (samples,) = blocks(DOCS / "samples-files.md", "csv")
     assert "samples: dx0412.csv" in complete
     folder = _write(
@@ -90,12 +90,21 @@ def test_input_format_examples_load_without_problems_or_warnings(tmp_path):
 
 
 def test_input_format_history_example_loads_without_problems_or_warnings(tmp_path):
-    _, minimal, history = blocks(DOCS / "input-format.md", "yaml")
+    _, minimal, *_, history = blocks(DOCS / "input-format.md", "yaml")
     event = minimal + "status: retracted\n" + history
     catalogue = load_catalogue(_write(tmp_path / "cat", {"dx0413.yaml": event}))
     (example,) = catalogue.events
     assert [h.status for h in example.history] == ["candidate", "retracted"]
     assert example.history[-1].estimate is None
+    assert catalogue.warnings == ()
+
+
+def test_input_format_chirp_mass_example_loads_without_problems_or_warnings(tmp_path):
+    _, minimal, chirp, _ = blocks(DOCS / "input-format.md", "yaml")
+    event = minimal.split("estimate:")[0] + chirp
+    catalogue = load_catalogue(_write(tmp_path / "cat", {"dx0413.yaml": event}))
+    (example,) = catalogue.events
+    assert example.estimate.chirp_mass is not None and example.estimate.mass_ratio is not None
     assert catalogue.warnings == ()
 
 

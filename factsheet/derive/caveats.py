@@ -10,7 +10,14 @@ import astropy.units as u
 import numpy as np
 
 from factsheet import labels
-from factsheet.derive.sampling import drawn_from_summary, used_paths
+from factsheet.derive import masses
+from factsheet.derive.sampling import (
+    Ranges,
+    drawn_bounds,
+    drawn_from_summary,
+    used_paths,
+    value_range,
+)
 from factsheet.model import Caveat, Event, Summary
 from factsheet.notation import format_given_median, format_median, how_often
 
@@ -44,6 +51,15 @@ def _noise_alone(far: u.Quantity) -> str:
 def sampling_caveat(event: Event) -> Caveat | None:
     if event.samples is not None:
         return _partly_drawn_caveat(event)
+    if masses.through_chirp_mass(event.estimate):
+        return Caveat(
+            "independent-sampling",
+            "notice",
+            "The two masses were drawn through the chirp mass, which keeps its measured "
+            "interval, and the mass ratio; otherwise each parameter was sampled independently "
+            "from its summary interval, so other correlations (for example between the mass "
+            "ratio and the spins) are lost; derived intervals are approximate.",
+        )
     return Caveat(
         "independent-sampling",
         "notice",
@@ -51,6 +67,72 @@ def sampling_caveat(event: Event) -> Caveat | None:
         "its summary interval, so correlations between parameters (for example between "
         "the two masses) are lost; derived intervals are approximate.",
     )
+
+
+def mass_ratio_caveat(event: Event) -> Caveat | None:
+    """The chirp mass without a mass ratio: say where the ratio of the draws comes from."""
+    if event.samples is not None or not masses.through_chirp_mass(event.estimate):
+        return None
+    source = masses.mass_ratio_source(event.estimate)
+    concerns = ("heavier_mass", "lighter_mass", "mass_ratio")
+    if source == masses.FROM_MASSES:
+        return Caveat(
+            "mass-ratio-from-masses",
+            "notice",
+            "No mass ratio was given: each draw takes the ratio of the two masses drawn "
+            "independently from their intervals and keeps the chirp mass drawn from its own, "
+            "so the masses behind the derived numbers may spread less or more than those "
+            "given (the table shows the masses as given).",
+            concerns=concerns,
+        )
+    if source == masses.ASSUMED:
+        low, high = masses.ASSUMED_MASS_RATIO
+        return Caveat(
+            "mass-ratio-assumed",
+            "warning",
+            f"Only the chirp mass was given: the mass ratio was assumed to lie anywhere "
+            f"between {low:g} and {high:g} with equal probability (an assumption, not a "
+            "measurement), so the two masses and every number that depends on them rest on "
+            "that assumption.",
+            concerns=concerns,
+        )
+    return None
+
+
+def limit_caveat(event: Event, level: float, ranges: Ranges | None = None) -> Caveat | None:
+    """A bound given on a physical limit (a mass ratio's upper bound of 1, a spin's of 1): the
+    draws cannot reach it without piling samples onto the limit, so their bound moves inward;
+    say by how much (the table shows the value as given)."""
+    moved = []
+    for path in drawn_paths(event):
+        value = event.estimate[path]
+        limits = value_range(path, ranges)
+        low, high = drawn_bounds(value, level, limits)
+        for drawn, given in ((low, value.low), (high, value.high)):
+            if drawn != given:
+                name = labels.QUANTITIES[path.replace(".", "_")].in_prose
+                moved.append(f"{drawn:.3g} for {name} instead of {given:.3g}")
+    if not moved:
+        return None
+    return Caveat(
+        "bound-at-limit",
+        "info",
+        "An interval given up to a physical limit cannot be drawn without piling samples onto "
+        "the limit, so the draws behind the derived numbers stop short of it: their credible "
+        f"bound is {_listed(moved).replace(' or ', ' and ')}. The table shows the values as "
+        "given.",
+    )
+
+
+def drawn_paths(event: Event) -> list[str]:
+    """The estimate's values that are drawn from their summaries (all of them without a
+    samples file); the masses not when they are drawn through the chirp mass with a ratio."""
+    if event.samples is not None:
+        return drawn_from_summary(event)
+    paths = list(event.estimate.values())
+    if masses.mass_ratio_source(event.estimate) == masses.GIVEN:
+        paths = [p for p in paths if p not in ("heavier.mass", "lighter.mass")]
+    return paths
 
 
 def _partly_drawn_caveat(event: Event) -> Caveat | None:
@@ -131,6 +213,7 @@ def input_caveats(
     found = [
         status_caveat(event, far_threshold),
         sampling_caveat(event),
+        mass_ratio_caveat(event),
         spin_caveat(event),
         redshift_caveat(event, cosmology),
     ]

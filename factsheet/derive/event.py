@@ -14,6 +14,7 @@ from astropy.cosmology import realizations
 
 from factsheet.derive import caveats as cv
 from factsheet.derive.classify import classify, mass_bands, remnant_allowed
+from factsheet.derive.masses import through_chirp_mass
 from factsheet.derive.remnant import Computed, inspiral_quantities, remnant_quantities
 from factsheet.derive.sampling import (
     ALIGNED_FORMS,
@@ -66,10 +67,11 @@ def derive_event(event: Event, settings: Settings, reference: Reference | None =
     )
     drawn = {k: s[k].value for k in ("heavier_mass", "lighter_mass") if k in s}
     drawn |= {f"{k}_detector": s[f"{k}_detector"].value for k in ("heavier_mass", "lighter_mass")}
-    relabel = cv.relabel_caveat(given_summaries(event, level), drawn)
+    relabel = cv.relabel_caveat(given_summaries(event, level), drawn) if relabelled(event) else None
     notes = [
         *cv.input_caveats(event, settings.cosmology, settings.low_significance_rate),
         *([relabel] if relabel else []),
+        *filter(None, [cv.limit_caveat(event, level, draw_ranges(settings))]),
         *([gate_note] if gate_note else []),
         *computed.caveats,
         *band_notes,
@@ -97,6 +99,12 @@ def derive_event(event: Event, settings: Settings, reference: Reference | None =
     )
 
 
+def relabelled(event: Event) -> bool:
+    """Whether the masses were drawn one by one and relabelled heavier-first (not through the
+    chirp mass, whose draws are heavier-first by construction, nor read from a samples file)."""
+    return event.samples is None and not through_chirp_mass(event.estimate)
+
+
 def lookback(redshift: Summary, cosmology_name: str) -> Summary:
     """The time since the merger (lookback time) at the redshift's median and bounds: the
     lookback time grows with redshift, so the bounds of one are the bounds of the other."""
@@ -120,11 +128,16 @@ def input_samples(event: Event, settings: Settings) -> dict[str, np.ndarray]:
     """Samples of the estimate's values by path, in canonical units (solMass, Mpc, one), from
     the samples file when there is one (what it lacks drawn from the summary), else drawn."""
     n, level = settings.samples, settings.credible_level
-    # distances are drawn inside the redshift table (the loader refuses intervals beyond it)
-    ranges = {"distance": (0.0, cosmology.distance_limit(settings.cosmology).to_value(u.Mpc))}
+    ranges = draw_ranges(settings)
     if event.samples is None:
         return draw_estimate(event.estimate, n, level, event.seed(), ranges)
     return fill_missing(dict(event.samples.values), event, level, ranges)
+
+
+def draw_ranges(settings: Settings) -> dict[str, tuple[float, float]]:
+    """Where draws are cut off beyond the physical limits: distances inside the redshift table
+    (the loader refuses intervals beyond it)."""
+    return {"distance": (0.0, cosmology.distance_limit(settings.cosmology).to_value(u.Mpc))}
 
 
 def base_samples(event: Event, settings: Settings) -> dict[str, u.Quantity]:
@@ -191,6 +204,8 @@ BASE_UNITS = {
     "distance": u.Mpc,
     "heavier_tilt": u.deg,
     "lighter_tilt": u.deg,
+    "chirp_mass": u.Msun,
+    "chirp_mass_detector": u.Msun,
 }
 
 #: The input quantities a sheet summarises, with their frames.

@@ -116,6 +116,14 @@ class Checker:
 
     def _body(self, raw, key, path, line) -> Body | None:
         values = self._section(raw, BODY_KEYS, path, line, ", e.g. {mass: 36 +5 -4 Msun}")
+        if isinstance(raw, LineMap) and "mass" in raw and raw["mass"] is None:
+            self.fail(  # written with nothing after the colon: an unfinished value, not absent
+                raw.line_of("mass"),
+                f"{path}.mass",
+                "empty: write a value, e.g. mass: 36 +5 -4 Msun (or leave it out and give "
+                "chirp_mass)",
+            )
+            return None
         if values is None:
             return None
         found = spins.body_problems(values)
@@ -126,6 +134,8 @@ class Checker:
     def _estimate(self, raw, key, path, line) -> Estimate | None:
         values = self._section(raw, ESTIMATE_KEYS, path, line, "")
         if values is None:
+            return None
+        if not self._masses_given(raw, values, path):
             return None
         heavier, lighter = values["heavier"], values["lighter"]
         if self.cosmology is not None:
@@ -138,7 +148,7 @@ class Checker:
             self.fail(raw.line_of(name), f"{path}.{name}", message)
         if found:
             return None
-        if lighter.mass.median > heavier.mass.median:
+        if lighter.mass and heavier.mass and lighter.mass.median > heavier.mass.median:
             self.fail(
                 raw["lighter"].line_of("mass"),
                 f"{path}.lighter.mass",
@@ -147,6 +157,49 @@ class Checker:
             )
             return None
         return Estimate(**values)
+
+    def _masses_given(self, raw: LineMap, values: dict[str, Any], path: str) -> bool:
+        """Both bodies' masses, or the chirp mass (with or without them); a mass ratio only
+        with the chirp mass. Fills in an absent body (it may hold a spin alone)."""
+        bodies = [name for name in ("heavier", "lighter") if name in values]
+        massive = [name for name in bodies if values[name].mass is not None]
+        for name in ("heavier", "lighter"):
+            values.setdefault(name, Body())
+        if "chirp_mass" not in values:
+            if "mass_ratio" in values:
+                self.fail(
+                    raw.line_of("mass_ratio"),
+                    f"{path}.mass_ratio",
+                    "a mass ratio needs the chirp mass beside it (add chirp_mass, e.g. "
+                    "chirp_mass: 31.2 +1.1 -1.0 Msun, or leave mass_ratio out)",
+                )
+                return False
+            for name in ("heavier", "lighter"):
+                if name not in massive:
+                    self._mass_missing(raw, name, path)
+            return len(massive) == 2
+        if len(massive) == 1:
+            (alone,) = massive
+            self.fail(
+                raw[alone].line_of("mass"),
+                f"{path}.{alone}.mass",
+                "give both bodies' masses or neither when chirp_mass is given",
+            )
+            return False
+        return True
+
+    def _mass_missing(self, raw: LineMap, name: str, path: str) -> None:
+        """A body without a mass, and no chirp mass: the body or its mass left out."""
+        body = raw.get(name)
+        if not isinstance(body, LineMap):
+            example = f"{name}: {{mass: 36 +5 -4 Msun}}"
+            self.fail(raw.line, f"{path}.{name}", f"missing required key (e.g. {example})")
+        else:
+            self.fail(
+                body.line,
+                f"{path}.{name}.mass",
+                "missing required key (e.g. mass: 36 +5 -4 Msun), or give chirp_mass instead",
+            )
 
     def _history(self, raw, key, path, line) -> tuple[HistoryEntry, ...] | None:
         """The entries, which must be listed oldest first (entries of one date keep their

@@ -6,10 +6,12 @@ They are printed by ``factsheet check`` and ``factsheet build`` and become error
 
 from __future__ import annotations
 
+import astropy.units as u
 import numpy as np
 
 from factsheet.errors import Problem
-from factsheet.model import Event
+from factsheet.model import Estimate, Event
+from factsheet.physics import inspiral
 
 COMPARED = ("heavier.mass", "lighter.mass", "distance")
 
@@ -21,6 +23,7 @@ def consistency_warnings(event: Event) -> list[Problem]:
         *_status_agrees(event),
         *_embargo(event),
         *_samples_agree(event),
+        *_masses_agree(event),
     ]
 
 
@@ -94,6 +97,54 @@ def _samples_agree(event: Event) -> list[Problem]:
                     f"the samples file's median "
                     f"{median:.4g} lies outside this summary interval "
                     f"({value.low:.4g}–{value.high:.4g}); is it the right file?",
+                )
+            )
+    return found
+
+
+#: Given masses are written to two or three digits: a chirp mass or mass ratio computed from
+#: their medians may stray this far (relative) outside the given interval before it is a warning.
+MASS_SLACK = 0.02
+
+
+def _masses_agree(event: Event) -> list[Problem]:
+    """With the chirp mass and both masses given, the chirp mass of the masses' medians should
+    lie in the chirp mass's interval, and their ratio in the mass ratio's when that is given:
+    near a narrow chirp mass the medians of the two masses and of the ratio belong to nearly
+    the same draws, so a real summary passes."""
+    estimates = [("estimate", event.estimate)] + [
+        (f"history[{i}].estimate", h.estimate) for i, h in enumerate(event.history) if h.estimate
+    ]
+    return [problem for where, e in estimates for problem in _masses_disagree(event, where, e)]
+
+
+def _masses_disagree(event: Event, where: str, estimate: Estimate) -> list[Problem]:
+    m1, m2 = estimate.heavier.mass, estimate.lighter.mass
+    if estimate.chirp_mass is None or m1 is None or m2 is None:
+        return []
+    a, b = (m.to(u.Msun).median for m in (m1, m2))
+    implied = {
+        "chirp_mass": float(inspiral.chirp_mass(a * u.Msun, b * u.Msun).to_value(u.Msun)),
+        "mass_ratio": b / a,
+    }
+    found = []
+    for name, value in implied.items():
+        given = getattr(estimate, name)
+        if given is None:
+            continue
+        given = given.to(u.Msun) if name == "chirp_mass" else given
+        slack = MASS_SLACK * value
+        if not given.low - slack <= value <= given.high + slack:
+            what = "chirp mass" if name == "chirp_mass" else "mass ratio"
+            unit = " Msun" if name == "chirp_mass" else ""
+            found.append(
+                _warn(
+                    event,
+                    f"{where}.{name}",
+                    f"the masses' medians ({a:.4g} and {b:.4g} Msun) have a {what} of "
+                    f"{value:.4g}{unit}, outside this interval ({given.low:.4g}–"
+                    f"{given.high:.4g}{unit}); the draws follow the {what}, the table shows "
+                    "the masses as given (fix one, or leave the masses out)",
                 )
             )
     return found

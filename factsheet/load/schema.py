@@ -105,8 +105,8 @@ DETECTION_KEYS: dict[str, Key] = {
 }
 
 ESTIMATE_KEYS: dict[str, Key] = {
-    "heavier": Key("body", "the heavier body: mass and spin", True),
-    "lighter": Key("body", "the lighter body: mass and spin", True),
+    "heavier": Key("body", "the heavier body: mass and spin (the mass optional with chirp_mass)"),
+    "lighter": Key("body", "the lighter body: mass and spin (the mass optional with chirp_mass)"),
     "effective_spin": spin_key(
         "effective spin (both bodies' aligned spins are taken equal to it)", "0.05 +0.1 -0.1"
     ),
@@ -120,8 +120,24 @@ ESTIMATE_KEYS: dict[str, Key] = {
         high=1.0,
         low_inclusive=True,
     ),
-    "chirp_mass": unsupported("chirp mass", "give the bodies' masses"),
-    "mass_ratio": unsupported("mass ratio (lighter / heavier)", "give the bodies' masses"),
+    "chirp_mass": Key(
+        "interval",
+        "chirp mass, in the frame of the masses: the masses are then drawn through it",
+        False,
+        "mass",
+        "31.2 +1.1 -1.0 Msun",
+        low=0.0,
+        canonical_unit="solMass",
+    ),
+    "mass_ratio": Key(
+        "interval",
+        "mass ratio, lighter / heavier, above 0 and at most 1 (with chirp_mass)",
+        False,
+        "dimensionless",
+        "0.74 +0.2 -0.25",
+        low=0.0,
+        high=1.0,
+    ),
     "distance": Key(
         "interval",
         "luminosity distance",
@@ -143,7 +159,13 @@ ESTIMATE_KEYS: dict[str, Key] = {
 
 BODY_KEYS: dict[str, Key] = {
     "mass": Key(
-        "interval", "mass", True, "mass", "36 +5 -4 Msun", low=0.0, canonical_unit="solMass"
+        "interval",
+        "mass (required unless the estimate gives chirp_mass)",
+        False,
+        "mass",
+        "36 +5 -4 Msun",
+        low=0.0,
+        canonical_unit="solMass",
     ),
     "spin": spin_key("spin component along the orbital angular momentum, -1 to 1", "0.1 +0.2 -0.2"),
     "spin_magnitude": Key(

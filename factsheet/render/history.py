@@ -56,6 +56,9 @@ LISTED = (
     "heavier.spin",
     "lighter.spin",
     "effective_spin",
+    "precession_spin",
+    "chirp_mass",
+    "mass_ratio",
 )
 
 

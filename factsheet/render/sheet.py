@@ -47,6 +47,10 @@ ROUTINE = (
     "spins-from-effective-spin",
     "redshift-from-cosmology",
     "relabelled-draws",
+    "bound-at-limit",
+    "mass-ratio-from-masses",
+    "in-plane-spin-angles",
+    "in-plane-spin-ignored",
 )
 WINDOW_NOTES = ("counterpart-windows-planning-aid", "windows-beyond-calendar")
 REMNANT_NOTES = ("neutron-star-remnant", "neutron-star-disrupted", "neutron-star-plunges")
@@ -182,8 +186,8 @@ def _row(key: str, s: Summary, kind: str, marks: tuple[Note, ...]) -> Row:
 
 def spread_text(s: Summary) -> str:
     """The systematic apart from the interval (the spread between published fits, and for the
-    remnant spin what unknown in-plane spin could add), where it matters: at least a tenth of the smaller
-    side of the interval and not zero at the interval's precision."""
+    remnant spin what unknown in-plane spin could add), where it matters: at least a tenth of
+    the smaller side of the interval and not zero at the interval's precision."""
     smaller = min(s.high - s.median, s.median - s.low)
     if not s.fit_spread or s.fit_spread < SPREAD_MATTERS * smaller:
         return ""

@@ -5,7 +5,7 @@ import numpy as np
 import pytest
 
 from factsheet.api import derive
-from factsheet.derive.sampling import draw, draw_estimate, value_range
+from factsheet.derive.sampling import draw, draw_estimate, drawn_bounds, value_range
 from factsheet.model import Body, Estimate, Interval, Settings
 from factsheet.physics import cosmology
 
@@ -98,3 +98,57 @@ def test_events_at_the_ends_of_the_table_derive(distance):
     )
     z = result.summary("redshift")
     assert 0 < z.low <= z.median <= z.high <= 1000
+
+
+# --- near a physical limit: the given quantiles are kept, or the sheet says why not -----------
+# Check values are closed forms: the draws' quantiles at (1 -+ c)/2 and 1/2 must be the given
+# bounds and median (the contract of a summary, docs/input-format.md), and a flat half on
+# [m, limit] has its level-c point at m + c (limit - m).
+
+
+@pytest.mark.parametrize(
+    ("value", "limits"),
+    [
+        ((0.9, 0.09, 0.3), (-1.0, 1.0)),  # the issue's example: the 95 % point was 0.976
+        ((0.9, 0.05, 0.3), (-1.0, 1.0)),  # a half-normal cut at the limit, scale re-solved
+        ((0.9, 0.095, 0.3), (-1.0, 1.0)),  # closer than any half-normal: flat on each side
+        ((0.2, 0.3, 0.19), (0.0, np.inf)),  # a small mass near zero
+        ((-0.85, 0.3, 0.12), (-1.0, 1.0)),  # the lower limit
+    ],
+)
+def test_draws_keep_median_and_bounds_near_a_limit(value, limits):
+    m, plus, minus = value
+    x = draw(Interval(m, plus, minus, u.one), 400_000, 0.9, limits, np.random.default_rng(8))
+    low, med, high = np.percentile(x, [5, 50, 95])
+    # the quantile's sampling error at n = 4e5 is below 1e-3 of these widths; allow 2e-3
+    tol = 2e-3 * (plus + minus)
+    assert (low, med, high) == pytest.approx((m - minus, m, m + plus), abs=tol)
+    assert limits[0] < x.min() and x.max() < limits[1]  # nothing piled onto the limit
+    assert drawn_bounds(Interval(m, plus, minus, u.one), 0.9, limits) == pytest.approx(
+        (m - minus, m + plus)
+    )
+
+
+def test_a_bound_on_the_limit_moves_inward_and_says_so():
+    # 0.8 +0.2 -0.3 for a mass ratio: the upper bound is the limit 1, which draws cannot reach
+    # without piling onto it; the half above the median is flat, so its 95 % point is
+    # 0.8 + 0.9 * 0.2 = 0.98 (closed form)
+    value = Interval(0.8, 0.2, 0.3, u.one)
+    x = draw(value, 400_000, 0.9, (0.0, 1.0), np.random.default_rng(9))
+    assert np.percentile(x, [5, 50, 95]) == pytest.approx([0.5, 0.8, 0.98], abs=1e-3)
+    assert drawn_bounds(value, 0.9, (0.0, 1.0)) == pytest.approx((0.5, 0.98))
+    result = derive(
+        {
+            "id": "LIM-1",
+            "time": "2034-01-01T00:00:00",
+            "estimate": {
+                "chirp_mass": "28.1 +1.1 -1.0 Msun",
+                "mass_ratio": "0.8 +0.2 -0.3",
+                "heavier": {"spin": "0.9 +0.09 -0.3"},  # kept: no caveat for it
+                "distance": "440 +180 -170 Mpc",
+            },
+        },
+        Settings(samples=2000),
+    )
+    (note,) = [c for c in result.caveats if c.code == "bound-at-limit"]
+    assert "0.98 for the mass ratio instead of 1" in note.text and "spin" not in note.text

@@ -84,8 +84,6 @@ SKY_AREA = "  sky_area: 580 deg2\n"
     ("old", "new", "line", "key"),
     [
         (SKY_AREA, SKY_AREA + "  sky_map: sky.fits\n", 10, "detection.sky_map"),
-        (DISTANCE, DISTANCE + "  chirp_mass: 28 Msun\n", 18, "estimate.chirp_mass"),
-        (DISTANCE, DISTANCE + "  mass_ratio: 0.8\n", 18, "estimate.mass_ratio"),
         (
             "summary: A *test* event.\n",
             "summary: A *test* event.\ncounterpart_candidates: [a flash]\n",
