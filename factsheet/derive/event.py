@@ -14,6 +14,7 @@ from astropy.cosmology import realizations
 
 from factsheet.derive import caveats as cv
 from factsheet.derive.classify import classify, mass_bands, remnant_allowed
+from factsheet.derive.lensing import what_if_lensed
 from factsheet.derive.remnant import Computed, inspiral_quantities, remnant_quantities
 from factsheet.derive.sampling import (
     BODY_SPINS,
@@ -49,6 +50,7 @@ def derive_event(event: Event, settings: Settings, reference: Reference | None =
         )  # fmt: skip
     quantities["lookback_time"] = lookback(quantities["redshift"], settings.cosmology)
     bands, intermediate, band_notes = mass_bands(s, reference)
+    lensed, lens_notes = what_if_lensed(event, settings, reference, s, bands)
     z = float(np.median(s["redshift"].value))
     found, no_window, window_notes = windows(
         event, z, c, s.get("kick_velocity"), np.median(s["total_mass"]), reference, level
@@ -67,6 +69,7 @@ def derive_event(event: Event, settings: Settings, reference: Reference | None =
         *computed.caveats,
         *band_notes,
         *window_notes,
+        *lens_notes,
         *cv.significance_caveats(event, settings.low_significance_rate, settings.large_sky_area),
     ]
     return Derived(
@@ -84,6 +87,7 @@ def derive_event(event: Event, settings: Settings, reference: Reference | None =
         no_window_reason=no_window,
         comparisons=compared,
         other_methods=methods_used(c, found, compared),
+        lensing=lensed,
         samples=s,
     )
 
