@@ -113,8 +113,8 @@ def hypothetical_caveat(origin: str) -> Caveat:
         CAVEAT,
         "info",
         f"The what-if-lensed numbers are shown {why}. They assume a magnification: no lens is "
-        "known for this event unless the editors' own notes say so, and a lens would not "
-        "change the numbers above.",
+        "known for this event unless the editors' own notes say so, and the sheet's other numbers "
+        "assume there is none.",
     )
 
 
