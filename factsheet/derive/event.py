@@ -28,6 +28,7 @@ from factsheet.derive.windows import comparison_values, methods_used, windows
 from factsheet.load.reference import reference_for
 from factsheet.model import DETECTOR, SOURCE, Derived, Event, Reference, Settings, Summary
 from factsheet.physics import cosmology, inspiral
+from factsheet.physics.lensing import METHOD as LENSING
 
 
 def derive_event(event: Event, settings: Settings, reference: Reference | None = None) -> Derived:
@@ -86,7 +87,7 @@ def derive_event(event: Event, settings: Settings, reference: Reference | None =
         windows=found,
         no_window_reason=no_window,
         comparisons=compared,
-        other_methods=methods_used(c, found, compared),
+        other_methods=(*methods_used(c, found, compared), *([LENSING] if lensed else [])),
         lensing=lensed,
         samples=s,
     )

@@ -55,6 +55,7 @@ def test_heavy_pair_gets_the_automatic_panel():
     assert [c.magnification for c in r.lensing.cases] == [4.0, 25.0, 100.0]
     note = next(c for c in r.caveats if c.code == "lensing-what-if")
     assert "no lens is known" in note.text and "pair-instability gap" in note.text
+    assert "lensing-magnification" in r.other_methods  # listed on the methods page
 
 
 def test_cases_follow_the_samples():
