@@ -36,6 +36,8 @@ from factsheet.model import (
     Event,
     EventBundle,
     FigureInfo,
+    LensedCase,
+    Lensing,
     Reference,
     SecondGeneration,
     Settings,
@@ -252,6 +254,7 @@ def bundle_to_json(bundle: EventBundle) -> dict[str, Any]:
         "luminosity": dict(d.comparisons.luminosity),
         "sun_years": None if d.comparisons.sun_years is None else d.comparisons.sun_years.value,
         "other_methods": list(d.other_methods),
+        "lensing": None if d.lensing is None else asdict(d.lensing),
         "figures": [[f.path, f.alt, f.caption] for f in bundle.figures],
         "audio": asdict(bundle.audio),
         "figure_seconds": bundle.figure_seconds,
@@ -296,9 +299,30 @@ def bundle_from_json(
         ),
         other_methods=tuple(data["other_methods"]),
         second_generation=tuple(SecondGeneration.from_fields(g) for g in data["second_generation"]),
+        lensing=_lensing(data["lensing"]),
     )
     figures = tuple(FigureInfo(*map(str, f)) for f in data["figures"])
     return EventBundle(derived, figures, Audio(**data["audio"]), {}, data["figure_seconds"])
+
+
+def _summary(v: dict[str, Any]) -> Summary:
+    return Summary(**{**v, "methods": tuple(v["methods"])})
+
+
+def _lensing(data: dict[str, Any] | None) -> Lensing | None:
+    """The what-if-lensed panel from its JSON (None when the event has none)."""
+    if data is None:
+        return None
+    cases = tuple(
+        LensedCase(
+            magnification=float(c["magnification"]),
+            **{k: _summary(c[k]) for k in ("distance", "redshift", "heavier_mass", "lighter_mass")},
+            remnant_mass=None if c["remnant_mass"] is None else _summary(c["remnant_mass"]),
+            mass_bands={k: dict(v) for k, v in c["mass_bands"].items()},
+        )
+        for c in data["cases"]
+    )
+    return Lensing(str(data["origin"]), cases, tuple(float(x) for x in data["beyond"]))
 
 
 def _window(w: dict[str, Any]) -> Window:

@@ -99,6 +99,8 @@ class Settings:
     limits: Limits = field(default_factory=Limits)
     licence: str = ""  # licence of the pages and exports (text, e.g. "CC BY 4.0")
     citation: str = ""  # how to cite the catalogue (Markdown)
+    # magnifications of the automatic what-if-lensed panel (METHODS: 4, 25 and 100 by default)
+    what_if_lensed: tuple[float, ...] = (4.0, 25.0, 100.0)
 
     def fingerprint(self) -> str:
         """A stable text form of the settings that change derived numbers."""
@@ -116,6 +118,7 @@ class Settings:
                 self.neutron_star_radius.to_value(u.km),
                 self.low_significance_rate.to_value(1 / u.yr),
                 self.large_sky_area.to_value(u.deg**2),
+                self.what_if_lensed,
             )
         )
 
@@ -258,6 +261,7 @@ class Event:
     history: tuple[HistoryEntry, ...] = ()
     samples: SamplesFile | None = None
     host: Host | None = None
+    what_if_lensed: tuple[float, ...] | None = None  # magnifications asked for; None: automatic
     visibility: str = "public"
     embargo_until: Time | None = None
     internal_notes: str = ""
@@ -481,6 +485,33 @@ class SecondGeneration:
 
 
 @dataclass(frozen=True)
+class LensedCase:
+    """The source if a lens magnified the signal ``magnification`` times: true distance,
+    redshift and source-frame masses summarised from the samples, and the mass-band
+    probabilities of each subject (``heavier``, ``lighter``, ``remnant``) at those masses."""
+
+    magnification: float
+    distance: Summary
+    redshift: Summary
+    heavier_mass: Summary
+    lighter_mass: Summary
+    remnant_mass: Summary | None
+    mass_bands: Mapping[str, Mapping[str, float]]  # subject -> band -> probability
+
+
+@dataclass(frozen=True)
+class Lensing:
+    """The what-if-lensed panel: one case per magnification, and why it was made (``event``:
+    the event's own list; ``automatic``: a body is probably in or above the pair-instability
+    gap, with the catalogue's magnifications). ``beyond`` lists magnifications left out because
+    they put the source beyond the redshift table."""
+
+    origin: str
+    cases: tuple[LensedCase, ...]
+    beyond: tuple[float, ...] = ()
+
+
+@dataclass(frozen=True)
 class Derived:
     """Everything derived for one event: summaries, classes, bands, windows and caveats.
 
@@ -503,6 +534,7 @@ class Derived:
     comparisons: Comparisons = field(default_factory=Comparisons)
     other_methods: tuple[str, ...] = ()  # methods behind the class, bands, windows, comparisons
     second_generation: tuple[SecondGeneration, ...] = ()  # bodies in or above the gap
+    lensing: Lensing | None = None  # the what-if-lensed panel, when asked for or automatic
     samples: Mapping[str, u.Quantity] = field(default_factory=dict, compare=False, repr=False)
 
     @property

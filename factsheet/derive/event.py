@@ -14,6 +14,7 @@ from astropy.cosmology import realizations
 
 from factsheet.derive import caveats as cv
 from factsheet.derive.classify import classify, mass_bands, remnant_allowed
+from factsheet.derive.lensing import what_if_lensed
 from factsheet.derive.masses import through_chirp_mass
 from factsheet.derive.remnant import Computed, inspiral_quantities, remnant_quantities
 from factsheet.derive.sampling import (
@@ -31,6 +32,7 @@ from factsheet.derive.windows import comparison_values, methods_used, windows
 from factsheet.load.reference import reference_for
 from factsheet.model import DETECTOR, SOURCE, Derived, Event, Reference, Settings, Summary
 from factsheet.physics import cosmology, inspiral, precession
+from factsheet.physics.lensing import METHOD as LENSING
 from factsheet.physics.second_generation import METHOD as second_generation_method
 
 
@@ -57,6 +59,7 @@ def derive_event(event: Event, settings: Settings, reference: Reference | None =
     earlier = second_generation(
         s, bands, reference, level, event.seed(), spins_given=_spins_given(event)
     )
+    lensed, lens_notes = what_if_lensed(event, settings, reference, s, bands)
     z = float(np.median(s["redshift"].value))
     found, no_window, window_notes = windows(
         event, z, c, s.get("kick_velocity"), np.median(s["total_mass"]), reference, level
@@ -76,6 +79,7 @@ def derive_event(event: Event, settings: Settings, reference: Reference | None =
         *computed.caveats,
         *band_notes,
         *window_notes,
+        *lens_notes,
         *cv.significance_caveats(event, settings.low_significance_rate, settings.large_sky_area),
     ]
     return Derived(
@@ -92,9 +96,13 @@ def derive_event(event: Event, settings: Settings, reference: Reference | None =
         windows=found,
         no_window_reason=no_window,
         comparisons=compared,
-        other_methods=methods_used(c, found, compared)
-        + ((second_generation_method,) if earlier else ()),
+        other_methods=(
+            *methods_used(c, found, compared),
+            *([LENSING] if lensed else []),
+            *([second_generation_method] if earlier else []),
+        ),
         second_generation=earlier,
+        lensing=lensed,
         samples=s,
     )
 

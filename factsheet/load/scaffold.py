@@ -41,6 +41,7 @@ estimate:
 # visibility: internal   # leave out of public builds
 # embargo_until: "2034-05-01T00:00"
 # host: {{smbh_mass: 1e8 Msun, orbit_radius: 700, disk_aspect_ratio: 0.01}}
+# what_if_lensed: [4, 25, 100]   # magnifications for the what-if-lensed panel ([] for none)
 # history: earlier estimates and changes of status, oldest first, each
 #   {{date, label, note, estimate}} or {{date, label, note, status: retracted}} (or both)
 
@@ -106,6 +107,7 @@ title: {title}
 # large_sky_area: 1000 deg2       # sky area above which a sheet says the region is large
 # mass_bands: {{}}                  # overrides of the packaged mass-band edges
 # comparisons: {{}}                 # overrides or additions to the comparison objects
+# what_if_lensed: [4, 25, 100]    # magnifications of the automatic what-if-lensed panel
 """
 
 EXAMPLE_EVENT = """\

@@ -257,6 +257,18 @@ def file_in(raw: object, base: Path, root: Path | None) -> Path:
         raise Bad(f"samples file {show(raw)}: {exc}") from None
 
 
+def magnifications(raw: object, key: Key) -> tuple[float, ...]:
+    """A short list of lens magnifications, each a finite number above 1 (``[]`` is none)."""
+    from factsheet.physics.lensing import check_magnifications  # scipy loads when needed
+
+    if not isinstance(raw, list):
+        raise Bad(f"expected a list of magnifications, e.g. {key.example}, got {show(raw)}")
+    try:
+        return check_magnifications(raw)
+    except ValueError as exc:
+        raise Bad(f"{exc} (e.g. {key.example})") from None
+
+
 def unsupported(raw: object, key: Key) -> None:
     raise Bad(f"not supported yet: {key.meaning} is not built in this version ({key.example})")
 
@@ -340,6 +352,7 @@ CONVERTERS: dict[str, Callable[[object, Key], Any]] = {
     "markdown_list": markdown_list,
     "mapping": mapping,
     "unsupported": unsupported,
+    "magnifications": magnifications,
     "interval": interval,
     "quantity": quantity,
 }

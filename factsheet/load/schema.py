@@ -66,7 +66,11 @@ EVENT_KEYS: dict[str, Key] = {
         "transients reported by observers", "describe them in the summary for now"
     ),
     "host": Key("host", "host environment for counterpart windows (disk of an active nucleus)"),
-    "what_if_lensed": unsupported("magnifications for the lensing panel", "leave it out"),
+    "what_if_lensed": Key(
+        "magnifications",
+        "magnifications for the what-if-lensed panel, each above 1 ([] for no panel)",
+        example="[4, 25, 100]",
+    ),
     "visibility": Key("choice", "public or internal", choices=("public", "internal")),
     "embargo_until": Key("time", "UTC time before which a public build leaves the event out"),
     "history": Key(
@@ -303,7 +307,12 @@ CATALOGUE_KEYS: dict[str, Key] = {
     ),
     "citation": Key("markdown", "how to cite the catalogue (Markdown), shown on every sheet"),
     "languages": unsupported("languages of the site", "leave it out (the site is in English)"),
-    "what_if_lensed": unsupported("default magnifications for the lensing panel", "leave it out"),
+    "what_if_lensed": Key(
+        "magnifications",
+        "magnifications of the what-if-lensed panel of a body probably in or above the "
+        "pair-instability gap, each above 1 ([] for no automatic panel)",
+        example="[4, 25, 100]",
+    ),
 }
 
 

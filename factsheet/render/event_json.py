@@ -13,7 +13,7 @@ from typing import Any
 import astropy.units as u
 
 from factsheet.labels import WINDOWS
-from factsheet.model import Derived, Detection
+from factsheet.model import Derived, Detection, LensedCase
 from factsheet.physics.counterparts import Window
 
 #: The version of this contract (docs/json-export.md); it changes when a key is renamed or removed.
@@ -54,6 +54,7 @@ def event_json(item: Derived) -> dict[str, Any]:
         "mass_bands": {subject: dict(bands) for subject, bands in item.mass_bands.items()},
         "intermediate_mass": dict(item.intermediate_mass),
         "counterpart_windows": [window_json(w) for w in item.windows],
+        **({} if item.lensing is None else {"what_if_lensed": lensed_json(item)}),
         "caveats": [c.as_dict() for c in item.caveats],
     } | _second_generation(item)
 
@@ -63,6 +64,31 @@ def _second_generation(item: Derived) -> dict[str, Any]:
     if not item.second_generation:
         return {}
     return {"second_generation": [g.as_dict() for g in item.second_generation]}
+
+
+def lensed_json(item: Derived) -> list[dict[str, Any]]:
+    """The what-if-lensed cases, one per magnification (present only when the event has the
+    panel): the true distance and source-frame masses as quantity summaries, the redshift's
+    median (its bounds in ``redshift_interval``), and the mass-band probabilities there."""
+    assert item.lensing is not None
+    return [_case_json(case, item.lensing.origin) for case in item.lensing.cases]
+
+
+def _case_json(case: LensedCase, origin: str) -> dict[str, Any]:
+    masses = {
+        "heavier_mass": case.heavier_mass,
+        "lighter_mass": case.lighter_mass,
+        "remnant_mass": case.remnant_mass,
+    }
+    return {
+        "magnification": case.magnification,
+        "distance": case.distance.as_dict(),
+        "redshift": case.redshift.median,
+        "redshift_interval": {"low": case.redshift.low, "high": case.redshift.high},
+        **{k: s.as_dict() for k, s in masses.items() if s is not None},
+        "mass_bands": {subject: dict(bands) for subject, bands in case.mass_bands.items()},
+        "origin": origin,
+    }
 
 
 def detection_json(found: Detection) -> dict[str, Any]:

@@ -17,7 +17,7 @@ import numpy as np
 from factsheet import figures as fg
 from factsheet import labels
 from factsheet.model import Derived, SiteFigure
-from factsheet.notation import format_value
+from factsheet.notation import format_median, format_value
 from factsheet.physics import inspiral
 from factsheet.render import numbers
 from factsheet.render.contexts import display_summary
@@ -91,6 +91,8 @@ def event_figures(item: Derived) -> list[SiteFigure]:
     )
     if "energy_radiated" in q:
         out.extend(_comparisons(item, base))
+    if item.lensing is not None and item.lensing.cases:
+        out.append(lensing_figure(item, base))
     if item.windows:
         windows = [
             fg.WindowItem(
@@ -120,6 +122,39 @@ def event_figures(item: Derived) -> list[SiteFigure]:
         )
     out.append(share_image(item))
     return out
+
+
+def lensing_figure(item: Derived, base: str) -> SiteFigure:
+    """Source-frame masses without a lens and at each magnification of the what-if-lensed
+    panel, against the pair-instability gap (numbers from derive; medians as printed)."""
+    from factsheet.figures.lensing import LensColumn, LensMass, lensed_masses
+
+    assert item.lensing is not None
+    roles = {"heavier_mass": "primary", "lighter_mass": "secondary", "remnant_mass": "remnant"}
+    q = item.quantities
+    unlensed = tuple(
+        LensMass(labels.QUANTITIES[k].short, role, q[k].median, q[k].low, q[k].high,
+                 median_text(item, k))
+        for k, role in roles.items() if k in q
+    )  # fmt: skip
+    columns = [LensColumn("none", unlensed)]
+    for case in item.lensing.cases:
+        found = {k: getattr(case, k) for k in roles}
+        lensed = tuple(
+            LensMass(labels.QUANTITIES[k].short, roles[k], s.median, s.low, s.high,
+                     format_median(s.median, s.low, s.high, s.unit))
+            for k, s in found.items() if s is not None
+        )  # fmt: skip
+        columns.append(LensColumn(f"{case.magnification:g}×", lensed))
+    edges = item.reference.mass_bands
+    low, high = (e.value.to_value(u.Msun) for e in (edges.pair_instability_lower,
+                                                     edges.pair_instability_upper))  # fmt: skip
+    return _save(
+        f"{base}-lensing.svg",
+        lambda: lensed_masses(columns, (low, high), labels.BANDS["pair_instability_gap"]),
+        "Masses (source frame) if a lens had magnified the signal, against the "
+        "pair-instability gap; “none” is the sheet's own estimate.",
+    )
 
 
 #: The word across the top of a sharing image, by status (a confirmed event shows none).

@@ -32,6 +32,7 @@ from factsheet.render import prose
 from factsheet.render.assets import samples_path
 from factsheet.render.contexts import Link, display_summary, page_of, time_utc
 from factsheet.render.history import HistoryStep, history_steps
+from factsheet.render.lensing import LENSING_NOTES, LensPanel, lens_panel
 from factsheet.render.numbers import estimate_texts, value_text
 from factsheet.render.windows import WindowRow, window_rows
 
@@ -67,6 +68,7 @@ FIGURE_GROUPS = {
     "-track.svg": "signal",
     "-windows.svg": "windows",
     "-history.svg": "history",
+    "-lensing.svg": "lensing",
 }
 
 
@@ -136,6 +138,7 @@ class EventPage:
     later: tuple[Caveat, ...]  # sheet-wide caveats beyond MAX_BOXES, after the numbers
     groups: tuple[Group, ...]
     bands: BandTable | None
+    lensing: LensPanel | None  # the what-if-lensed panel, after the numbers' groups
     made: tuple[str, ...]  # the "how these numbers were made" paragraph
     earlier: tuple[str, ...]  # could a body come from an earlier merger (sentences), or ()
     windows: tuple[WindowRow, ...]
@@ -158,12 +161,15 @@ class EventPage:
 
 
 def place(caveats: Iterable[Caveat]) -> dict[str, list[Caveat]]:
-    """Each caveat by where the sheet shows it: boxes, rows, routine, windows, remnant, prose."""
+    """Each caveat by where the sheet shows it: boxes, rows, routine, windows, remnant, prose
+    and the what-if-lensed panel."""
     found: dict[str, list[Caveat]] = {
-        k: [] for k in ("boxes", "rows", "routine", "windows", "remnant", "prose")
+        k: [] for k in ("boxes", "rows", "routine", "windows", "remnant", "prose", "lensing")
     }
     for c in caveats:
-        if c.code in ROUTINE:
+        if c.code in LENSING_NOTES:
+            found["lensing"].append(c)
+        elif c.code in ROUTINE:
             found["routine"].append(c)
         elif c.code in WINDOW_NOTES:
             found["windows"].append(c)
@@ -380,6 +386,7 @@ def event_page(
         later=tuple(placed["boxes"][MAX_BOXES:]),
         groups=groups(item, notes, placed, shown),
         bands=band_table(item, notes),
+        lensing=lens_panel(item, placed["lensing"], shown),
         made=made(item, placed),
         earlier=earlier_merger(item),
         windows=window_rows(item),

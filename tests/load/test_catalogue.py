@@ -90,12 +90,6 @@ SKY_AREA = "  sky_area: 580 deg2\n"
             19,
             "counterpart_candidates",
         ),
-        (
-            "summary: A *test* event.\n",
-            "summary: A *test* event.\nwhat_if_lensed: [2, 4]\n",
-            19,
-            "what_if_lensed",
-        ),
     ],
 )
 def test_event_keys_not_supported_yet(catalogue, old, new, line, key):
@@ -109,7 +103,6 @@ def test_event_keys_not_supported_yet(catalogue, old, new, line, key):
     "setting",
     [
         "languages: [en, fr]\n",
-        "what_if_lensed: [2, 4]\n",
     ],
 )
 def test_catalogue_keys_not_supported_yet(catalogue, setting):

@@ -17,6 +17,7 @@ from factsheet.physics import (
     inspiral,
     kerr,
     kick,
+    lensing,
     luminosity,
     precession,
     registry,
@@ -85,6 +86,7 @@ EXPORTED_IDS = [
     disruption.BARYON_MASS,
     comparisons.COMPARISON,
     second_generation.METHOD,
+    lensing.METHOD,
 ]
 # Parameters a calibration range may name: the mass ratio and the spins of the heavier body, the
 # lighter body and the remnant (checked on the samples), the redshift, the Kerr spin of the ISCO
