@@ -79,7 +79,8 @@ class _Half:
         if self.spread == 0 or self.room == 0:
             return np.zeros_like(share)
         if self.normal:
-            top = float(ndtr(self.room / self.scale)) if math.isfinite(self.room) else 1.0
+            with np.errstate(over="ignore"):  # a limit far beyond a tiny spread: ndtr(inf) = 1
+                top = float(ndtr(self.room / self.scale)) if math.isfinite(self.room) else 1.0
             tail = 1 - share if lower_tail is None else lower_tail
             t = (1 - top) + tail * (top - 0.5)  # the lower-tail probability of the distance
             return -self.scale * ndtri(np.clip(t, 1e-300, 0.5))
@@ -99,7 +100,8 @@ def _cut(spread: float, room: float, scale: float) -> float:
     the share of the half beyond the limit."""
     if math.isinf(room):
         return 0.0
-    return float(2 * ndtr(-room / scale))
+    with np.errstate(over="ignore"):  # a limit far beyond a tiny spread: no share is cut
+        return float(2 * ndtr(-room / scale))
 
 
 def _solve_scale(spread: float, room: float, level: float) -> float:

@@ -48,20 +48,20 @@ def second_generation(
     along = spins * rng.uniform(-1, 1, spins.size)  # the component along the next orbit
     found = []
     for subject in subjects:
-        mass_2g = summarise(masses * u.Msun, level)
-        along_2g = summarise(along * u.one, level)
+        second_mass = summarise(masses * u.Msun, level)
+        second_along = summarise(along * u.one, level)
         body = s[SUBJECTS[subject]].to_value(u.Msun)
-        inside_mass = float(np.mean((body >= mass_2g.low) & (body <= mass_2g.high)))
+        inside_mass = float(np.mean((body >= second_mass.low) & (body <= second_mass.high)))
         inside_spin = None
         if subject in spins_given:
             chi = s[SPINS[subject]].value
-            inside_spin = float(np.mean((chi >= along_2g.low) & (chi <= along_2g.high)))
+            inside_spin = float(np.mean((chi >= second_along.low) & (chi <= second_along.high)))
         found.append(
             SecondGeneration(
                 subject,
-                mass_2g,
+                second_mass,
                 summarise(spins * u.one, level),
-                along_2g,
+                second_along,
                 inside_mass,
                 inside_spin,
             )
