@@ -72,7 +72,12 @@ def test_sigkill_during_build_leaves_old_or_new_site(tmp_path):
         process.send_signal(signal.SIGKILL)
         process.wait()
         after = _snapshot(out)
-        assert after in (current, expected_new), f"mixed site after a kill at {fraction:.0%}"
+        differ = sorted(
+            k for k in set(after) | set(expected_new) if after.get(k) != expected_new.get(k)
+        )
+        assert after in (current, expected_new), (
+            f"mixed site after a kill at {fraction:.0%}; differs from the new site in {differ[:8]}"
+        )
         outcomes.append(after == expected_new)
         if after == expected_new:  # the swap completed: go back to the old site and go on
             assert _build(old, out).returncode == 0
