@@ -268,8 +268,3 @@ def parameter(key: str) -> str:
 def sentence(text: str) -> str:
     """``text`` with its first letter upper-case, to start a sentence (the rest unchanged)."""
     return text[:1].upper() + text[1:]
-
-
-def percent_level(level: float) -> str:
-    """A credible level as a range's name: ``90 %``."""
-    return f"{100 * level:.3g}\u00a0%"

@@ -38,11 +38,6 @@ def about(summary: Summary) -> str:
     return format_about(summary.median, summary.low, summary.high)
 
 
-def as_in_table(item: Derived, key: str, scale: float = 1.0) -> str:
-    """The median of a quantity exactly as the sheet's table prints it, without unit."""
-    return median_text(item, key, scale)
-
-
 def likely_band(item: Derived, subject: str) -> str:
     """The mass band a subject most probably lies in."""
     probs = item.mass_bands.get(subject, {})
@@ -51,7 +46,7 @@ def likely_band(item: Derived, subject: str) -> str:
 
 def _body(item: Derived, subject: str) -> str:
     """One body as the first sentence names it: "a black hole of about 49 solar masses"."""
-    mass = as_in_table(item, f"{subject}_mass")
+    mass = median_text(item, f"{subject}_mass")
     noun = BODY_NOUNS[likely_band(item, subject)]
     if noun is None:
         return f"an object of about {mass} solar masses, {GAP_OBJECT},"
@@ -62,7 +57,7 @@ def _bodies(item: Derived) -> str:
     """Both bodies: "two black holes of about 49 and 5.4 solar masses" when one noun fits."""
     nouns = [BODY_NOUNS[likely_band(item, s)] for s in ("heavier", "lighter")]
     if nouns[0] == nouns[1] and nouns[0] is not None:
-        masses = [as_in_table(item, f"{s}_mass") for s in ("heavier", "lighter")]
+        masses = [median_text(item, f"{s}_mass") for s in ("heavier", "lighter")]
         return f"two {nouns[0]}s of about {masses[0]} and {masses[1]} times the mass of the Sun"
     return f"{_body(item, 'heavier')} and {_body(item, 'lighter')}"
 
@@ -101,11 +96,11 @@ def _remnant(item: Derived, conditional: bool = False) -> list[str]:
         ("would have left", "would have radiated") if conditional else ("left", "radiated")
     )
     if "remnant_mass" in q:
-        share = as_in_table(item, "remnant_spin", 100).lstrip("−")
+        share = median_text(item, "remnant_spin", 100).lstrip("−")
         text.append(
-            f"They {left} a single black hole of about {as_in_table(item, 'remnant_mass')} solar "
+            f"They {left} a single black hole of about {median_text(item, 'remnant_mass')} solar "
             f"masses, spinning at about {share} % of the maximum a black hole can have, and "
-            f"{radiated} about {as_in_table(item, 'radiated_mass')} solar masses of energy as "
+            f"{radiated} about {median_text(item, 'radiated_mass')} solar masses of energy as "
             "gravitational waves."
         )
     compared = item.comparisons

@@ -26,6 +26,7 @@ from factsheet.model import Audio, Caveat, Derived, Edge, Event, FigureInfo, Sum
 from factsheet.notation import (
     format_like_interval,
     format_value,
+    percent,
 )
 from factsheet.physics.second_generation import MIN_MASS
 from factsheet.render import prose
@@ -305,7 +306,7 @@ def earlier_merger(item: Derived) -> tuple[str, ...]:
         f"Stars are not expected to leave black holes in the pair-instability gap, but a merger "
         f"can. A merger of two black holes below the gap (each of {MIN_MASS:g}–{edge:g} solar "
         f"masses, with small spins in random directions) leaves a remnant of {mass} spinning "
-        f"at {spin} ({labels.percent_level(g.mass.level)} ranges, from the fits used above)."
+        f"at {spin} ({percent(g.mass.level)} ranges, from the fits used above)."
     ]
     for found in item.second_generation:
         body = f"The {found.subject} body's mass"
@@ -381,7 +382,7 @@ def event_page(
         time_utc=time_utc(event),
         opening=opening(event),
         headline=tuple(headline),
-        detection=tuple(prose.detection(item, large_sky, rate_in_box=_rate_in_box(placed))),
+        detection=tuple(prose.detection(item, large_sky, rate_in_box=_rate_in_box(item, placed))),
         boxes=tuple(placed["boxes"][:MAX_BOXES]),
         later=tuple(placed["boxes"][MAX_BOXES:]),
         groups=groups(item, notes, placed, shown),
@@ -409,12 +410,12 @@ def event_page(
     )
 
 
-def _rate_in_box(placed: dict[str, list[Caveat]]) -> bool:
-    """Whether a box before the numbers already gives the false-alarm rate in words."""
-    return any(
-        c.code == "low-significance" or (c.code == "candidate" and "Noise alone" in c.text)
-        for c in placed["boxes"][:MAX_BOXES]
-    )
+def _rate_in_box(item: Derived, placed: dict[str, list[Caveat]]) -> bool:
+    """Whether a box before the numbers already gives the false-alarm rate in words (derive
+    puts it in a candidate's box, or in a low-significance one, above the catalogue's rate)."""
+    far = item.event.detection.false_alarm_rate
+    high = far is not None and far > item.settings.low_significance_rate
+    return high and any(c.code in ("candidate", "low-significance") for c in placed["boxes"])
 
 
 def estimate_date(event: Event) -> str:

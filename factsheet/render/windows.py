@@ -49,14 +49,19 @@ def precision(width_seconds: float) -> str:
     return next(name for limit, name in PRECISIONS if width_seconds < limit)
 
 
+#: The fields of a datetime below each precision, which rounding down sets to their start.
+BELOW = {
+    "second": ("microsecond",),
+    "minute": ("second", "microsecond"),
+    "hour": ("minute", "second", "microsecond"),
+    "day": ("hour", "minute", "second", "microsecond"),
+    "month": ("hour", "minute", "second", "microsecond"),
+}
+
+
 def _floor(t: datetime, unit: str) -> datetime:
-    if unit == "month":
-        return t.replace(day=1, hour=0, minute=0, second=0, microsecond=0)
-    keep = {"second": {"microsecond": 0}, "minute": {"second": 0, "microsecond": 0}}
-    fields = keep.get(unit) or {"minute": 0, "second": 0, "microsecond": 0}
-    if unit == "day":
-        fields = {"hour": 0, **fields}
-    return t.replace(**fields)
+    start = dict.fromkeys(BELOW[unit], 0) | ({"day": 1} if unit == "month" else {})
+    return t.replace(**start)
 
 
 def _ceil(t: datetime, unit: str) -> datetime:
