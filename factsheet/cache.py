@@ -206,7 +206,10 @@ class Cache:
                 for name, data in files.items()
             }
             entry = {"format": FORMAT, **entry, "files": recorded}
-            (staging / ENTRY).write_text(json.dumps(entry, sort_keys=True), encoding="utf-8")
+            # keys stay in insertion order: a bundle read back must give the pages and the JSON
+            # export the same bytes as the bundle it was made from (sorted keys reordered the
+            # class probabilities and mass bands of an event's JSON)
+            (staging / ENTRY).write_text(json.dumps(entry), encoding="utf-8")
             final = self.root / key
             shutil.rmtree(final, ignore_errors=True)
             os.replace(staging, final)

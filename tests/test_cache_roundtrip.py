@@ -1,0 +1,31 @@
+"""A bundle read back from the build cache renders exactly as the bundle it was made from.
+
+A build killed after storing an event's bundle but before storing its pages makes the next
+build render those pages from the cached bundle; they must be the bytes a fresh build writes.
+"""
+
+from __future__ import annotations
+
+import json
+
+from helpers import VALID_EVENT
+
+from factsheet.build import _summaries_only, event_bundle
+from factsheet.cache import Cache, event_key
+from factsheet.load import load_catalogue
+from factsheet.load.reference import reference_for
+from factsheet.render.event_json import event_json
+
+
+def test_a_cached_bundle_gives_the_same_json_bytes(catalogue, tmp_path):
+    cat = load_catalogue(catalogue({"a.yaml": VALID_EVENT}))
+    (event,) = cat.events
+    reference = reference_for(cat.settings)
+    made = event_bundle(event, cat.settings, reference)
+    cache = Cache(tmp_path / "site")
+    key = event_key(event, cat.settings)
+    cache.store(key, made)
+    read = Cache(tmp_path / "site").load(key, event, cat.settings, reference)
+    assert read is not None
+    fresh = json.dumps(event_json(_summaries_only(made.derived)), indent=2)
+    assert json.dumps(event_json(read.derived), indent=2) == fresh
