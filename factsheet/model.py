@@ -199,13 +199,44 @@ class Estimate:
 
 
 @dataclass(frozen=True)
+class SkyMapFile:
+    """A HEALPix probability map as checked by the load stage: where it is and how it is laid
+    out. The probabilities are read again where they are used (a map can hold 50 million
+    pixels, too many to keep for every event of a catalogue).
+
+    ``digest`` is the SHA-256 of the file's bytes; ``ordering`` is ``RING`` or ``NESTED``;
+    ``column`` names the probability column of the file's table.
+    """
+
+    path: Path
+    digest: str
+    nside: int
+    ordering: str
+    column: str
+
+
+@dataclass(frozen=True)
 class Detection:
-    """What the search reported: the sites, the signal-to-noise ratio, significance, sky area."""
+    """What the search reported: the sites, the signal-to-noise ratio, significance, sky area
+    and the sky map."""
 
     network: tuple[str, ...] = ()
     snr: float | None = None
     false_alarm_rate: u.Quantity | None = None
     sky_area: u.Quantity | None = None
+    sky_map: SkyMapFile | None = None
+
+
+@dataclass(frozen=True)
+class CounterpartCandidate:
+    """A transient reported by observers: its name, position (equatorial, degrees), time and
+    the editors' note."""
+
+    name: str
+    ra: u.Quantity
+    dec: u.Quantity
+    time: Time
+    note: str = ""
 
 
 @dataclass(frozen=True)
@@ -260,6 +291,7 @@ class Event:
     detection: Detection = field(default_factory=Detection)
     history: tuple[HistoryEntry, ...] = ()
     samples: SamplesFile | None = None
+    counterpart_candidates: tuple[CounterpartCandidate, ...] = ()
     host: Host | None = None
     what_if_lensed: tuple[float, ...] | None = None  # magnifications asked for; None: automatic
     visibility: str = "public"
@@ -512,6 +544,40 @@ class Lensing:
 
 
 @dataclass(frozen=True)
+class SkyMapSummary:
+    """What the sheet says of a sky map: the 50 % and 90 % credible areas, the area at the
+    catalogue's credible level, and the most probable position.
+
+    ``levels`` is the map's credible level on a grid of ``height`` × ``width`` cells (rows of
+    declination from −90°, columns of right ascension from 0°) for the figures; it is not kept
+    in the build's cache (empty there).
+    """
+
+    nside: int
+    ordering: str
+    area_50: u.Quantity
+    area_90: u.Quantity
+    area: u.Quantity  # at the catalogue's credible level
+    peak_ra: u.Quantity
+    peak_dec: u.Quantity
+    levels: np.ndarray = field(default_factory=lambda: np.empty((0, 0)), compare=False, repr=False)
+
+
+@dataclass(frozen=True)
+class CandidateReading:
+    """A counterpart candidate read against the sheet: the sky map's credible level at its
+    position (None without a map), its delay after the merger in the observer's frame and in
+    the source frame (a summary over the redshift samples), and the keys of the counterpart
+    windows it falls in."""
+
+    candidate: CounterpartCandidate
+    credible_level: float | None
+    delay: u.Quantity  # days, observer frame; negative before the merger
+    delay_source: Summary  # days, source frame
+    windows: tuple[str, ...] = ()
+
+
+@dataclass(frozen=True)
 class Derived:
     """Everything derived for one event: summaries, classes, bands, windows and caveats.
 
@@ -535,6 +601,8 @@ class Derived:
     other_methods: tuple[str, ...] = ()  # methods behind the class, bands, windows, comparisons
     second_generation: tuple[SecondGeneration, ...] = ()  # bodies in or above the gap
     lensing: Lensing | None = None  # the what-if-lensed panel, when asked for or automatic
+    sky_map: SkyMapSummary | None = None
+    candidates: tuple[CandidateReading, ...] = ()
     samples: Mapping[str, u.Quantity] = field(default_factory=dict, compare=False, repr=False)
 
     @property
