@@ -210,13 +210,17 @@ def event_bundle(event: Event, settings: Settings, reference: Reference) -> Even
 
 
 def _summaries_only(item: Derived) -> Derived:
-    """The derived event without its samples (or its samples file's values): the pages need
-    only the summaries, and the bundle is kept in the cache and in memory for every event."""
+    """The derived event without its samples (or its samples file's values) or its sky map's
+    level grid: the pages need only the summaries, and the bundle is kept in the cache and in
+    memory for every event."""
     event = item.event
     if event.samples is not None:
         empty = {path: np.empty(0) for path in event.samples.values}  # keep which columns
         event = replace(event, samples=replace(event.samples, values=empty))
-    return replace(item, event=event, samples={})
+    mapped = item.sky_map
+    if mapped is not None:
+        mapped = replace(mapped, levels=np.empty((0, 0), dtype=np.float32))
+    return replace(item, event=event, samples={}, sky_map=mapped)
 
 
 def _work(args: tuple[Event, Settings, Reference]) -> EventBundle | BaseException:

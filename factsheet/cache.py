@@ -30,6 +30,7 @@ from factsheet import __version__
 from factsheet.errors import BuildError
 from factsheet.model import (
     Audio,
+    CandidateReading,
     Caveat,
     Comparisons,
     Derived,
@@ -41,13 +42,14 @@ from factsheet.model import (
     Reference,
     SecondGeneration,
     Settings,
+    SkyMapSummary,
     Summary,
 )
 from factsheet.physics.counterparts import Window
 from factsheet.publish import regular_files
 from factsheet.resources import PACKAGE
 
-FORMAT = "3"
+FORMAT = "4"
 ENTRY = "entry.json"
 MAX_ENTRY_BYTES = 4_000_000  # an entry's JSON is a few kilobytes; anything far larger is not ours
 
@@ -258,10 +260,53 @@ def bundle_to_json(bundle: EventBundle) -> dict[str, Any]:
         "sun_years": None if d.comparisons.sun_years is None else d.comparisons.sun_years.value,
         "other_methods": list(d.other_methods),
         "lensing": None if d.lensing is None else asdict(d.lensing),
+        "sky_map": _sky_json(d.sky_map),
+        "candidates": [
+            {
+                "credible_level": r.credible_level,
+                "delay_days": float(r.delay.to_value(u.d)),
+                "delay_source": asdict(r.delay_source),
+                "windows": list(r.windows),
+            }
+            for r in d.candidates
+        ],
         "figures": [[f.path, f.alt, f.caption] for f in bundle.figures],
         "audio": asdict(bundle.audio),
         "figure_seconds": bundle.figure_seconds,
     }
+
+
+def _sky_json(found: SkyMapSummary | None) -> dict[str, Any] | None:
+    """The sky map's numbers (its level grid is for the figures, drawn before caching)."""
+    if found is None:
+        return None
+    areas = {k: float(getattr(found, k).to_value(u.deg**2)) for k in ("area_50", "area_90", "area")}
+    peak = {k: float(getattr(found, k).to_value(u.deg)) for k in ("peak_ra", "peak_dec")}
+    return {"nside": found.nside, "ordering": found.ordering, **areas, **peak}
+
+
+def _sky(data: dict[str, Any] | None) -> SkyMapSummary | None:
+    if data is None:
+        return None
+    areas = {k: float(data[k]) * u.deg**2 for k in ("area_50", "area_90", "area")}
+    peak = {k: float(data[k]) * u.deg for k in ("peak_ra", "peak_dec")}
+    return SkyMapSummary(nside=int(data["nside"]), ordering=str(data["ordering"]), **areas, **peak)
+
+
+def _readings(data: list[dict[str, Any]], event: Event) -> tuple[CandidateReading, ...]:
+    """The candidates' readings, paired with the event's candidates in order."""
+    if len(data) != len(event.counterpart_candidates):
+        raise ValueError("the cached candidates do not match the event's")
+    return tuple(
+        CandidateReading(
+            candidate=c,
+            credible_level=None if r["credible_level"] is None else float(r["credible_level"]),
+            delay=float(r["delay_days"]) * u.d,
+            delay_source=_summary(r["delay_source"]),
+            windows=tuple(map(str, r["windows"])),
+        )
+        for c, r in zip(event.counterpart_candidates, data, strict=True)
+    )
 
 
 def _window_json(w: Window) -> dict[str, Any]:
@@ -303,6 +348,8 @@ def bundle_from_json(
         other_methods=tuple(data["other_methods"]),
         second_generation=tuple(SecondGeneration.from_fields(g) for g in data["second_generation"]),
         lensing=_lensing(data["lensing"]),
+        sky_map=_sky(data["sky_map"]),
+        candidates=_readings(data["candidates"], event),
     )
     figures = tuple(FigureInfo(*map(str, f)) for f in data["figures"])
     return EventBundle(derived, figures, Audio(**data["audio"]), {}, data["figure_seconds"])

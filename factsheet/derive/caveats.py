@@ -221,12 +221,17 @@ def input_caveats(
 
 
 def significance_caveats(
-    event: Event, far_threshold: u.Quantity, sky_threshold: u.Quantity
+    event: Event,
+    far_threshold: u.Quantity,
+    sky_threshold: u.Quantity,
+    map_area: u.Quantity | None = None,
 ) -> list[Caveat]:
     """Low significance (of a confirmed event: a candidate's own caveat says it) and large sky
-    area (thresholds are common practice, not a standard)."""
+    area, the sky map's 90 % area when there is a map (thresholds are common practice, not a
+    standard)."""
     notes = []
-    far, sky = event.detection.false_alarm_rate, event.detection.sky_area
+    far = event.detection.false_alarm_rate
+    sky = event.detection.sky_area if map_area is None else map_area
     if far is not None and far > far_threshold and event.status == "confirmed":
         notes.append(
             Caveat(

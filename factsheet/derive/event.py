@@ -26,6 +26,7 @@ from factsheet.derive.sampling import (
     used_paths,
 )
 from factsheet.derive.second_generation import second_generation
+from factsheet.derive.sky import candidate_readings, sky_caveats, sky_map
 from factsheet.derive.spins import SpinSamples, spin_samples
 from factsheet.derive.summaries import summarise
 from factsheet.derive.windows import comparison_values, methods_used, windows
@@ -64,6 +65,8 @@ def derive_event(event: Event, settings: Settings, reference: Reference | None =
     found, no_window, window_notes = windows(
         event, z, c, s.get("kick_velocity"), np.median(s["total_mass"]), reference, level
     )
+    mapped, at_candidates = sky_map(event, level)
+    readings = candidate_readings(event, s["redshift"].value, found, at_candidates, level)
     medians = {k: np.median(s[k]) for k in ("energy_radiated", "peak_luminosity") if k in s}
     compared = comparison_values(
         medians.get("energy_radiated"), medians.get("peak_luminosity"), reference
@@ -80,7 +83,13 @@ def derive_event(event: Event, settings: Settings, reference: Reference | None =
         *band_notes,
         *window_notes,
         *lens_notes,
-        *cv.significance_caveats(event, settings.low_significance_rate, settings.large_sky_area),
+        *sky_caveats(event, mapped),
+        *cv.significance_caveats(
+            event,
+            settings.low_significance_rate,
+            settings.large_sky_area,
+            None if mapped is None else mapped.area_90,
+        ),
     ]
     return Derived(
         event=event,
@@ -103,6 +112,8 @@ def derive_event(event: Event, settings: Settings, reference: Reference | None =
         ),
         second_generation=earlier,
         lensing=lensed,
+        sky_map=mapped,
+        candidates=readings,
         samples=s,
     )
 

@@ -1,9 +1,10 @@
 """Check one YAML file against the key tables of :mod:`factsheet.load.schema`.
 
 A :class:`Checker` walks a mapping key by key, converts each value by its kind (plain kinds in
-:mod:`factsheet.load.scalars`, structured ones — detection, estimate, body, history, host,
-limits, file paths — here) and appends a :class:`~factsheet.errors.Problem` with the line and
-key path for each bad value, so one run reports every problem of a file.
+:mod:`factsheet.load.scalars`, structured ones — detection, estimate, body, history,
+counterpart candidates, host, limits, file paths — here) and appends a
+:class:`~factsheet.errors.Problem` with the line and key path for each bad value, so one run
+reports every problem of a file.
 """
 
 from __future__ import annotations
@@ -17,14 +18,24 @@ from factsheet.load import scalars, spins
 from factsheet.load.scalars import Bad, show
 from factsheet.load.schema import (
     BODY_KEYS,
+    CANDIDATE_KEYS,
     DETECTION_KEYS,
     ESTIMATE_KEYS,
     HISTORY_KEYS,
     HOST_KEYS,
+    MAX_CANDIDATES,
     Key,
 )
 from factsheet.load.yaml_lines import LineList, LineMap
-from factsheet.model import Body, Detection, Estimate, HistoryEntry, Host, Limits
+from factsheet.model import (
+    Body,
+    CounterpartCandidate,
+    Detection,
+    Estimate,
+    HistoryEntry,
+    Host,
+    Limits,
+)
 
 
 class Checker:
@@ -232,6 +243,26 @@ class Checker:
                 continue
             entries.append(HistoryEntry(**values))
         return tuple(entries)
+
+    def _candidates(self, raw, key, path, line) -> tuple[CounterpartCandidate, ...] | None:
+        """Transients reported by observers: a short list, each named once."""
+        if not isinstance(raw, LineList):
+            self.fail(line, path, f"expected a list of transients, e.g. {key.example}")
+            return None
+        if len(raw) > MAX_CANDIDATES:
+            self.fail(line, path, f"{len(raw)} candidates, at most {MAX_CANDIDATES}")
+            return None
+        found: list[CounterpartCandidate] = []
+        for i, item in enumerate(raw):
+            where = f"{path}[{i}]"
+            values = self._section(item, CANDIDATE_KEYS, where, raw.line_of(i), "")
+            if values is None:
+                continue
+            if any(c.name == values["name"] for c in found):
+                self.fail(item.line_of("name"), f"{where}.name", "a second candidate of this name")
+                continue
+            found.append(CounterpartCandidate(**values))
+        return tuple(found)
 
     def _host(self, raw, key, path, line) -> Host | None:
         values = self._section(raw, HOST_KEYS, path, line, "")

@@ -62,8 +62,10 @@ EVENT_KEYS: dict[str, Key] = {
     "detection": Key("detection", "what the search reported: network, snr, significance, sky"),
     "estimate": Key("estimate", "the current estimate: the two bodies, spins and distance", True),
     "samples": Key("path", "posterior samples (CSV), relative to this file", example="a.csv"),
-    "counterpart_candidates": unsupported(
-        "transients reported by observers", "describe them in the summary for now"
+    "counterpart_candidates": Key(
+        "candidates",
+        "transients reported by observers, each {name, ra, dec, time, note}",
+        example="[{name: Flare F-1, ra: 47.3 deg, dec: -21.6 deg, time: \"2034-04-25T03:00\"}]",
     ),
     "host": Key("host", "host environment for counterpart windows (disk of an active nucleus)"),
     "what_if_lensed": Key(
@@ -208,6 +210,39 @@ HISTORY_KEYS: dict[str, Key] = {
         example="retracted",
         choices=("candidate", "confirmed", "retracted"),
     ),
+}
+
+#: At most this many counterpart candidates on one sheet: a short list of reported transients.
+MAX_CANDIDATES = 20
+
+#: One counterpart candidate: a transient reported by observers.
+CANDIDATE_KEYS: dict[str, Key] = {
+    "name": Key("text", "the transient's name as reported", True, example="Flare F-1"),
+    "ra": Key(
+        "quantity",
+        "right ascension (equatorial, J2000)",
+        True,
+        "angle",
+        "47.3 deg",
+        low=0.0,
+        high=360.0,
+        low_inclusive=True,
+        high_inclusive=False,
+        canonical_unit="deg",
+    ),
+    "dec": Key(
+        "quantity",
+        "declination (equatorial, J2000)",
+        True,
+        "angle",
+        "-21.6 deg",
+        low=-90.0,
+        high=90.0,
+        low_inclusive=True,
+        canonical_unit="deg",
+    ),
+    "time": Key("time", "when the transient was seen, UTC", True, example="2034-04-25T03:00"),
+    "note": Key("markdown", "what was reported (Markdown)"),
 }
 
 HOST_KEYS: dict[str, Key] = {

@@ -54,6 +54,7 @@ def event_json(item: Derived) -> dict[str, Any]:
         "mass_bands": {subject: dict(bands) for subject, bands in item.mass_bands.items()},
         "intermediate_mass": dict(item.intermediate_mass),
         "counterpart_windows": [window_json(w) for w in item.windows],
+        **sky_json(item),
         **({} if item.lensing is None else {"what_if_lensed": lensed_json(item)}),
         "caveats": [c.as_dict() for c in item.caveats],
     } | _second_generation(item)
@@ -102,6 +103,47 @@ def detection_json(found: Detection) -> dict[str, Any]:
         else {"value": far.to_value(1 / u.yr), "unit": "1 / yr"},
         "sky_area": None if sky is None else {"value": sky.to_value(u.deg**2), "unit": "deg2"},
     }
+
+
+def _degrees(angle: u.Quantity) -> dict[str, Any]:
+    return {"value": float(angle.to_value(u.deg)), "unit": "deg"}
+
+
+def _square_degrees(area: u.Quantity) -> dict[str, Any]:
+    return {"value": float(area.to_value(u.deg**2)), "unit": "deg2"}
+
+
+def sky_json(item: Derived) -> dict[str, Any]:
+    """The sky map's areas and most probable position, and each counterpart candidate read
+    against the map, the merger time and the windows (each key only when the input has it)."""
+    out: dict[str, Any] = {}
+    found = item.sky_map
+    if found is not None:
+        out["sky_map"] = {
+            "nside": found.nside,
+            "ordering": found.ordering,
+            "area_50": _square_degrees(found.area_50),
+            "area_90": _square_degrees(found.area_90),
+            "area_at_credible_level": _square_degrees(found.area),
+            "peak": {"ra": _degrees(found.peak_ra), "dec": _degrees(found.peak_dec)},
+        }
+    if item.candidates:
+        out["counterpart_candidates"] = [
+            {
+                "name": r.candidate.name,
+                "ra": _degrees(r.candidate.ra),
+                "dec": _degrees(r.candidate.dec),
+                "time_utc": r.candidate.time.utc.isot,
+                "note": r.candidate.note,
+                "credible_level": r.credible_level,
+                "delay": {"value": float(r.delay.to_value(u.d)), "unit": "d"},
+                "delay_source": r.delay_source.as_dict(),
+                "in_window": WINDOWS[r.windows[0]].name if r.windows else None,
+                "windows": list(r.windows),
+            }
+            for r in item.candidates
+        ]
+    return out
 
 
 def window_json(window: Window) -> dict[str, str]:

@@ -173,8 +173,9 @@ def detection(item: Derived, large_sky: bool = False, rate_in_box: bool = False)
     if found.false_alarm_rate is not None and not retracted and not rate_in_box:
         rate = found.false_alarm_rate.to_value(1 / u.yr)
         text.append(f"Noise alone would make a signal like this {how_often(rate)}.")
-    if found.sky_area is not None:
-        area = found.sky_area.to_value(u.deg**2)
+    mapped = item.sky_map
+    if mapped is not None or found.sky_area is not None:
+        area = (found.sky_area if mapped is None else mapped.area_90).to_value(u.deg**2)
         share = format_value(100 * area / WHOLE_SKY_DEG2, "", 1)
         line = (
             f"The 90 % credible sky region covers {format_value(area, '', 2)} square degrees, "

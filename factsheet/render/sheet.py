@@ -35,6 +35,7 @@ from factsheet.render.contexts import Link, display_summary, page_of, time_utc
 from factsheet.render.history import HistoryStep, history_steps
 from factsheet.render.lensing import LENSING_NOTES, LensPanel, lens_panel
 from factsheet.render.numbers import estimate_texts, value_text
+from factsheet.render.sky import SkyPanel, sky_panel
 from factsheet.render.windows import WindowRow, window_rows
 
 MAX_BOXES = 3
@@ -70,6 +71,7 @@ FIGURE_GROUPS = {
     "-windows.svg": "windows",
     "-history.svg": "history",
     "-lensing.svg": "lensing",
+    "-sky.svg": "sky",
 }
 
 
@@ -145,6 +147,7 @@ class EventPage:
     windows: tuple[WindowRow, ...]
     window_text: tuple[str, ...]
     window_figures: tuple[FigureInfo, ...]
+    sky: SkyPanel | None  # where in the sky: the map and the counterpart candidates
     comparison_rows: tuple[ComparisonRow, ...]
     history: tuple[HistoryStep, ...]
     history_figures: tuple[FigureInfo, ...]
@@ -393,6 +396,7 @@ def event_page(
         windows=window_rows(item),
         window_text=tuple(c.text for c in placed["windows"]),
         window_figures=tuple(f for f in shown if _figure_group(f) == "windows"),
+        sky=sky_panel(item, tuple(f for f in shown if _figure_group(f) == "sky")),
         comparison_rows=() if retracted else comparison_rows(item),
         history=tuple(history_steps(event, estimate_texts(item))),
         history_figures=tuple(f for f in shown if _figure_group(f) == "history"),
