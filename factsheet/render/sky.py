@@ -53,11 +53,9 @@ def position_text(ra: u.Quantity, dec: u.Quantity) -> str:
     in degrees (to the tenth of a degree and of a minute of time: finer than any merger map)."""
     minutes = round(Angle(ra).wrap_at(360 * u.deg).hour * 60, 1)  # 0 to 1440
     hours, minutes = divmod(minutes, 60)
-    sign = "−" if dec.to_value(u.deg) < 0 else "+"
-    return (
-        f"right ascension {int(hours) % 24}h {minutes:04.1f}m, "
-        f"declination {sign}{abs(dec.to_value(u.deg)):.1f}°"
-    )
+    degrees = round(float(dec.to_value(u.deg)), 1)
+    sign = "−" if degrees < 0 else "+" if degrees > 0 else ""
+    return f"right ascension {int(hours) % 24}h {minutes:04.1f}m, declination {sign}{abs(degrees):.1f}°"
 
 
 def sky_sentences(item: Derived) -> tuple[str, ...]:
@@ -109,8 +107,7 @@ def _reading(r: CandidateReading, level: float) -> str:
     timed = bool(r.windows)
     if r.credible_level is not None and not inside:
         return (
-            "Outside the region where the source most probably lies: an unlikely match by "
-            "position."
+            "Outside the region where the source most probably lies: an unlikely match by position."
         )
     where = "in the region" if r.credible_level is not None else "with no map to test its place"
     if timed:
