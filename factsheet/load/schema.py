@@ -65,7 +65,7 @@ EVENT_KEYS: dict[str, Key] = {
     "counterpart_candidates": Key(
         "candidates",
         "transients reported by observers, each {name, ra, dec, time, note}",
-        example="[{name: Flare F-1, ra: 47.3 deg, dec: -21.6 deg, time: \"2034-04-25T03:00\"}]",
+        example='[{name: Flare F-1, ra: 47.3 deg, dec: -21.6 deg, time: "2034-04-25T03:00"}]',
     ),
     "host": Key("host", "host environment for counterpart windows (disk of an active nucleus)"),
     "what_if_lensed": Key(

@@ -55,7 +55,8 @@ def position_text(ra: u.Quantity, dec: u.Quantity) -> str:
     hours, minutes = divmod(minutes, 60)
     degrees = round(float(dec.to_value(u.deg)), 1)
     sign = "−" if degrees < 0 else "+" if degrees > 0 else ""
-    return f"right ascension {int(hours) % 24}h {minutes:04.1f}m, declination {sign}{abs(degrees):.1f}°"
+    declination = f"{sign}{abs(degrees):.1f}°"
+    return f"right ascension {int(hours) % 24}h {minutes:04.1f}m, declination {declination}"
 
 
 def sky_sentences(item: Derived) -> tuple[str, ...]:

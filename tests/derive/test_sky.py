@@ -25,9 +25,7 @@ def blob(nside: int = NSIDE) -> np.ndarray:
     grid = HEALPix(nside=nside, order="ring")
     lon, lat = grid.healpix_to_lonlat(np.arange(grid.npix))
     ra0, dec0 = np.radians(CENTRE)
-    cos_r = np.sin(lat.rad) * np.sin(dec0) + np.cos(lat.rad) * np.cos(dec0) * np.cos(
-        lon.rad - ra0
-    )
+    cos_r = np.sin(lat.rad) * np.sin(dec0) + np.cos(lat.rad) * np.cos(dec0) * np.cos(lon.rad - ra0)
     r = np.degrees(np.arccos(np.clip(cos_r, -1, 1)))
     p = np.exp(-(r**2) / (2 * SIGMA**2))
     return (p / p.sum()).astype(np.float32)

@@ -12,7 +12,7 @@ from factsheet.render.sky import position_text
         (47.3, -21.6, "right ascension 3h 09.2m, declination −21.6°"),  # 47.3 / 15 = 3.1533 h
         (0.0, 0.04, "right ascension 0h 00.0m, declination 0.0°"),
         (359.999, 89.95, "right ascension 0h 00.0m, declination +90.0°"),  # rounds to 24h = 0h
-        (180.0, -0.04, "right ascension 12h 00.0m, declination 0.0°")  # no sign on zero,
+        (180.0, -0.04, "right ascension 12h 00.0m, declination 0.0°"),  # no sign on zero,
     ],
 )
 def test_positions_are_written_in_hours_and_degrees(ra, dec, text):
