@@ -146,7 +146,7 @@ def _sums_below(ascending: np.ndarray, indices: np.ndarray) -> np.ndarray:
     for start in range(0, len(ascending), CHUNK):
         chunk = ascending[start : start + CHUNK].astype(np.float64)
         running = np.concatenate(([held], np.cumsum(chunk) + held))
-        stop = np.searchsorted(wanted, start + len(chunk), side="right")
+        stop = int(np.searchsorted(wanted, start + len(chunk), side="right"))
         out[pos:stop] = running[wanted[pos:stop] - start]
         pos, held = stop, float(running[-1])
     out[pos:] = held
