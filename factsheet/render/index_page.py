@@ -10,8 +10,11 @@ from __future__ import annotations
 
 from dataclasses import dataclass
 
+import astropy.units as u
+
 from factsheet import labels
 from factsheet.model import Derived, SiteFigure
+from factsheet.notation import format_value
 from factsheet.render.contexts import page_of
 from factsheet.render.numbers import quantity_text, shown
 
@@ -39,6 +42,8 @@ class IndexRow:
     remnant_mass: Cell | None
     energy_radiated: Cell | None
     distance: Cell | None
+    sky: Cell | None = None  # the 90 % sky area: the sky map's, else the one given
+    sky_thumbnail: str = ""  # site path of the sky map's small figure, or ""
 
     @property
     def withheld(self) -> str:
@@ -102,6 +107,20 @@ def cell(item: Derived, key: str) -> Cell | None:
     return Cell(quantity_text(item, key), shown(item, key).median)
 
 
+def sky_cell(item: Derived) -> Cell | None:
+    """The 90 % sky area as the sheet says it: the map's when there is one, else the given."""
+    found = item.sky_map.area_90 if item.sky_map is not None else item.event.detection.sky_area
+    if found is None:
+        return None
+    area = float(found.to_value(u.deg**2))
+    return Cell(f"{format_value(area, '', 2)} deg²", area)
+
+
+def sky_thumbnail(event_id: str) -> str:
+    """Where the small sky figure of an event with a sky map is published."""
+    return f"events/{event_id}-sky-small.svg"
+
+
 def band_flags(item: Derived, threshold: float = 0.5) -> tuple[str, ...]:
     """Short labels of the notable bands a body is more likely than not to be in, and of
     intermediate mass when a body or the remnant probably is."""
@@ -136,6 +155,8 @@ def index_row(item: Derived, audience: str = "public") -> IndexRow:
         remnant_mass=cell(item, "remnant_mass"),
         energy_radiated=cell(item, "energy_radiated"),
         distance=cell(item, "distance"),
+        sky=sky_cell(item),
+        sky_thumbnail=sky_thumbnail(event.id) if item.sky_map is not None else "",
     )
 
 

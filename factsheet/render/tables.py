@@ -2,7 +2,8 @@
 
 One row per event; for each main quantity three columns, ``<name>`` (median), ``<name>_low`` and
 ``<name>_high`` (bounds of the credible interval, not offsets), with astropy units and masked
-where the event has no such quantity (remnant numbers of a neutron-star pair, for example).
+where the event has no such quantity (remnant numbers of a neutron-star pair, for example); then
+the 90 % sky area and the sky map's most probable position (masked where absent).
 The ECSV is astropy's Enhanced Character Separated Values format (units, descriptions and table
 meta in a YAML header); the CSV writes each unit into its header cell as ``name [unit]``, the
 convention of our samples files. Both are deterministic: no dates, no build clock.
@@ -72,6 +73,8 @@ def catalogue_table(derived: list[Derived], audience: str = "public") -> Table:
     for name in MAIN_QUANTITIES:
         for column in _quantity_columns(derived, name, level):
             table.add_column(column)
+    for column in _sky_columns(derived):
+        table.add_column(column)
     table.meta.update(_meta(settings))
     return table
 
@@ -114,6 +117,35 @@ def _quantity_columns(derived: list[Derived], name: str, level: float) -> list[M
                 description=description,
             )
         )
+    return columns
+
+
+#: Where in the sky, after the quantities: (name, unit, description).
+SKY_COLUMNS = (
+    ("sky_area_90", u.deg**2, "area of the 90 % credible sky region: the sky map's, else as given"),
+    ("sky_peak_ra", u.deg, "right ascension of the sky map's most probable pixel (equatorial)"),
+    ("sky_peak_dec", u.deg, "declination of the sky map's most probable pixel (equatorial)"),
+)
+
+
+def _sky_values(item: Derived) -> dict[str, float | None]:
+    found, given = item.sky_map, item.event.detection.sky_area
+    area = found.area_90 if found is not None else given
+    return {
+        "sky_area_90": None if area is None else float(area.to_value(u.deg**2)),
+        "sky_peak_ra": None if found is None else float(found.peak_ra.to_value(u.deg)),
+        "sky_peak_dec": None if found is None else float(found.peak_dec.to_value(u.deg)),
+    }
+
+
+def _sky_columns(derived: list[Derived]) -> list[MaskedColumn]:
+    rows = [_sky_values(d) for d in derived]
+    columns = []
+    for name, unit, description in SKY_COLUMNS:
+        values = [r[name] for r in rows]
+        data = np.array([np.nan if v is None else v for v in values], dtype=float)
+        mask = np.array([v is None for v in values], dtype=bool)
+        columns.append(MaskedColumn(data, mask=mask, name=name, unit=unit, description=description))
     return columns
 
 

@@ -56,6 +56,9 @@ def test_columns_are_the_contract_quantities_in_order(derived, ecsv):
     expected = [
         *TEXT_COLUMNS,
         *(f"{q}{s}" for q in CONTRACT_QUANTITIES for s in ("", "_low", "_high")),
+        "sky_area_90",  # docs/json-export.md: the sky columns follow the quantities
+        "sky_peak_ra",
+        "sky_peak_dec",
     ]
     assert ecsv.colnames == expected
     header = next(csv.reader(io.StringIO(write_csv(catalogue_table(derived)).decode())))
