@@ -41,6 +41,8 @@ estimate:
 # visibility: internal   # leave out of public builds
 # embargo_until: "2034-05-01T00:00"
 # host: {{smbh_mass: 1e8 Msun, orbit_radius: 700, disk_aspect_ratio: 0.01}}
+# counterpart_candidates:   # transients reported by observers, each read against the sky
+#   - {{name: Flare F-1, ra: 47.3 deg, dec: -21.6 deg, time: "2034-04-25T03:00", note: ...}}
 # what_if_lensed: [4, 25, 100]   # magnifications for the what-if-lensed panel ([] for none)
 # history: earlier estimates and changes of status, oldest first, each
 #   {{date, label, note, estimate}} or {{date, label, note, status: retracted}} (or both)
