@@ -34,6 +34,7 @@ HALF_WIDTH, HALF_HEIGHT = 2 * math.sqrt(2), math.sqrt(2)  # the projection's ell
 RA_HOURS = (0, 3, 6, 9, 15, 18, 21)  # labelled meridians (12h is the map's edge)
 DECS = (-60, -30, 0, 30, 60)  # labelled parallels
 CANDIDATE_MARKERS = ("^", "s", "D", "v", "P", "X", "p", "h")
+NAME_WIDTH = 24  # characters of a legend name before it wraps (two columns in the width)
 THUMB_CELL = 4  # grid cells merged into one along each axis for the thumbnail
 _PROJECT = MollweideAxes.MollweideTransform(1)
 
@@ -226,8 +227,13 @@ def sky_figure(
 ) -> Drawing:
     """The credible regions of a sky map on the whole sky, the most probable position and each
     counterpart candidate marked with its own shape; the legend names them below the map."""
-    items = 2 + (peak is not None) + len(candidates)
-    legend_h = 0.26 * math.ceil(items / 2) + 0.1
+    names = [
+        texts.inner,
+        texts.outer,
+        *(m.name for m in [peak] if m),
+        *(c.name for c in candidates),
+    ]
+    legend_h = _legend_height([style.wrapped(name, NAME_WIDTH) for name in names])
     map_w = style.WIDTH - 0.62
     height = map_w / 2 + 0.2 + legend_h
     fig = style.new_figure(style.WIDTH, height, (0, 1, 0, 1))
@@ -254,10 +260,19 @@ def sky_figure(
     return Drawing(fig, _alt(levels, regions, candidates, peak, texts))
 
 
+def _legend_height(names: list[str]) -> float:
+    """Inches taken by the two-column legend (filled column by column), a row 0.26 in and each
+    further line of a wrapped name 0.19 in."""
+    half = math.ceil(len(names) / 2)
+    columns = (names[:half], names[half:])
+    return 0.1 + max(sum(0.26 + 0.19 * n.count("\n") for n in column) for column in columns)
+
+
 def _mark(ax: Axes, mark: SkyMark, marker: str, face: str, size: float) -> Line2D:
     x, y = project(mark.ra, mark.dec)
+    name = style.wrapped(mark.name, NAME_WIDTH)
     (line,) = ax.plot([float(x)], [float(y)], marker=marker, ms=size, mfc=face, mec=style.INK,
-                      mew=0.9, ls="none", zorder=5, label=style.wrapped(mark.name, 24))  # fmt: skip
+                      mew=0.9, ls="none", zorder=5, label=name)  # fmt: skip
     return line
 
 

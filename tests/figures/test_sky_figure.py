@@ -250,3 +250,16 @@ def test_thumbnail_is_small_has_no_text_and_says_where(skies, name):
 def test_thumbnail_alt_text_of_a_region_across_0h(skies):
     _, grid = skies["across 0h"]
     assert "between right ascension 23h and 1h" in sky_thumbnail(grid, []).alt
+
+
+def test_legend_with_long_names_stays_inside_the_figure(skies):
+    ranked, grid = skies["arc"]
+    names = ["A transient with a rather long reported name", "AT-2", "Third candidate", "4", "5"]
+    marks = [SkyMark(name, 90.0 + 5 * k, 10.0) for k, name in enumerate(names)]
+    fig = draw(grid, ranked, marks).figure
+    to_svg(fig, close=False)  # lays the figure out
+    renderer = fig._get_renderer()
+    (legend,) = fig.legends
+    box, page = legend.get_window_extent(renderer), fig.bbox
+    assert page.y0 <= box.y0 and box.y1 <= fig.axes[0].get_window_extent(renderer).y0 + 1
+    assert page.x0 <= box.x0 and box.x1 <= page.x1
