@@ -245,7 +245,11 @@ def sky_figure(
     _graticule(ax, labels=True)
     _regions(ax, levels, edge, 1.2, 0.25)
     handles = [
-        Patch(facecolor=style.SKY[f"{key}_fill"], edgecolor=style.SKY[f"{key}_line"], label=name)
+        Patch(
+            facecolor=style.SKY[f"{key}_fill"],
+            edgecolor=style.SKY[f"{key}_line"],
+            label=style.wrapped(name, NAME_WIDTH),
+        )
         for key, name in (("inner", texts.inner), ("outer", texts.outer))
     ]
     if peak is not None:
