@@ -18,6 +18,7 @@ from factsheet.figures.inputs import (
     WindowItem,
 )
 from factsheet.figures.share import ShareBody, ShareCard, share_png
+from factsheet.figures.sky import SkyMark, SkyRegions, SkyTexts, sky_figure, sky_thumbnail
 from factsheet.figures.svg import to_svg
 from factsheet.figures.timeline import history, window_timeline
 from factsheet.figures.track import frequency_track
@@ -31,6 +32,9 @@ __all__ = [
     "PlaneItem",
     "ShareBody",
     "ShareCard",
+    "SkyMark",
+    "SkyRegions",
+    "SkyTexts",
     "Track",
     "WindowItem",
     "comparison_points",
@@ -40,6 +44,8 @@ __all__ = [
     "history",
     "mass_plane",
     "share_png",
+    "sky_figure",
+    "sky_thumbnail",
     "to_svg",
     "window_timeline",
 ]

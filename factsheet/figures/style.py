@@ -76,6 +76,17 @@ WINDOW = {  # by window band (the keys of factsheet.labels.WINDOW_BANDS)
     "neutrino": "#56B4E9",
 }
 
+#: The sky map's credible regions: a pale tint for the 90 % region and a stronger one for the
+#: 50 % region, each with an outline of at least 3:1 on what lies either side of it (the axes
+#: face, the pale tint, the stronger tint); dark text keeps at least 4.5:1 on both tints.
+SKY = {
+    "outer_fill": "#D3E7F4",
+    "outer_line": "#0072B2",
+    "inner_fill": "#86BDE2",
+    "inner_line": "#08446B",
+    "peak": "#A34700",  # dark vermillion, with a dark edge
+}
+
 WIDTH = 5.0  # inches: the natural width of a sheet figure (360 pt, the SVG's user units)
 FONT = 11.5  # the smallest font size (pt = SVG user units) of a figure WIDTH wide
 PHONE_COLUMN_PX = 358  # the content column of a 390 px wide phone, in CSS px

@@ -28,6 +28,9 @@ from factsheet.figures import (
     HistoryItem,
     IntervalItem,
     PlaneItem,
+    SkyMark,
+    SkyRegions,
+    SkyTexts,
     Track,
     WindowItem,
     comparison_points,
@@ -36,6 +39,7 @@ from factsheet.figures import (
     frequency_track,
     history,
     mass_plane,
+    sky_figure,
     style,
     to_svg,
     window_timeline,
@@ -92,6 +96,14 @@ def distance(text: str) -> Drawing:
     return distance_mass(events)
 
 
+def sky(text: str) -> Drawing:
+    ra, dec = np.meshgrid(np.arange(180) * 2.0 + 1.0, np.arange(90) * 2.0 - 89.0)
+    levels = np.clip(np.hypot(ra - 60.0, dec + 20.0) / 30.0, 0.0, 1.0)  # a disc, as levels
+    marks = [SkyMark(text, 62.0, -18.0, "at the 40 % level"), SkyMark("Q2", 300.0, 10.0)]
+    texts = SkyTexts("50 % region", "90 % region", "Where " + text + " lies")
+    return sky_figure(levels, SkyRegions("40 deg²", "160 deg²"), marks, None, texts)
+
+
 #: Every drawing function with a text input, and whether its alt text repeats that text.
 FIGURES: dict[str, tuple[Callable[[str], Drawing], bool]] = {
     "component_intervals": (intervals, True),
@@ -100,6 +112,7 @@ FIGURES: dict[str, tuple[Callable[[str], Drawing], bool]] = {
     "history": (estimates, True),
     "mass_plane": (plane, False),  # the alt text counts events, it does not name them
     "distance_mass": (distance, False),
+    "sky_figure": (sky, True),
 }
 
 

@@ -1,0 +1,406 @@
+"""The all-sky figure and its index thumbnail: a sky map's 50 % and 90 % credible regions on an
+equal-area Mollweide projection of equatorial coordinates, centred on right ascension 0h with
+right ascension increasing to the left (east left, as the sky is seen from inside).
+
+Both draw a grid of credible levels (rows of declination from −90° up, columns of right ascension
+from 0° up, cell centres): a cell is inside the region of level p when its level is at most p.
+The contours are traced on the grid in longitude and latitude, padded by one wrapped column on
+each side and by a row at each pole, so that a region across 0h or over a pole closes where it
+should; their vertices are then projected and drawn as plain paths (the projection's axes would
+interpolate every segment and make the file large).
+"""
+
+from __future__ import annotations
+
+import math
+from typing import NamedTuple
+
+import contourpy
+import matplotlib as mpl
+import numpy as np
+from matplotlib.axes import Axes
+from matplotlib.lines import Line2D
+from matplotlib.patches import Ellipse, Patch, PathPatch
+from matplotlib.path import Path
+from matplotlib.projections.geo import MollweideAxes
+from matplotlib.transforms import Affine2D
+
+from factsheet.figures import style
+from factsheet.figures.inputs import Drawing
+
+INNER, OUTER = 0.5, 0.9  # the credible levels drawn
+CENTRE_RA = 0.0  # degrees: the map's central meridian
+HALF_WIDTH, HALF_HEIGHT = 2 * math.sqrt(2), math.sqrt(2)  # the projection's ellipse, unit sphere
+RA_HOURS = (0, 3, 6, 9, 15, 18, 21)  # labelled meridians (12h is the map's edge)
+DECS = (-60, -30, 0, 30, 60)  # labelled parallels
+CANDIDATE_MARKERS = ("^", "s", "D", "v", "P", "X", "p", "h")
+NAME_WIDTH = 24  # characters of a legend name before it wraps (two columns in the width)
+THUMB_CELL = 4  # grid cells merged into one along each axis for the thumbnail
+_PROJECT = MollweideAxes.MollweideTransform(1)
+
+
+class SkyMark(NamedTuple):
+    """A marked position (degrees) and its name; ``note`` is what the sheet prints of it (a
+    candidate's credible level, e.g. "at the 42 % level"), spoken in the alt text as given."""
+
+    name: str
+    ra: float
+    dec: float
+    note: str = ""
+
+
+class SkyRegions(NamedTuple):
+    """The credible areas as the sheet prints them ("230 deg²")."""
+
+    area_50: str
+    area_90: str
+
+
+class SkyTexts(NamedTuple):
+    """The words the figure shows and says: legend names of the 50 % (``inner``) and 90 %
+    (``outer``) regions, and the alt text's opening (what the map is of)."""
+
+    inner: str
+    outer: str
+    lead: str
+
+
+def project(ra, dec) -> tuple[np.ndarray, np.ndarray]:
+    """Projected x, y of positions in degrees (unit sphere): right ascension east of the centre
+    lies left of it (x < 0)."""
+    return _project_east((np.asarray(ra, float) - CENTRE_RA + 180.0) % 360.0 - 180.0, dec)
+
+
+def _project_east(east, dec) -> tuple[np.ndarray, np.ndarray]:
+    """Projected x, y of positions ``east`` degrees east of the centre (−180° to 180°)."""
+    lon = -np.radians(np.asarray(east, float))
+    lat = np.radians(np.asarray(dec, float))
+    xy = _PROJECT.transform_non_affine(np.column_stack([np.ravel(lon), np.ravel(lat)]))
+    return xy[:, 0].reshape(np.shape(lon)), xy[:, 1].reshape(np.shape(lat))
+
+
+# --- contours ----------------------------------------------------------------------------------
+
+
+def _padded(levels: np.ndarray):
+    """The grid as longitude east of the centre (−180° to 180°, decreasing RA to the right is
+    handled by ``project``), one wrapped column each side and a row at each pole holding the
+    lowest level next to it (a pole is inside a region when a cell beside it is)."""
+    rows, cols = levels.shape
+    ra = (np.arange(cols) + 0.5) * 360.0 / cols
+    dec = (np.arange(rows) + 0.5) * 180.0 / rows - 90.0
+    lon = (ra - CENTRE_RA + 180.0) % 360.0 - 180.0
+    order = np.argsort(lon, kind="stable")
+    lon, grid = lon[order], levels[:, order]
+    lon = np.concatenate([[lon[-1] - 360.0], lon, [lon[0] + 360.0]])
+    grid = np.concatenate([grid[:, -1:], grid, grid[:, :1]], axis=1)
+    dec = np.concatenate([[-90.0], dec, [90.0]])
+    grid = np.concatenate([np.full((1, cols + 2), grid[0].min()), grid,
+                           np.full((1, cols + 2), grid[-1].min())])  # fmt: skip
+    return lon, dec, grid.astype(np.float64)
+
+
+def _to_xy(lon_dec: np.ndarray) -> np.ndarray:
+    """Contour vertices (longitude east of the centre, declination) projected, the padding's
+    longitudes brought back onto the map's edge."""
+    x, y = _project_east(np.clip(lon_dec[:, 0], -180.0, 180.0), lon_dec[:, 1])
+    return np.column_stack([x, y])
+
+
+def region_paths(
+    levels: np.ndarray, level: float, tolerance: float
+) -> tuple[Path | None, list[np.ndarray]]:
+    """The region of credible ``level`` as one filled Path and its outline as projected lines
+    (pieces along the map's edge left out: there the map cuts the region, it does not end),
+    each simplified to within ``tolerance`` (projected units)."""
+    lon, dec, grid = _padded(levels)
+    gen = contourpy.contour_generator(
+        lon, dec, grid, line_type=contourpy.LineType.Separate,
+        fill_type=contourpy.FillType.OuterCode,
+    )  # fmt: skip
+    points, codes = gen.filled(-1.0, level)
+    rings = [
+        ring
+        for p, c in zip(points, codes, strict=True)
+        for ring in np.split(_to_xy(p), np.flatnonzero(c == Path.MOVETO)[1:])
+    ]
+    fill = Path.make_compound_path(*(_ring(r, tolerance) for r in rings)) if rings else None
+    lines = [
+        _simplified(piece, tolerance) for line in gen.lines(level) for piece in _off_edge(line)
+    ]
+    return fill, lines
+
+
+def _simplified(xy: np.ndarray, tolerance: float) -> np.ndarray:
+    """A polyline with the vertices that bend it by less than ``tolerance`` dropped
+    (matplotlib's own path simplifier, whose threshold is in transformed units)."""
+    scale = mpl.rcParams["path.simplify_threshold"] / tolerance
+    path = Path(xy).cleaned(Affine2D().scale(scale), simplify=True)
+    return path.vertices[path.codes != Path.STOP] / scale
+
+
+def _ring(xy: np.ndarray, tolerance: float) -> Path:
+    verts = _simplified(xy, tolerance)
+    codes = np.full(len(verts), Path.LINETO, dtype=Path.code_type)
+    codes[0], codes[-1] = Path.MOVETO, Path.CLOSEPOLY
+    return Path(verts, codes)
+
+
+def _off_edge(line: np.ndarray) -> list[np.ndarray]:
+    """A contour line split where it runs in the padding beyond the map's edge, projected."""
+    inside = np.abs(line[:, 0]) < 180.0
+    pieces, start = [], None
+    for k, ok in enumerate(np.append(inside, False)):
+        if ok and start is None:
+            start = max(k - 1, 0)
+        elif not ok and start is not None:
+            piece = line[start : min(k + 1, len(line))]
+            if len(piece) > 1:
+                pieces.append(_to_xy(piece))
+            start = None
+    return pieces
+
+
+def coarse(levels: np.ndarray, cell: int) -> np.ndarray:
+    """The grid with ``cell`` × ``cell`` blocks merged to their lowest level, so a region never
+    shrinks out of sight (it may grow by up to a block)."""
+    rows, cols = levels.shape
+    r, c = rows // cell, cols // cell
+    return levels[: r * cell, : c * cell].reshape(r, cell, c, cell).min(axis=(1, 3))
+
+
+# --- drawing -----------------------------------------------------------------------------------
+
+
+def _sky_axes(ax: Axes) -> Ellipse:
+    """An empty map: the projection's ellipse (returned, to clip to) and nothing else."""
+    ax.set_aspect("equal")
+    ax.set_axis_off()
+    edge = Ellipse((0, 0), 2 * HALF_WIDTH, 2 * HALF_HEIGHT, facecolor=style.AXES_FACE,
+                   edgecolor=style.INK, linewidth=0.8, zorder=0)  # fmt: skip
+    ax.add_patch(edge)
+    return edge
+
+
+def _regions(ax: Axes, levels: np.ndarray, edge: Ellipse, line_width: float, tol: float) -> None:
+    """The 90 % and 50 % regions, filled and outlined, simplified to ``tol`` points."""
+    to_points = ax.get_position().width * ax.figure.get_figwidth() * 72 / (2 * HALF_WIDTH)
+    for level, z in ((OUTER, 1), (INNER, 2)):
+        key = "outer" if level == OUTER else "inner"
+        fill, lines = region_paths(levels, level, tol / to_points)
+        if fill is not None:
+            patch = PathPatch(fill, facecolor=style.SKY[f"{key}_fill"], lw=0, zorder=z)
+            ax.add_patch(patch)
+            patch.set_clip_path(edge)
+        for xy in lines:
+            (line,) = ax.plot(*xy.T, color=style.SKY[f"{key}_line"], lw=line_width, zorder=z + 0.5)
+            line.set_clip_path(edge)
+
+
+def _graticule(ax: Axes, labels: bool) -> None:
+    """Parallels and meridians in the grid colour; with ``labels``, the hours along the equator
+    and the declinations at the map's left edge."""
+    lat = np.linspace(-90, 90, 61)
+    for hours in [*RA_HOURS, 12]:
+        x, y = project(np.full_like(lat, hours * 15.0), lat)
+        ax.plot(x, y, color=style.GRID, lw=0.6, zorder=0.5)
+        if labels and hours != 12:
+            ax.annotate(f"{hours}h", (x[30], 0), xytext=(0, 2), textcoords="offset points",
+                        ha="center", va="bottom", fontsize=style.FONT, zorder=4)  # fmt: skip
+    for dec in DECS:
+        _, y = project(0.0, dec)
+        x = HALF_WIDTH * math.sqrt(max(0.0, 1 - (float(y) / HALF_HEIGHT) ** 2))
+        ax.plot([-x, x], [y, y], color=style.GRID, lw=0.6, zorder=0.5)
+        if labels:
+            text = f"{dec}°".replace("-", "−")
+            ax.annotate(text, (-x, y), xytext=(-3, 0), textcoords="offset points",
+                        ha="right", va="center", fontsize=style.FONT, color=style.INK)  # fmt: skip
+
+
+@style.styled
+def sky_figure(
+    levels: np.ndarray,
+    regions: SkyRegions,
+    candidates: list[SkyMark],
+    peak: SkyMark | None,
+    texts: SkyTexts,
+) -> Drawing:
+    """The credible regions of a sky map on the whole sky, the most probable position and each
+    counterpart candidate marked with its own shape; the legend names them below the map."""
+    names = [
+        texts.inner,
+        texts.outer,
+        *(m.name for m in [peak] if m),
+        *(c.name for c in candidates),
+    ]
+    legend_h = _legend_height([style.wrapped(name, NAME_WIDTH) for name in names])
+    map_w = style.WIDTH - 0.62
+    height = map_w / 2 + 0.2 + legend_h
+    fig = style.new_figure(style.WIDTH, height, (0, 1, 0, 1))
+    ax = fig.add_axes((0.56 / style.WIDTH, (legend_h + 0.08) / height,
+                       map_w / style.WIDTH, (map_w / 2 + 0.06) / height))  # fmt: skip
+    edge = _sky_axes(ax)
+    ax.set_xlim(-HALF_WIDTH * 1.01, HALF_WIDTH * 1.01)
+    ax.set_ylim(-HALF_HEIGHT * 1.02, HALF_HEIGHT * 1.02)
+    _graticule(ax, labels=True)
+    _regions(ax, levels, edge, 1.2, 0.25)
+    handles = [
+        Patch(
+            facecolor=style.SKY[f"{key}_fill"],
+            edgecolor=style.SKY[f"{key}_line"],
+            label=style.wrapped(name, NAME_WIDTH),
+        )
+        for key, name in (("inner", texts.inner), ("outer", texts.outer))
+    ]
+    if peak is not None:
+        handles.append(_mark(ax, peak, "*", style.SKY["peak"], 11))
+    for k, c in enumerate(candidates):
+        handles.append(
+            _mark(ax, c, CANDIDATE_MARKERS[k % len(CANDIDATE_MARKERS)], style.AXES_FACE, 7)
+        )
+    fig.legend(handles=handles, loc="upper center", bbox_to_anchor=(0.5, legend_h / height),
+               ncol=2, frameon=False, fontsize=style.FONT, handletextpad=0.4,
+               columnspacing=1.2, borderaxespad=0.1)  # fmt: skip
+    return Drawing(fig, _alt(levels, regions, candidates, peak, texts))
+
+
+def _legend_height(names: list[str]) -> float:
+    """Inches taken by the two-column legend (filled column by column), a row 0.26 in and each
+    further line of a wrapped name 0.19 in."""
+    half = math.ceil(len(names) / 2)
+    columns = (names[:half], names[half:])
+    return 0.1 + max(sum(0.26 + 0.19 * n.count("\n") for n in column) for column in columns)
+
+
+def _mark(ax: Axes, mark: SkyMark, marker: str, face: str, size: float) -> Line2D:
+    x, y = project(mark.ra, mark.dec)
+    name = style.wrapped(mark.name, NAME_WIDTH)
+    (line,) = ax.plot([float(x)], [float(y)], marker=marker, ms=size, mfc=face, mec=style.INK,
+                      mew=0.9, ls="none", zorder=5, label=name)  # fmt: skip
+    return line
+
+
+@style.styled
+def sky_thumbnail(levels: np.ndarray, candidates: list[SkyMark]) -> Drawing:
+    """A small all-sky outline with the 90 % and 50 % regions and the candidates as dots, no
+    text: for the index table. The grid is merged into coarser cells to keep the file small."""
+    fig = style.new_figure(1.6, 0.9, (0, 1, 0, 1))
+    ax = fig.add_axes((0.02, 0.04, 0.96, 0.92))
+    edge = _sky_axes(ax)
+    ax.set_xlim(-HALF_WIDTH * 1.02, HALF_WIDTH * 1.02)
+    ax.set_ylim(-HALF_HEIGHT * 1.03, HALF_HEIGHT * 1.03)
+    _regions(ax, coarse(levels, THUMB_CELL), edge, 0.8, 0.5)
+    x, y = project([c.ra for c in candidates], [c.dec for c in candidates])
+    ax.plot(x, y, "o", ms=2.5, mfc=style.INK, mec=style.INK, ls="none", zorder=5)
+    alt = f"Sky map: the {OUTER:.0%} credible region lies {extent_words(levels, OUTER)}"
+    if candidates:
+        alt += "; candidates marked: " + ", ".join(c.name for c in candidates)
+    return Drawing(fig, alt.replace("%", " %") + ".")
+
+
+def _alt(levels, regions: SkyRegions, candidates, peak, texts: SkyTexts) -> str:
+    parts = [
+        f"{texts.lead}: an all-sky map in equatorial coordinates, right ascension increasing to "
+        f"the left. The {texts.inner} covers {regions.area_50} and the {texts.outer} covers "
+        f"{regions.area_90}; the {texts.outer} lies {extent_words(levels, OUTER)}."
+    ]
+    if peak is not None:
+        parts.append(f"{peak.name} marked{f' ({peak.note})' if peak.note else ''}.")
+    if candidates:
+        said = [f"{c.name}{f' ({c.note})' if c.note else ''}" for c in candidates]
+        parts.append("Candidates marked: " + "; ".join(said) + ".")
+    return " ".join(parts)
+
+
+# --- where a region lies, in words ---------------------------------------------------------------
+
+
+class Extent(NamedTuple):
+    """Where a region lies: its right ascension arc in degrees (``ra_from`` eastward to ``ra_to``,
+    None when it spans every right ascension), its declination range and the share of its area
+    south of the equator."""
+
+    ra_from: float | None
+    ra_to: float | None
+    dec_low: float
+    dec_high: float
+    south: float
+
+
+def extent(levels: np.ndarray, level: float) -> Extent | None:
+    """The smallest right ascension arc holding the region (the complement of the widest run of
+    empty columns, taken round the circle), its declination range, and its southern share."""
+    inside = levels <= level
+    if not inside.any():
+        return None
+    rows, cols = levels.shape
+    dec = (np.arange(rows) + 0.5) * 180.0 / rows - 90.0
+    weight = (inside * np.cos(np.radians(dec))[:, None]).sum(axis=1)
+    south = float(weight[dec < 0].sum() / weight.sum())
+    used = np.flatnonzero(inside.any(axis=1))
+    dec_low, dec_high = float(dec[used[0]] - 90.0 / rows), float(dec[used[-1]] + 90.0 / rows)
+    filled = inside.any(axis=0)
+    if filled.all():
+        return Extent(None, None, dec_low, dec_high, south)
+    start, gap = _widest_gap(filled)
+    first = (start + gap) % cols  # the first filled column after the widest gap
+    last = (start - 1) % cols
+    step = 360.0 / cols
+    return Extent(first * step, (last + 1) * step, dec_low, dec_high, south)
+
+
+def _widest_gap(filled: np.ndarray) -> tuple[int, int]:
+    """Start and length of the longest run of False, round the circle."""
+    doubled = np.concatenate([filled, filled])
+    best, run_start, best_start = 0, None, 0
+    for k, f in enumerate(doubled):
+        if not f and run_start is None:
+            run_start = k
+        if f and run_start is not None:
+            if k - run_start > best:
+                best, best_start = k - run_start, run_start
+            run_start = None
+    return best_start % len(filled), min(best, len(filled))
+
+
+def extent_words(levels: np.ndarray, level: float) -> str:
+    """E.g. "mostly in the southern sky, between right ascension 2h and 5h and declination
+    −40° and −10°" (hours and 5° steps rounded outward)."""
+    e = extent(levels, level)
+    if e is None:
+        return "nowhere on the grid"
+    dec_low = 5 * math.floor(e.dec_low / 5)
+    dec_high = 5 * math.ceil(e.dec_high / 5)
+    wraps = e.ra_from is not None and e.ra_to < e.ra_from
+    hours = None
+    if e.ra_from is not None:
+        hours = (math.floor(e.ra_from / 15), math.ceil(e.ra_to / 15))
+        if hours[1] - hours[0] + 24 * wraps >= 24:
+            hours = None  # the arc rounds to the whole circle
+    if hours is None and dec_high >= 90 and dec_low > -90:
+        return f"around the north celestial pole, north of declination {_deg(dec_low)}"
+    if hours is None and dec_low <= -90 and dec_high < 90:
+        return f"around the south celestial pole, south of declination {_deg(dec_high)}"
+    if hours is None:
+        where = "at every right ascension"
+    else:
+        across = " (across 0h)" if wraps else ""
+        where = f"between right ascension {hours[0] % 24}h and {hours[1] % 24}h{across}"
+    decs = f"declination {_deg(dec_low)} to {_deg(dec_high)}"
+    return f"{_hemisphere(e.south)}, {where} and {decs}"
+
+
+def _deg(value: float) -> str:
+    return f"{value:.0f}°".replace("-", "−")
+
+
+def _hemisphere(south: float) -> str:
+    if south >= 0.95:
+        return "in the southern sky"
+    if south <= 0.05:
+        return "in the northern sky"
+    if south >= 0.6:
+        return "mostly in the southern sky"
+    if south <= 0.4:
+        return "mostly in the northern sky"
+    return "on both sides of the celestial equator"
