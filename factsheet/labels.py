@@ -149,6 +149,12 @@ BANDS = {
 #: The separate question of a mass at or above the intermediate-mass threshold.
 INTERMEDIATE_MASS = "intermediate mass"
 
+#: The sky figure's legend: the two credible regions, the most probable position, and the
+#: opening words of its alt text.
+SKY_REGIONS = {0.5: "50 % credible region", 0.9: "90 % credible region"}
+SKY_PEAK = "most probable position"
+SKY_FIGURE_LEAD = "Sky map of the source's position"
+
 #: Mass-band edges of the reference data.
 EDGES = {
     "neutron_star_max": "maximum neutron-star mass",

@@ -22,6 +22,7 @@ from factsheet.physics import inspiral
 from factsheet.render import numbers
 from factsheet.render.contexts import display_summary
 from factsheet.render.history import CURRENT_LABEL, value_text
+from factsheet.render.sky import level_text
 from factsheet.render.sound import band_note
 
 ENERGY_KEYS = (
@@ -112,6 +113,8 @@ def event_figures(item: Derived) -> list[SiteFigure]:
                 "Counterpart windows after the merger (a planning aid).",
             )
         )
+    if item.sky_map is not None and item.sky_map.levels.size:
+        out.extend(sky_figures(item, base))
     if item.event.history:
         out.append(
             _save(
@@ -122,6 +125,44 @@ def event_figures(item: Derived) -> list[SiteFigure]:
         )
     out.append(share_image(item))
     return out
+
+
+def sky_figures(item: Derived, base: str) -> list[SiteFigure]:
+    """The all-sky figure of the map's regions with the most probable position and the
+    candidates, and the index's thumbnail (numbers as the sheet prints them)."""
+    found, level = item.sky_map, item.credible_level
+    assert found is not None
+    areas = [
+        format_value(a.to_value(u.deg**2), "", 2) + " deg²" for a in (found.area_50, found.area_90)
+    ]
+    marks = [
+        fg.SkyMark(
+            r.candidate.name,
+            float(r.candidate.ra.to_value(u.deg)),
+            float(r.candidate.dec.to_value(u.deg)),
+            level_text(r, level),
+        )
+        for r in item.candidates
+    ]
+    peak = fg.SkyMark(
+        labels.SKY_PEAK, float(found.peak_ra.to_value(u.deg)), float(found.peak_dec.to_value(u.deg))
+    )
+    texts = fg.SkyTexts(labels.SKY_REGIONS[0.5], labels.SKY_REGIONS[0.9], labels.SKY_FIGURE_LEAD)
+    caption = "Where the source lies: the sky map's 50 % and 90 % credible regions (equatorial "
+    caption += "coordinates, right ascension increasing to the left)"
+    caption += ", with the counterpart candidates." if marks else "."
+    return [
+        _save(
+            f"{base}-sky.svg",
+            lambda: fg.sky_figure(found.levels, fg.SkyRegions(*areas), marks, peak, texts),
+            caption,
+        ),
+        _save(
+            f"{base}-sky-small.svg",
+            lambda: fg.sky_thumbnail(found.levels, marks),
+            "The sky map's credible regions, small.",
+        ),
+    ]
 
 
 def lensing_figure(item: Derived, base: str) -> SiteFigure:

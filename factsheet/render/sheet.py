@@ -33,6 +33,7 @@ from factsheet.render import prose
 from factsheet.render.assets import samples_path
 from factsheet.render.contexts import Link, display_summary, page_of, time_utc
 from factsheet.render.history import HistoryStep, history_steps
+from factsheet.render.index_page import sky_thumbnail
 from factsheet.render.lensing import LENSING_NOTES, LensPanel, lens_panel
 from factsheet.render.numbers import estimate_texts, value_text
 from factsheet.render.sky import SkyPanel, sky_panel
@@ -371,8 +372,9 @@ def event_page(
 ) -> EventPage:
     """The context of one event page."""
     event, retracted = item.event, item.event.status == "retracted"
+    thumbnail = sky_thumbnail(event.id)  # the index's: not a figure of the sheet
     placed = place(item.caveats)
-    shown = tuple(f for f in figures if f.path.endswith(".svg"))
+    shown = tuple(f for f in figures if f.path.endswith(".svg") and f.path != thumbnail)
     if retracted:  # no comparisons for a non-event
         shown = tuple(f for f in shown if _figure_group(f) != "remnant")
     share = next((f for f in figures if f.path.endswith(".png")), None)

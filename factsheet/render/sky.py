@@ -91,7 +91,7 @@ def _duration(days: float) -> str:
     return f"{format_value(days, '', 3)} days"
 
 
-def _level_text(r: CandidateReading, level: float) -> str:
+def level_text(r: CandidateReading, level: float) -> str:
     if r.credible_level is None:
         return "no sky map to place it"
     at = percent(r.credible_level)
@@ -153,7 +153,7 @@ def candidate_rows(item: Derived) -> tuple[CandidateRow, ...]:
                 time=c.time.utc.isot[:16].replace("T", " "),
                 time_iso=c.time.utc.isot,
                 delay=_delay_text(r),
-                level=_level_text(r, level),
+                level=level_text(r, level),
                 windows=("inside the window for " + " and for ".join(inside))
                 if inside
                 else "outside every counterpart window of this sheet",
