@@ -2,8 +2,8 @@
 
 A :class:`Checker` walks a mapping key by key, converts each value by its kind (plain kinds in
 :mod:`factsheet.load.scalars`, structured ones — detection, estimate, body, history, host,
-limits, file paths — here) and appends a :class:`~factsheet.errors.Problem` with the line and
-key path for each bad value, so one run reports every problem of a file.
+limits, file paths, the sky map — here) and appends a :class:`~factsheet.errors.Problem` with
+the line and key path for each bad value, so one run reports every problem of a file.
 """
 
 from __future__ import annotations
@@ -23,8 +23,9 @@ from factsheet.load.schema import (
     HOST_KEYS,
     Key,
 )
+from factsheet.load.skymap import Where, check_sky_map
 from factsheet.load.yaml_lines import LineList, LineMap
-from factsheet.model import Body, Detection, Estimate, HistoryEntry, Host, Limits
+from factsheet.model import Body, Detection, Estimate, HistoryEntry, Host, Limits, SkyMapFile
 
 
 class Checker:
@@ -32,7 +33,8 @@ class Checker:
 
     ``base`` is the folder that relative file names start from, ``root`` the catalogue folder
     that they must not leave, ``cosmology`` the catalogue's cosmology, under which a distance
-    must lie inside the redshift table (up to d_L(z = 1000)).
+    must lie inside the redshift table (up to d_L(z = 1000)). Warnings about valid but
+    suspicious files (a sky map far from normalised) go to ``warnings``.
     """
 
     def __init__(
@@ -42,10 +44,12 @@ class Checker:
         base: Path | None = None,
         root: Path | None = None,
         cosmology: str | None = None,
+        warnings: list[Problem] | None = None,
     ):
         self.path, self.problems = path, problems
         self.base, self.root = base, root
         self.cosmology = cosmology
+        self.warnings = [] if warnings is None else warnings
 
     def fail(self, line: int | None, key: str, message: str) -> None:
         self.problems.append(Problem(self.path, line, key, message))
@@ -109,6 +113,15 @@ class Checker:
         except Bad as exc:
             self.fail(line, path, str(exc))
             return None
+
+    def _sky_map(self, raw, key, path, line) -> SkyMapFile | None:
+        """A sky map named relative to the event file, read and checked whole."""
+        try:
+            found = scalars.file_in(raw, self.base or Path("."), self.root, "sky map")
+        except Bad as exc:
+            self.fail(line, path, str(exc))
+            return None
+        return check_sky_map(found, self.problems, self.warnings, Where(self.path, line, path))
 
     def _detection(self, raw, key, path, line) -> Detection | None:
         values = self._section(raw, DETECTION_KEYS, path, line, "")

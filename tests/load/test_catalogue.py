@@ -83,7 +83,6 @@ SKY_AREA = "  sky_area: 580 deg2\n"
 @pytest.mark.parametrize(
     ("old", "new", "line", "key"),
     [
-        (SKY_AREA, SKY_AREA + "  sky_map: sky.fits\n", 10, "detection.sky_map"),
         (
             "summary: A *test* event.\n",
             "summary: A *test* event.\ncounterpart_candidates: [a flash]\n",
