@@ -146,7 +146,7 @@ def _sums_below(ascending: np.ndarray, indices: np.ndarray) -> np.ndarray:
     for start in range(0, len(ascending), CHUNK):
         running = np.cumsum(ascending[start : start + CHUNK], dtype=np.float64)
         running += held
-        stop = np.searchsorted(wanted, start + len(running), side="right")
+        stop = int(np.searchsorted(wanted, start + len(running), side="right"))
         taken = wanted[pos:stop] - start  # pixels of this chunk below each index
         out[pos:stop] = np.where(taken > 0, running[np.maximum(taken - 1, 0)], held)
         pos, held = stop, float(running[-1])
