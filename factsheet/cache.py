@@ -1,8 +1,9 @@
 """The build cache: per-event entries keyed by everything that shapes them.
 
-An event's key hashes its YAML file and samples file (the digests the load stage took as it
-read them), the settings that change numbers and factsheet's own code and data (every ``.py``
-and data file of the package), so a change in any of them re-derives exactly what depends on it.
+An event's key hashes its YAML file, samples file and sky map (the digests the load stage took
+as it read them), the settings that change numbers and factsheet's own code and data (every
+``.py`` and data file of the package), so a change in any of them re-derives exactly what
+depends on it.
 Entries live in a folder beside the output (``.factsheet-cache-<name>/``), one folder per key:
 ``entry.json`` (what derive found, as plain JSON — nothing in the cache can run code) and the
 entry's files, whose size and SHA-256 the JSON records. An entry whose JSON or files do not
@@ -72,6 +73,8 @@ def event_key(event: Event, settings: Settings) -> str:
     digest.update(event.source_digest.encode())
     if event.samples is not None:
         digest.update(event.samples.digest.encode())
+    if event.detection.sky_map is not None:
+        digest.update(event.detection.sky_map.digest.encode())
     return digest.hexdigest()[:32]
 
 

@@ -250,7 +250,7 @@ CASES = {
     "detection_not_mapping": Case(
         {"a.yaml": event({"detection": "detection: [A1, B1]"})},
         "a.yaml:5: detection:",
-        "expected a mapping {network, snr, false_alarm_rate, sky_area}",
+        "expected a mapping {network, snr, false_alarm_rate, sky_area, sky_map}",
     ),
     "network_not_list": Case(
         {"a.yaml": event({"detection.network": "  network: {A1: B1}"})},

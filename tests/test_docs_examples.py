@@ -37,6 +37,7 @@ PAGES = (
     "settings.md",
     "json-export.md",
     "api.md",
+    "sky-maps.md",
 )
 
 
@@ -180,7 +181,24 @@ def test_samples_page_lists_every_column():
         assert f"| `{path}` |" in text, path
     for path in NOT_YET:
         assert f"`{path}`" in text, path
-    assert "not supported in this version" in text and "sky_map" in text
+    assert "sky_map" in text and "(sky-maps.md)" in text
+
+
+def test_sky_maps_example_writes_a_map_that_loads(tmp_path, monkeypatch):
+    from factsheet.load.skymap import Where, check_sky_map, read_probabilities
+    from factsheet.physics.sky import RankedMap, peak
+
+    (example,) = blocks(DOCS / "sky-maps.md", "python")
+    monkeypatch.chdir(tmp_path)
+    exec(compile(example, "docs/sky-maps.md", "exec"), {"__name__": "docs_sky_maps"})
+    problems, warnings = [], []
+    sky = check_sky_map(tmp_path / "dx0412-sky.fits", problems, warnings, Where("ev.yaml", 1))
+    assert not problems and not warnings
+    prob = read_probabilities(sky)
+    top = peak(prob, sky.nside, sky.ordering)
+    assert abs(top.ra.value - 150) < 1 and abs(top.dec.value - 30) < 1  # to a pixel (0.9 deg)
+    # a 3-degree blob: 90 % area −2πσ² ln 0.1 = 130 deg2 (closed form of a 2-D Gaussian)
+    assert 120 < RankedMap(prob, sky.nside).area(0.9).value < 140
 
 
 def test_json_page_lists_every_quantity_in_order():

@@ -1,4 +1,5 @@
-"""Load a catalogue folder: settings, every event file and its samples file, checked whole.
+"""Load a catalogue folder: settings, every event file, its samples file and sky map, checked
+whole.
 
 Every problem is collected as ``FILE:LINE: key: what is wrong (what was expected)``; the whole
 catalogue is checked before :class:`~factsheet.errors.InputError` is raised with all of them.
@@ -128,7 +129,9 @@ def load_event(
     if data is None:
         return None
     before, noticed = len(problems), list[Problem]()
-    check = Checker(path, problems, base=path.parent, root=root, cosmology=settings.cosmology)
+    check = Checker(
+        path, problems, base=path.parent, root=root, cosmology=settings.cosmology, warnings=noticed
+    )
     values = check.mapping(data, EVENT_KEYS, prefix="")
     if "estimate" in values:
         _check_redshift(check, data["estimate"], values["estimate"], settings.cosmology)

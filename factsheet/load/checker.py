@@ -2,7 +2,7 @@
 
 A :class:`Checker` walks a mapping key by key, converts each value by its kind (plain kinds in
 :mod:`factsheet.load.scalars`, structured ones — detection, estimate, body, history,
-counterpart candidates, host, limits, file paths — here) and appends a
+counterpart candidates, host, limits, file paths, the sky map — here) and appends a
 :class:`~factsheet.errors.Problem` with the line and key path for each bad value, so one run
 reports every problem of a file.
 """
@@ -26,6 +26,7 @@ from factsheet.load.schema import (
     MAX_CANDIDATES,
     Key,
 )
+from factsheet.load.skymap import Where, check_sky_map
 from factsheet.load.yaml_lines import LineList, LineMap
 from factsheet.model import (
     Body,
@@ -35,6 +36,7 @@ from factsheet.model import (
     HistoryEntry,
     Host,
     Limits,
+    SkyMapFile,
 )
 
 
@@ -43,7 +45,8 @@ class Checker:
 
     ``base`` is the folder that relative file names start from, ``root`` the catalogue folder
     that they must not leave, ``cosmology`` the catalogue's cosmology, under which a distance
-    must lie inside the redshift table (up to d_L(z = 1000)).
+    must lie inside the redshift table (up to d_L(z = 1000)). Warnings about valid but
+    suspicious files (a sky map far from normalised) go to ``warnings``.
     """
 
     def __init__(
@@ -53,10 +56,12 @@ class Checker:
         base: Path | None = None,
         root: Path | None = None,
         cosmology: str | None = None,
+        warnings: list[Problem] | None = None,
     ):
         self.path, self.problems = path, problems
         self.base, self.root = base, root
         self.cosmology = cosmology
+        self.warnings = [] if warnings is None else warnings
 
     def fail(self, line: int | None, key: str, message: str) -> None:
         self.problems.append(Problem(self.path, line, key, message))
@@ -120,6 +125,15 @@ class Checker:
         except Bad as exc:
             self.fail(line, path, str(exc))
             return None
+
+    def _sky_map(self, raw, key, path, line) -> SkyMapFile | None:
+        """A sky map named relative to the event file, read and checked whole."""
+        try:
+            found = scalars.file_in(raw, self.base or Path("."), self.root, "sky map")
+        except Bad as exc:
+            self.fail(line, path, str(exc))
+            return None
+        return check_sky_map(found, self.problems, self.warnings, Where(self.path, line, path))
 
     def _detection(self, raw, key, path, line) -> Detection | None:
         values = self._section(raw, DETECTION_KEYS, path, line, "")

@@ -26,6 +26,7 @@ detection:
   snr:                   # network signal-to-noise ratio, e.g. 14.3
   false_alarm_rate:      # e.g. 1 / 80 yr
   sky_area:              # area of the 90 % credible region, e.g. 580 deg2
+  # sky_map: {id}-sky.fits   # optional HEALPix FITS probability map (docs/sky-maps.md)
 
 estimate:
   heavier:

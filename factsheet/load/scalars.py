@@ -237,9 +237,10 @@ def mapping(raw: object, key: Key) -> dict:
     return dict(raw)
 
 
-def file_in(raw: object, base: Path, root: Path | None) -> Path:
+def file_in(raw: object, base: Path, root: Path | None, what: str = "samples file") -> Path:
     """An existing regular file named relative to ``base`` that does not lead outside ``root``
-    (a folder, a FIFO, a device, a link that loops or leads nowhere are refused)."""
+    (a folder, a FIFO, a device, a link that loops or leads nowhere are refused); ``what`` names
+    the file in messages."""
     if not isinstance(raw, str) or not raw.strip() or "\x00" in raw:
         raise Bad(f"expected a file name, got {show(raw)}")
     try:
@@ -250,11 +251,11 @@ def file_in(raw: object, base: Path, root: Path | None) -> Path:
     if outside:
         raise Bad(f"{show(raw)} points outside the catalogue folder")
     try:
-        return target_of(base / raw, root)  # read (once) by the samples reader
+        return target_of(base / raw, root)  # read (once) by the file's own reader
     except FileRefused as exc:
         if str(exc) == "not found":
-            raise Bad(f"samples file {show(raw)} not found (looked in {base})") from None
-        raise Bad(f"samples file {show(raw)}: {exc}") from None
+            raise Bad(f"{what} {show(raw)} not found (looked in {base})") from None
+        raise Bad(f"{what} {show(raw)}: {exc}") from None
 
 
 def magnifications(raw: object, key: Key) -> tuple[float, ...]:

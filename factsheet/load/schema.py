@@ -107,7 +107,11 @@ DETECTION_KEYS: dict[str, Key] = {
         canonical_unit="deg2",
         range_note=_WHOLE_SKY,
     ),
-    "sky_map": unsupported("HEALPix FITS sky map", "give the area as sky_area"),
+    "sky_map": Key(
+        "sky_map",
+        "HEALPix FITS probability map (equatorial), relative to this file",
+        example="a-sky.fits",
+    ),
 }
 
 ESTIMATE_KEYS: dict[str, Key] = {

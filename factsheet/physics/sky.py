@@ -21,8 +21,8 @@ import numpy as np
 
 from .registry import Method, register
 
-#: Pixels summed at a time: bounds the temporary arrays of the running sums (32 MB in doubles).
-CHUNK = 1 << 22
+#: Pixels summed at a time: bounds the temporary arrays of the running sums (8 MB in doubles).
+CHUNK = 1 << 20
 #: The largest NSIDE read: 50 million pixels, finer than any published merger map.
 MAX_NSIDE = 2048
 ORDERS = ("RING", "NESTED")
@@ -100,7 +100,7 @@ class RankedMap:
         if len(prob) != pixel_count(nside):
             raise ValueError(f"{len(prob)} pixels, expected 12 × {nside}² = {pixel_count(nside)}")
         self.nside = nside
-        self.values = np.sort(prob, kind="stable")
+        self.values = np.sort(prob)  # values alone: a stable sort would only cost a buffer
         self.total = sum(float(np.sum(c, dtype=np.float64)) for c in _chunks(self.values))
         if not self.total > 0:
             raise ValueError("the map holds no probability")
@@ -111,8 +111,8 @@ class RankedMap:
             raise ValueError(f"credible level {level}: expected 0 < level ≤ 1")
         target, held, n = level * self.total, 0.0, len(self.values)
         for end in range(n, 0, -CHUNK):
-            chunk = self.values[max(end - CHUNK, 0) : end][::-1].astype(np.float64)
-            running = np.cumsum(chunk) + held
+            running = np.cumsum(self.values[max(end - CHUNK, 0) : end][::-1], dtype=np.float64)
+            running += held
             if running[-1] >= target:
                 return n - end + int(np.searchsorted(running, target)) + 1
             held = float(running[-1])
@@ -144,10 +144,11 @@ def _sums_below(ascending: np.ndarray, indices: np.ndarray) -> np.ndarray:
     out = np.empty(len(flat), dtype=np.float64)
     held, pos = 0.0, 0
     for start in range(0, len(ascending), CHUNK):
-        chunk = ascending[start : start + CHUNK].astype(np.float64)
-        running = np.concatenate(([held], np.cumsum(chunk) + held))
-        stop = int(np.searchsorted(wanted, start + len(chunk), side="right"))
-        out[pos:stop] = running[wanted[pos:stop] - start]
+        running = np.cumsum(ascending[start : start + CHUNK], dtype=np.float64)
+        running += held
+        stop = int(np.searchsorted(wanted, start + len(running), side="right"))
+        taken = wanted[pos:stop] - start  # pixels of this chunk below each index
+        out[pos:stop] = np.where(taken > 0, running[np.maximum(taken - 1, 0)], held)
         pos, held = stop, float(running[-1])
     out[pos:] = held
     result = np.empty_like(out)

@@ -75,24 +75,6 @@ def test_each_problem_names_file_line_and_key(catalogue, old, new, line, key, wo
     assert words in problem
 
 
-BODY_SPIN = "    spin: 0.1 +0.2 -0.2\n"
-DISTANCE = "  distance: 440 +180 -170 Mpc\n"
-SKY_AREA = "  sky_area: 580 deg2\n"
-
-
-@pytest.mark.parametrize(
-    ("old", "new", "line", "key"),
-    [
-        (SKY_AREA, SKY_AREA + "  sky_map: sky.fits\n", 10, "detection.sky_map"),
-    ],
-)
-def test_event_keys_not_supported_yet(catalogue, old, new, line, key):
-    folder = catalogue({"ev.yaml": replace(VALID_EVENT, old, new)})
-    (problem,) = problems_of(folder)
-    assert problem.startswith(f"{folder / 'ev.yaml'}:{line}: {key}: "), problem
-    assert "not supported yet" in problem
-
-
 @pytest.mark.parametrize(
     "setting",
     [
