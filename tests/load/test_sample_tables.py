@@ -8,8 +8,10 @@ from __future__ import annotations
 
 import hashlib
 import os
+import re
 import subprocess
 import sys
+from pathlib import Path
 
 import astropy.units as u
 import numpy as np
@@ -344,3 +346,22 @@ def test_a_million_ecsv_rows_are_read_in_bounded_memory(tmp_path):
     count, growth = (int(x) for x in result.stdout.split())
     kept = rows * 5 * 8
     assert count == rows and growth < 1.5 * kept, f"peak grew by {growth / 2**20:.0f} MiB"
+
+
+def test_the_documented_examples_write_and_read_the_same_samples(tmp_path, monkeypatch):
+    page = (Path(__file__).resolve().parents[2] / "docs" / "samples-files.md").read_text("utf-8")
+    (csv_text,) = re.findall(r"^```csv\n(.*?)^```$", page, re.M | re.S)
+    (ecsv_text,) = re.findall(r"^```ecsv\n(.*?)^```$", page, re.M | re.S)
+    (code,) = re.findall(r"^```python\n(.*?)^```$", page, re.M | re.S)
+    monkeypatch.chdir(tmp_path)
+    exec(compile(code, "samples-files.md", "exec"), {})  # writes dx0412.ecsv and dx0412.fits
+    assert Path("dx0412.ecsv").read_text(encoding="utf-8") == ecsv_text
+    Path("dx0412.csv").write_text(csv_text, encoding="utf-8")
+    Path("shown.ecsv").write_text(ecsv_text, encoding="utf-8")
+    expected = read_samples(Path("dx0412.csv")).values
+    for name in ("shown.ecsv", "dx0412.ecsv", "dx0412.fits"):
+        warnings = []
+        values = read_samples(Path(name), warnings=warnings).values
+        assert not warnings
+        for path, column in expected.items():
+            assert values[path].tolist() == column.tolist(), (name, path)
