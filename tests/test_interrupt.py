@@ -17,7 +17,7 @@ from pathlib import Path
 
 from factsheet.resources import demo_dir
 
-DEMO_SUBSET = ("catalogue.yaml", "mer34-001.yaml", "mer34-001.csv")
+DEMO_SUBSET = ("catalogue.yaml", "mer34-001.yaml", "mer34-001.ecsv")
 ENV = {**os.environ, "SOURCE_DATE_EPOCH": "2050000000"}
 
 
@@ -119,10 +119,10 @@ def test_failed_build_leaves_existing_folder_whole(tmp_path):
     out = tmp_path / "site"
     assert _build(old, out).returncode == 0
     before = _snapshot(out)
-    (old / "mer34-001.csv").write_text("heavier.mass [Msun]\n1\n", encoding="utf-8")
+    (old / "mer34-001.ecsv").write_text("heavier.mass [Msun]\n1\n", encoding="utf-8")
     failed = _build(old, out)
     assert failed.returncode == 1 and "Traceback" not in failed.stderr
-    assert f"{old / 'mer34-001.csv'}:1: header:" in failed.stderr
+    assert f"{old / 'mer34-001.ecsv'}:1: file: not an ECSV file" in failed.stderr
     assert _snapshot(out) == before
 
 

@@ -1,18 +1,16 @@
 """Write the demo catalogue's posterior-samples file, deterministically.
 
-The demo event MER34-001 (``events_demo/mer34-001.yaml``) names ``mer34-001.csv`` under its
+The demo event MER34-001 (``events_demo/mer34-001.yaml``) names ``mer34-001.ecsv`` under its
 ``samples`` key. The samples are invented: they are drawn here from a fixed-seed generator so
 that a rerun rewrites the identical file. Run from anywhere:
 
     python tools/make_demo_samples.py
 
-File layout (read by the loader, see docs/samples-files.md):
-
-* lines starting with ``#`` are comments;
-* the first other line is the header: one cell per value, written ``path [unit]`` with the
-  path of the value in an estimate and an astropy unit string (``Msun`` and ``Mpc`` are the
-  input-format aliases); a dimensionless column has no bracket, e.g. ``heavier.spin``;
-* every further line is one sample, values rounded to 5 significant digits.
+File layout (read by the loader, see docs/samples-files.md): an ECSV table written by astropy's
+``Table.write``, one column per value named by the path of the value in an estimate, its unit
+in the column's header entry (none for a dimensionless column, e.g. ``heavier.spin``), the
+invented origin in the table's ``meta``; every row is one sample, values rounded to 5
+significant digits.
 
 How the samples are drawn (a toy model of how a compact-binary measurement looks, not a fit):
 the source-frame chirp mass is tightly measured (normal, 2.5 % standard deviation), the mass
@@ -25,15 +23,16 @@ redrawing. The luminosity distance is log-normal and independent of the rest.
 
 from __future__ import annotations
 
-import csv
 from pathlib import Path
 
+import astropy.units as u
 import numpy as np
+from astropy.table import Table
 
 SEED = 3401  # fixed: the file must not change between runs
 N_SAMPLES = 2000
 SIGNIFICANT_DIGITS = 5
-OUT = Path(__file__).resolve().parent.parent / "events_demo" / "mer34-001.csv"
+OUT = Path(__file__).resolve().parent.parent / "events_demo" / "mer34-001.ecsv"
 
 CHIRP_MASS = 26.5  # Msun, source frame, median of the invented measurement
 CHIRP_MASS_REL_SD = 0.025
@@ -44,17 +43,14 @@ SPIN_Q_TILT = -0.35  # shift of the heavier body's spin per unit of q above its 
 DISTANCE_MEDIAN = 1290.0  # Mpc
 DISTANCE_LOG_SD = 0.25
 
-HEADER = [
-    "heavier.mass [Msun]",
-    "lighter.mass [Msun]",
-    "heavier.spin",
-    "lighter.spin",
-    "distance [Mpc]",
-]
-COMMENT = (  # no commas, so that a plain CSV reader sees one cell if it does not skip comments
-    "# MER34-001 posterior samples invented for the factsheet demo (not a real measurement);"
-    " header cells read: path [astropy unit]; a cell without a bracket is dimensionless"
-)
+COLUMNS = {  # path of the value in an estimate: its unit ('' for a dimensionless value)
+    "heavier.mass": "solMass",
+    "lighter.mass": "solMass",
+    "heavier.spin": "",
+    "lighter.spin": "",
+    "distance": "Mpc",
+}
+DESCRIPTION = "MER34-001 posterior samples invented for the factsheet demo (not a real measurement)"
 
 
 def components_from_chirp(chirp_mass: np.ndarray, q: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
@@ -83,18 +79,16 @@ def draw(rng: np.random.Generator, n: int) -> dict[str, np.ndarray]:
     spin1 = bounded_normal(rng, spin1_mean, HEAVIER_SPIN[1])
     spin2 = bounded_normal(rng, np.full(n, LIGHTER_SPIN[0]), LIGHTER_SPIN[1])
     distance = DISTANCE_MEDIAN * np.exp(DISTANCE_LOG_SD * rng.standard_normal(n))
-    return dict(zip(HEADER, (m1, m2, spin1, spin2, distance), strict=True))
+    return dict(zip(COLUMNS, (m1, m2, spin1, spin2, distance), strict=True))
 
 
-def write_csv(columns: dict[str, np.ndarray], path: Path) -> None:
-    """Write the comment line, the header and the rounded rows (general format, 5 digits)."""
-    rows = zip(*columns.values(), strict=True)
-    with path.open("w", newline="", encoding="utf-8") as handle:
-        handle.write(COMMENT + "\n")
-        writer = csv.writer(handle, lineterminator="\n")
-        writer.writerow(columns.keys())
-        for row in rows:
-            writer.writerow(f"{value:.{SIGNIFICANT_DIGITS}g}" for value in row)
+def write_ecsv(columns: dict[str, np.ndarray], path: Path) -> None:
+    """Write the rounded samples (5 significant digits) as an ECSV table, units in its header."""
+    table = Table(meta={"description": DESCRIPTION})
+    for name, values in columns.items():
+        rounded = np.array([float(f"{value:.{SIGNIFICANT_DIGITS}g}") for value in values])
+        table[name] = rounded * u.Unit(COLUMNS[name]) if COLUMNS[name] else rounded
+    table.write(path, format="ascii.ecsv", overwrite=True)
 
 
 def summarise(columns: dict[str, np.ndarray], level: float = 0.9) -> None:
@@ -106,9 +100,9 @@ def summarise(columns: dict[str, np.ndarray], level: float = 0.9) -> None:
 
 
 def main() -> None:
-    """Draw the samples with the fixed seed, write the CSV and print its summary."""
+    """Draw the samples with the fixed seed, write the ECSV table and print its summary."""
     columns = draw(np.random.default_rng(SEED), N_SAMPLES)
-    write_csv(columns, OUT)
+    write_ecsv(columns, OUT)
     summarise(columns)
     print(f"wrote {OUT} ({OUT.stat().st_size / 1024:.0f} kB)")
 

@@ -1,14 +1,17 @@
-"""Read and check a posterior-samples file (CSV whose header cells read ``path [unit]``).
+"""Read and check a posterior-samples file: CSV (header cells ``path [unit]``), ECSV or FITS.
 
-Columns are named by the paths of the estimate (``heavier.mass [Msun]``, ``distance [Mpc]``,
-``effective_spin``); values come back in canonical units (solMass, Mpc, dimensionless), the
-bodies relabelled so that the heavier one is heavier in every sample. The file is read once, in
-binary, line by line: every line is bounded, hashed (the build cache keys on the digest) and
-decoded, so a bad byte or row is reported with its line. Columns the format does not name are
-ignored with a warning. Only a regular file is opened (never a FIFO or a device); a header
-cell holding a control character is refused, and so is a distance beyond the end of the redshift
-table under the catalogue's cosmology. Memory stays bounded: only the columns read are kept, as
-8-byte floats (about 40 MB for a million rows of five columns).
+The format follows the file's suffix. Columns are named by the paths of the estimate
+(``heavier.mass``, ``distance``, ``effective_spin``), with their units in the CSV header cell
+or in the ECSV and FITS table's own metadata; values come back in canonical units (solMass,
+Mpc, dimensionless), the bodies relabelled so that the heavier one is heavier in every sample.
+The checks are the same for every format (this module); reading the ECSV and FITS tables is
+:mod:`factsheet.load.sample_tables`. A CSV file is read once, in binary, line by line: every
+line is bounded, hashed (the build cache keys on the digest) and decoded, so a bad byte or row
+is reported with its line. Columns the format does not name are ignored with a warning. Only a
+regular file is opened (never a FIFO or a device); a header cell holding a control character
+is refused, and so is a distance beyond the end of the redshift table under the catalogue's
+cosmology. Memory stays bounded: only the columns read are kept, as 8-byte floats (about 40 MB
+for a million rows of five columns).
 """
 
 from __future__ import annotations
@@ -26,6 +29,15 @@ import numpy as np
 from factsheet.errors import InputError, Problem
 from factsheet.load import files
 from factsheet.load.checker import distance_beyond_table
+from factsheet.load.sample_tables import (
+    MAX_LINE,
+    Column,
+    EcsvTable,
+    FitsTable,
+    Rows,
+    problem,
+    too_many_rows,
+)
 from factsheet.load.scalars import article
 from factsheet.load.schema import physical_range, value_key
 from factsheet.load.values import ValueParseError, parse_unit
@@ -39,7 +51,6 @@ NOT_YET = (
     "mass_ratio",
 )
 HEADER_CELL = re.compile(r"^\s*([A-Za-z_][A-Za-z0-9_.]*)\s*(?:\[(.*)\])?\s*$")
-MAX_LINE = 4096  # bytes in one line; seven numbers need far fewer
 DEFAULT_LIMITS = Limits()
 
 
@@ -77,25 +88,37 @@ def read_samples(
     warnings: list[Problem] | None = None,
     cosmology: str | None = None,
 ) -> SamplesFile:
-    """Read and check a samples file; :class:`InputError` names its line and column.
+    """Read and check a samples file; :class:`InputError` names its line (or row) and column.
 
-    With ``cosmology``, every distance must lie inside that cosmology's redshift table.
+    The format follows the suffix (:data:`FORMATS`). With ``cosmology``, every distance must lie
+    inside that cosmology's redshift table.
     """
-    lines = _Lines()
+    path = Path(path)
+    table_type = format_of(path)
     try:
-        with files.open_regular(Path(path)) as handle:
-            lines.handle = handle
-            reader = csv.reader(lines)
-            values = _read_table(Path(path), reader, limits.max_sample_rows, warnings, cosmology)
-    except csv.Error as exc:
-        message = f"not valid CSV ({exc})"
+        with files.open_regular(path) as handle:
+            table = table_type(path, handle)
+            values = _read_table(path, table, limits.max_sample_rows, warnings, cosmology)
     except files.FileRefused as exc:
-        message = str(exc)
+        raise problem(path, 1, "file", str(exc)) from None
     except OSError as exc:
-        message = f"cannot read ({exc.strerror})"
-    else:
-        return SamplesFile(Path(path), lines.digest.hexdigest(), values)
-    raise InputError(problems=[Problem(path, max(lines.line, 1), "file", message)]) from None
+        raise problem(path, 1, "file", f"cannot read ({exc.strerror})") from None
+    return SamplesFile(path, table.digest.hexdigest(), values)
+
+
+def format_of(path: Path):
+    """The reader of a samples file's format, from its suffix; :class:`InputError` if unknown."""
+    for suffix, table_type in FORMATS.items():
+        if path.name.lower().endswith(suffix):
+            return table_type
+    *most, last = FORMATS
+    message = (
+        f"suffix {path.suffix[:20]!r} is not a samples format: samples files end in "
+        f"{', '.join(most)} or {last}"
+    )
+    if path.name.lower().endswith((".fits.gz", ".fit.gz", ".fz")):
+        message = "compressed FITS is not read (it cannot be memory-mapped): decompress it first"
+    raise InputError(problems=[Problem(path, None, "file", message)])
 
 
 def check_samples(
@@ -113,78 +136,140 @@ def check_samples(
         return None
 
 
-class _Lines:
-    """Decoded lines of a binary file: bounded, hashed, refusing NUL bytes and bad UTF-8."""
+class CsvTable:
+    """A CSV samples file: the first line that is not blank or a comment is the header, every
+    later one a sample. It is read once, line by line, each line bounded, hashed and decoded."""
 
-    def __init__(self) -> None:
-        self.handle: BinaryIO | None = None
+    header_line = 1
+
+    def __init__(self, path: Path, handle: BinaryIO) -> None:
+        self.path, self.handle = path, handle
         self.line = 0
         self.digest = hashlib.sha256()
+        self.reader = csv.reader(self._lines())
+        header = next(self._rows(), None)
+        if header is None:
+            raise problem(path, 1, "file", "samples file is empty")
+        self.header_line, self.width = self.reader.line_num, len(header)
+        self.problems: list[Problem] = []
+        self.columns = [self._column(i, cell) for i, cell in enumerate(header)]
 
-    def __iter__(self) -> Iterator[str]:
-        assert self.handle is not None, "open the file first"
+    def _lines(self) -> Iterator[str]:
         while data := self.handle.readline(MAX_LINE + 1):
             self.line += 1
             self.digest.update(data)
             if b"\x00" in data:
-                raise csv.Error("the file contains NUL bytes (binary, not CSV)")
+                raise self._bad("the file contains NUL bytes (binary, not CSV)")
             if len(data) > MAX_LINE and not data.endswith(b"\n"):
-                raise csv.Error(f"a line longer than {MAX_LINE} bytes")
+                raise self._bad(f"a line longer than {MAX_LINE} bytes")
             try:
                 yield data.decode("utf-8")
             except UnicodeDecodeError:
-                raise csv.Error("samples file is not UTF-8 text") from None
+                raise self._bad("samples file is not UTF-8 text") from None
+
+    def _bad(self, message: str) -> InputError:
+        return problem(self.path, max(self.line, 1), "file", message)
+
+    def _rows(self) -> Iterator[list[str]]:
+        """Rows that are neither blank nor comments (a first cell starting with '#')."""
+        try:
+            for row in self.reader:
+                if row and not row[0].lstrip().startswith("#"):
+                    yield row
+        except csv.Error as exc:
+            raise self._bad(f"not valid CSV ({exc})") from None
+
+    def _column(self, index: int, cell: str) -> Column:
+        if why := bad_character(cell):
+            self.problems.append(
+                Problem(self.path, self.header_line, "header",
+                        f"column {index + 1}'s name contains {why}")
+            )  # fmt: skip
+            return Column(index, "", "", self.header_line)
+        m = HEADER_CELL.match(cell)
+        name, unit = (m.group(1), m.group(2) or "") if m else (cell[:60], "")
+        return Column(index, name, unit, self.header_line)
+
+    def example(self, name: str, unit: str) -> str:
+        return f"'{name} [{unit}]'" if unit else f"'{name}'"
+
+    def read(self, indices: list[int], max_rows: int) -> tuple[list[np.ndarray], Rows]:
+        """The cells of the columns ``indices`` of every row, one array of 8-byte floats per
+        column, and where each row stands; the other columns are dropped as each row is read."""
+        cells, rows = [array("d") for _ in indices], Rows(self.header_line + 1)
+        for row in self._rows():
+            line = self.reader.line_num
+            if rows.count >= max_rows:
+                raise problem(self.path, line, "row", too_many_rows(max_rows))
+            if len(row) != self.width:
+                raise problem(self.path, line, "row", f"{len(row)} cells, expected {self.width}")
+            try:
+                values = [float(row[i]) for i in indices]
+            except ValueError:
+                raise problem(self.path, line, "row", f"not a number in {row!r}"[:200]) from None
+            for column, value in zip(cells, values, strict=True):
+                column.append(value)
+            rows.add(line)
+        if not rows.count:
+            raise problem(self.path, self.header_line + 1, "row", "no sample rows after the header")
+        return [np.frombuffer(c, dtype=float) for c in cells], rows  # views: no copy
+
+
+#: The samples-file formats by suffix (compared in lower case).
+FORMATS = {".csv": CsvTable, ".ecsv": EcsvTable, ".fits": FitsTable, ".fit": FitsTable}
 
 
 def _read_table(
-    path: Path, reader, max_rows: int, warnings, cosmology: str | None
+    path: Path, table, max_rows: int, warnings, cosmology: str | None
 ) -> dict[str, np.ndarray]:
-    header = next(_data_rows(reader), None)
-    if header is None:
-        raise InputError(problems=[Problem(path, 1, "file", "samples file is empty")])
-    problems: list[Problem] = []
-    columns = _read_header(path, header, problems, reader.line_num, warnings)
+    problems: list[Problem] = list(getattr(table, "problems", []))
+    chosen = _choose_columns(path, table, problems, warnings)
     if problems:
         raise InputError(problems=problems)
-    cells, lines = _read_rows(path, reader, len(header), list(columns), max_rows)
+    arrays, rows = table.read([column.index for column, _ in chosen], max_rows)
     out = {}
-    for (name, factor), cell in zip(columns.values(), cells, strict=True):
-        x = np.frombuffer(cell, dtype=float)  # a view of the column as read: no copy
+    for (column, factor), x in zip(chosen, arrays, strict=True):
         if factor != 1:
-            x = x * factor
-        out[name] = x
-    _check_values(path, out, lines, cosmology)
+            x *= factor  # in place: the reader's array is ours
+        out[column.name] = x
+    _check_values(path, out, rows, cosmology)
     return heavier_first(out, in_place=True)
 
 
-def _read_header(
-    path: Path, header: list[str], problems: list[Problem], line: int, warnings
-) -> dict[int, tuple[str, float]]:
-    columns: dict[int, tuple[str, float]] = {}
+def _choose_columns(
+    path: Path, table, problems: list[Problem], warnings
+) -> list[tuple[Column, float]]:
+    """The header's columns to read, each with the factor to its canonical unit."""
+    chosen: list[tuple[Column, float]] = []
     seen: set[str] = set()
-    for i, cell in enumerate(header):
-        if why := bad_character(cell):
-            problems.append(Problem(path, line, "header", f"column {i + 1}'s name contains {why}"))
-            continue
-        m = HEADER_CELL.match(cell)
-        name = m.group(1) if m else cell[:60]
+    for column in table.columns:
+        name, line = column.name, column.line
+        if not name:
+            continue  # already reported by the reader
         if name in seen:
             problems.append(Problem(path, line, name, "column given twice"))
             continue
         seen.add(name)
-        if m and name in NOT_YET:
+        if name in NOT_YET:
             problems.append(Problem(path, line, name, "not supported yet in samples files"))
-        elif not m or name not in ESTIMATE_PATHS:
+        elif name not in ESTIMATE_PATHS:
             if warnings is not None:
-                warnings.append(Problem(path, line, f"column {cell[:60]!r}", _IGNORED))
-        elif (column := _column(path, name, m.group(2) or "", line, problems)) is not None:
-            columns[i] = column
+                warnings.append(Problem(path, line, f"column {name[:60]!r}", _IGNORED))
+        elif column.not_numeric:
+            problems.append(Problem(path, line, name, column.not_numeric))
+        elif (factor := _factor(path, column, table, problems)) is not None:
+            chosen.append((column, factor))
+    line = table.header_line
     missing = [c for c in REQUIRED_COLUMNS if c not in seen]
     if missing:
         problems.append(Problem(path, line, "header", f"missing column(s): {', '.join(missing)}"))
     for name, message in spin_column_problems(seen):
-        problems.append(Problem(path, line, name, message))
-    return columns
+        problems.append(Problem(path, _line_of(table, name), name, message))
+    return chosen
+
+
+def _line_of(table, name: str) -> int:
+    return next((c.line for c in table.columns if c.name == name), table.header_line)
 
 
 def spin_column_problems(seen: set[str]) -> list[tuple[str, str]]:
@@ -215,89 +300,42 @@ VECTOR = ("spin_magnitude", "tilt")
 
 
 _IGNORED = (
-    "unknown column, ignored (the columns read are 'path [unit]' with a path from: "
+    "unknown column, ignored (the columns read are named by a path from: "
     f"{', '.join(ESTIMATE_PATHS)})"
 )
 
 
-def _column(path: Path, name: str, unit_text: str, line: int, problems: list[Problem]):
-    key = value_key(name)
+def _factor(path: Path, column: Column, table, problems: list[Problem]) -> float | None:
+    """The factor from the column's unit to its key's canonical unit (None: a problem)."""
+    name, key = column.name, value_key(column.name)
     try:
-        unit = parse_unit(unit_text)
+        unit = parse_unit(column.unit)
     except ValueParseError as exc:
-        problems.append(Problem(path, line, name, str(exc)))
+        problems.append(Problem(path, column.line, name, str(exc)))
         return None
     wanted = key.physical_type or "dimensionless"
     if unit.physical_type != wanted:
-        example = f"{name} [{key.canonical_unit}]" if key.canonical_unit else name
-        problems.append(
-            Problem(
-                path,
-                line,
-                name,
-                f"unit {unit.to_string() or 'none'} is not {article(wanted)} (e.g. '{example}')",
-            )
-        )
+        example = table.example(name, key.canonical_unit)
+        message = f"unit {unit.to_string() or 'none'} is not {article(wanted)} (e.g. {example})"
+        problems.append(Problem(path, column.line, name, message))
         return None
-    return name, unit.to(key.canonical_unit or "")
+    return unit.to(key.canonical_unit or "")
 
 
-def _data_rows(reader):
-    """Rows that are neither blank nor comments (a first cell starting with '#')."""
-    for row in reader:
-        if row and not row[0].lstrip().startswith("#"):
-            yield row
-
-
-def _row_problem(path: Path, line: int, message: str) -> InputError:
-    return InputError(problems=[Problem(path, line, "row", message)])
-
-
-def _read_rows(
-    path: Path, reader, width: int, read: list[int], max_rows: int
-) -> tuple[list[array], array]:
-    """The cells of the columns ``read`` of every row, one array of 8-byte floats per column,
-    and the line of each row; the other columns are dropped as each row is read."""
-    cells, lines = [array("d") for _ in read], array("q")
-    for row in _data_rows(reader):
-        line = reader.line_num
-        if len(lines) >= max_rows:
-            raise _row_problem(
-                path,
-                line,
-                f"more than {max_rows} rows (raise limits.max_sample_rows "
-                "in catalogue.yaml if this is intended)",
-            )
-        if len(row) != width:
-            raise _row_problem(path, line, f"{len(row)} cells, expected {width}")
-        try:
-            values = [float(row[i]) for i in read]
-        except ValueError:
-            raise _row_problem(path, line, f"not a number in {row!r}"[:200]) from None
-        for column, value in zip(cells, values, strict=True):
-            column.append(value)
-        lines.append(line)
-    if not lines:
-        raise InputError(problems=[Problem(path, 2, "row", "no sample rows after the header")])
-    return cells, lines
-
-
-def _check_values(path: Path, values: dict[str, np.ndarray], lines, cosmology) -> None:
+def _check_values(path: Path, values: dict[str, np.ndarray], rows: Rows, cosmology) -> None:
     for name, x in values.items():
         low, high = physical_range(name)
         on_low = (x == low) & (low == 0.0) & (not value_key(name).low_inclusive)
         bad = ~np.isfinite(x) | (x < low) | (x > high) | on_low
         if bad.any():
-            i = int(np.argmax(bad))
-            raise InputError(
-                problems=[
-                    Problem(path, lines[i], name, f"value {x[i]:g} outside the physical range")
-                ]
-            )
+            line, where = rows.where(int(np.argmax(bad)))
+            value = x[int(np.argmax(bad))]
+            raise problem(path, line, name, f"{where}value {value:g} outside the physical range")
     distance = values["distance"]
     if cosmology is not None and distance_beyond_table(float(distance.max()), cosmology):
         from factsheet.physics.cosmology import distance_limit
 
         i = int(np.argmax(distance > distance_limit(cosmology).to_value("Mpc")))  # the first
+        line, where = rows.where(i)
         why = distance_beyond_table(float(distance[i]), cosmology)
-        raise InputError(problems=[Problem(path, lines[i], "distance", why)])
+        raise problem(path, line, "distance", f"{where}{why}")

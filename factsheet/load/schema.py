@@ -61,7 +61,11 @@ EVENT_KEYS: dict[str, Key] = {
     "frame": Key("choice", "frame of the given masses", choices=("source", "detector")),
     "detection": Key("detection", "what the search reported: network, snr, significance, sky"),
     "estimate": Key("estimate", "the current estimate: the two bodies, spins and distance", True),
-    "samples": Key("path", "posterior samples (CSV), relative to this file", example="a.csv"),
+    "samples": Key(
+        "path",
+        "posterior samples (.csv, .ecsv or .fits table), relative to this file",
+        example="a.ecsv",
+    ),
     "counterpart_candidates": Key(
         "candidates",
         "transients reported by observers, each {name, ra, dec, time, note}",
