@@ -269,10 +269,12 @@ def relabel_caveat(given: dict[str, Summary], drawn: dict[str, np.ndarray]) -> C
         half = (g.high - g.low) / 2
         median = float(np.median(drawn[key]))
         if half > 0 and abs(median - g.median) > RELABEL_MATTERS * half:
-            moved.append(
-                f"{labels.QUANTITIES[key].short} {format_median(median, g.low, g.high)} "
-                f"instead of {format_given_median(g.median, g.low, g.high)}"
+            shown, was = (
+                format_median(median, g.low, g.high),
+                format_given_median(g.median, g.low, g.high),
             )
+            if shown != was:  # a shift the table's precision hides is not worth a caveat
+                moved.append(f"{labels.QUANTITIES[key].short} {shown} instead of {was}")
     if not moved:
         return None
     return Caveat(

@@ -374,6 +374,10 @@ def test_relabelled_draws_are_said_when_they_move_a_median():
     assert item.quantities["heavier_mass"].median == 30  # the table's value is the given one
     apart = derive(yaml.safe_load(VALID_EVENT))  # 36 +5 -4 against 29 +4 -5: barely overlap
     assert not [c for c in apart.caveats if c.code == "relabelled-draws"]
+    hidden = yaml.safe_load(VALID_EVENT)  # the lighter median moves by less than the table's
+    hidden["estimate"]["heavier"]["mass"] = "63 +14 -11 Msun"  # precision shows: never
+    hidden["estimate"]["lighter"]["mass"] = "41 +10 -12 Msun"  # "41 instead of 41"
+    assert not [c for c in derive(hidden).caveats if c.code == "relabelled-draws"]
 
 
 def test_remnant_against_the_orbit_rings_in_the_counter_rotating_mode():
