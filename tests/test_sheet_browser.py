@@ -121,3 +121,28 @@ def test_every_sheet_prints_on_two_a4_pages_or_fewer(site, browser):
             too_long[path.name] = count
     context.close()
     assert too_long == {}
+
+
+@pytest.mark.parametrize("width", [390, 1280])
+def test_sky_figures_load_and_fit_at_phone_and_desktop_width(site, browser, width):
+    context = browser.new_context(viewport={"width": width, "height": 900})
+    page = context.new_page()
+    shown = {}
+    for name in ("MER34-005", "MER34-011", "MER34-012"):  # the demo's three sky maps
+        page.goto((site / "events" / f"{name}.html").as_uri())
+        figure = page.locator(f"#sky img[src$='{name}-sky.svg']")
+        figure.scroll_into_view_if_needed()
+        figure.evaluate("img => img.decode()")
+        natural, drawn = figure.evaluate("img => [img.naturalWidth, img.clientWidth]")
+        alt = figure.get_attribute("alt")
+        shown[name] = natural > 0 and 0 < drawn <= width and "90 %" in alt
+    page.goto((site / "index.html").as_uri())
+    thumbs = page.eval_on_selector_all(
+        "img[src$='-sky-small.svg']",
+        # lazy images load when near the view: ask for them now, as a scroll would
+        "els => Promise.all(els.map(e => { e.loading = 'eager'; "
+        "return e.decode().then(() => e.naturalWidth); }))",
+    )
+    context.close()
+    assert shown == {"MER34-005": True, "MER34-011": True, "MER34-012": True}
+    assert len(thumbs) == 3 and all(w > 0 for w in thumbs)

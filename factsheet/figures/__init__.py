@@ -18,7 +18,14 @@ from factsheet.figures.inputs import (
     WindowItem,
 )
 from factsheet.figures.share import ShareBody, ShareCard, share_png
-from factsheet.figures.sky import SkyMark, SkyRegions, SkyTexts, sky_figure, sky_thumbnail
+from factsheet.figures.sky import (
+    SkyMark,
+    SkyRegions,
+    SkyTexts,
+    close_up_box,
+    sky_figure,
+    sky_thumbnail,
+)
 from factsheet.figures.svg import to_svg
 from factsheet.figures.timeline import history, window_timeline
 from factsheet.figures.track import frequency_track
@@ -37,6 +44,7 @@ __all__ = [
     "SkyTexts",
     "Track",
     "WindowItem",
+    "close_up_box",
     "comparison_points",
     "component_intervals",
     "distance_mass",

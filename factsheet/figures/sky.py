@@ -36,6 +36,14 @@ DECS = (-60, -30, 0, 30, 60)  # labelled parallels
 CANDIDATE_MARKERS = ("^", "s", "D", "v", "P", "X", "p", "h")
 NAME_WIDTH = 24  # characters of a legend name before it wraps (two columns in the width)
 THUMB_CELL = 4  # grid cells merged into one along each axis for the thumbnail
+CLOSE_UP_SPAN = 40.0  # degrees of sky: a 90 % region no wider nor taller gets a close-up
+CLOSE_UP_MIN_HALF = 3.0  # degrees: the close-up shows at least 6° × 6°
+CLOSE_UP_SIZE = 1.8  # inches: the close-up's square panel
+CLOSE_UP_LEFT = 0.62  # inches left of it, for the declinations
+CLOSE_UP_BELOW = 0.3  # inches below it, for the right ascensions
+NAME_WIDTH_BESIDE = 17  # characters of a legend name beside the close-up before it wraps
+RA_STEPS_MIN = (1, 2, 5, 10, 15, 20, 30, 60, 120, 180)  # minutes of time between RA ticks
+DEC_STEPS = (1, 2, 5, 10, 15, 20)  # degrees between declination ticks
 _PROJECT = MollweideAxes.MollweideTransform(1)
 
 
@@ -233,11 +241,19 @@ def sky_figure(
         *(m.name for m in [peak] if m),
         *(c.name for c in candidates),
     ]
-    legend_h = _legend_height([style.wrapped(name, NAME_WIDTH) for name in names])
     map_w = style.WIDTH - 0.62
-    height = map_w / 2 + 0.2 + legend_h
+    box = close_up_box(levels)
+    if box is None:  # the map, and the legend in two columns below it
+        width = NAME_WIDTH
+        legend_h = _legend_height([style.wrapped(name, width) for name in names])
+        below = legend_h
+    else:  # the map, and below it the close-up with the legend in one column at its right
+        width = NAME_WIDTH_BESIDE
+        legend_h = _legend_height([style.wrapped(name, width) for name in names], columns=1)
+        below = max(CLOSE_UP_SIZE + CLOSE_UP_BELOW + 0.1, legend_h + CLOSE_UP_BELOW)
+    height = map_w / 2 + 0.2 + below
     fig = style.new_figure(style.WIDTH, height, (0, 1, 0, 1))
-    ax = fig.add_axes((0.56 / style.WIDTH, (legend_h + 0.08) / height,
+    ax = fig.add_axes((0.56 / style.WIDTH, (below + 0.08) / height,
                        map_w / style.WIDTH, (map_w / 2 + 0.06) / height))  # fmt: skip
     edge = _sky_axes(ax)
     ax.set_xlim(-HALF_WIDTH * 1.01, HALF_WIDTH * 1.01)
@@ -248,33 +264,42 @@ def sky_figure(
         Patch(
             facecolor=style.SKY[f"{key}_fill"],
             edgecolor=style.SKY[f"{key}_line"],
-            label=style.wrapped(name, NAME_WIDTH),
+            label=style.wrapped(name, width),
         )
         for key, name in (("inner", texts.inner), ("outer", texts.outer))
     ]
     if peak is not None:
-        handles.append(_mark(ax, peak, "*", style.SKY["peak"], 11))
+        handles.append(_mark(ax, peak, "*", style.SKY["peak"], 11, width))
     for k, c in enumerate(candidates):
-        handles.append(
-            _mark(ax, c, CANDIDATE_MARKERS[k % len(CANDIDATE_MARKERS)], style.AXES_FACE, 7)
-        )
-    fig.legend(handles=handles, loc="upper center", bbox_to_anchor=(0.5, legend_h / height),
-               ncol=2, frameon=False, fontsize=style.FONT, handletextpad=0.4,
-               columnspacing=1.2, borderaxespad=0.1)  # fmt: skip
-    return Drawing(fig, _alt(levels, regions, candidates, peak, texts))
+        marker = CANDIDATE_MARKERS[k % len(CANDIDATE_MARKERS)]
+        handles.append(_mark(ax, c, marker, style.AXES_FACE, 7, width))
+    legend = {"frameon": False, "fontsize": style.FONT, "handletextpad": 0.4}
+    if box is None:
+        fig.legend(handles=handles, loc="upper center", bbox_to_anchor=(0.5, legend_h / height),
+                   ncol=2, columnspacing=1.2, borderaxespad=0.1, **legend)  # fmt: skip
+    else:
+        _box_outline(ax, box)
+        top = CLOSE_UP_BELOW + CLOSE_UP_SIZE
+        near = fig.add_axes((CLOSE_UP_LEFT / style.WIDTH, CLOSE_UP_BELOW / height,
+                             CLOSE_UP_SIZE / style.WIDTH, CLOSE_UP_SIZE / height))  # fmt: skip
+        _close_up(near, levels, box, peak, candidates)
+        beside = (CLOSE_UP_LEFT + CLOSE_UP_SIZE + 0.12) / style.WIDTH
+        fig.legend(handles=handles, loc="upper left", bbox_to_anchor=(beside, top / height),
+                   ncol=1, borderaxespad=0.0, **legend)  # fmt: skip
+    return Drawing(fig, _alt(levels, regions, candidates, peak, texts, box))
 
 
-def _legend_height(names: list[str]) -> float:
-    """Inches taken by the two-column legend (filled column by column), a row 0.26 in and each
-    further line of a wrapped name 0.19 in."""
-    half = math.ceil(len(names) / 2)
-    columns = (names[:half], names[half:])
-    return 0.1 + max(sum(0.26 + 0.19 * n.count("\n") for n in column) for column in columns)
+def _legend_height(names: list[str], columns: int = 2) -> float:
+    """Inches taken by the legend (filled column by column), a row 0.26 in and each further
+    line of a wrapped name 0.19 in."""
+    per = math.ceil(len(names) / columns)
+    split = [names[k : k + per] for k in range(0, len(names), per)]
+    return 0.1 + max(sum(0.26 + 0.19 * n.count("\n") for n in column) for column in split)
 
 
-def _mark(ax: Axes, mark: SkyMark, marker: str, face: str, size: float) -> Line2D:
+def _mark(ax: Axes, mark: SkyMark, marker: str, face: str, size: float, width: int) -> Line2D:
     x, y = project(mark.ra, mark.dec)
-    name = style.wrapped(mark.name, NAME_WIDTH)
+    name = style.wrapped(mark.name, width)
     (line,) = ax.plot([float(x)], [float(y)], marker=marker, ms=size, mfc=face, mec=style.INK,
                       mew=0.9, ls="none", zorder=5, label=name)  # fmt: skip
     return line
@@ -298,18 +323,118 @@ def sky_thumbnail(levels: np.ndarray, candidates: list[SkyMark]) -> Drawing:
     return Drawing(fig, alt.replace("%", " %") + ".")
 
 
-def _alt(levels, regions: SkyRegions, candidates, peak, texts: SkyTexts) -> str:
+def _alt(levels, regions: SkyRegions, candidates, peak, texts: SkyTexts, box=None) -> str:
     parts = [
         f"{texts.lead}: an all-sky map in equatorial coordinates, right ascension increasing to "
         f"the left. The {texts.inner} covers {regions.area_50} and the {texts.outer} covers "
         f"{regions.area_90}; the {texts.outer} lies {extent_words(levels, OUTER)}."
     ]
+    if box is not None:
+        parts.append(
+            f"Below it, a close-up {2 * box.half:.0f}° across, centred on right ascension "
+            f"{hours_minutes(box.ra)} and declination {_deg(box.dec)}, draws the regions and "
+            "the marks larger."
+        )
     if peak is not None:
-        parts.append(f"{peak.name} marked{f' ({peak.note})' if peak.note else ''}.")
+        name = peak.name[:1].upper() + peak.name[1:]
+        parts.append(f"{name} marked{f' ({peak.note})' if peak.note else ''}.")
     if candidates:
         said = [f"{c.name}{f' ({c.note})' if c.note else ''}" for c in candidates]
         parts.append("Candidates marked: " + "; ".join(said) + ".")
     return " ".join(parts)
+
+
+# --- the close-up of a small region ------------------------------------------------------------
+
+
+class CloseUp(NamedTuple):
+    """A square patch of sky (degrees): its centre and half its side, measured on the sky."""
+
+    ra: float
+    dec: float
+    half: float
+
+
+def close_up_box(levels: np.ndarray) -> CloseUp | None:
+    """The patch around the 90 % region when that region is small enough to vanish on the whole
+    sky (at most CLOSE_UP_SPAN degrees each way) and away from the poles; else None."""
+    e = extent(levels, OUTER)
+    if e is None or e.ra_from is None:
+        return None
+    arc = (e.ra_to - e.ra_from) % 360.0
+    dec = (e.dec_low + e.dec_high) / 2
+    span = max(arc * math.cos(math.radians(dec)), e.dec_high - e.dec_low)
+    half = max(CLOSE_UP_MIN_HALF, 0.65 * span)
+    if span > CLOSE_UP_SPAN or abs(dec) + half > 80.0:
+        return None
+    return CloseUp((e.ra_from + arc / 2) % 360.0, dec, half)
+
+
+def _east_of(ra, centre: float) -> np.ndarray:
+    """Degrees of right ascension east of ``centre`` (−180° to 180°)."""
+    return (np.asarray(ra, float) - centre + 180.0) % 360.0 - 180.0
+
+
+def _box_outline(ax: Axes, box: CloseUp) -> None:
+    """The close-up's patch outlined on the whole-sky map."""
+    half_ra = box.half / math.cos(math.radians(box.dec))
+    side = np.linspace(-1.0, 1.0, 21)
+    east = np.concatenate([side, np.ones(21), side[::-1], -np.ones(21)]) * half_ra
+    dec = box.dec + np.concatenate([-np.ones(21), side, np.ones(21), side[::-1]]) * box.half
+    x, y = project(box.ra + east, dec)
+    ax.plot(x, y, color=style.INK, lw=0.8, zorder=4)
+
+
+def _close_up(ax: Axes, levels: np.ndarray, box: CloseUp, peak, candidates) -> None:
+    """The regions and marks on the patch, right ascension increasing to the left, the patch's
+    side the same length of sky both ways (the axes are square)."""
+    rows, cols = levels.shape
+    half_ra = box.half / math.cos(math.radians(box.dec))
+    east = _east_of((np.arange(cols) + 0.5) * 360.0 / cols, box.ra)
+    dec = (np.arange(rows) + 0.5) * 180.0 / rows - 90.0
+    columns = np.flatnonzero(np.abs(east) <= half_ra + 1.0)
+    columns = columns[np.argsort(east[columns], kind="stable")]
+    rows_kept = np.abs(dec - box.dec) <= box.half + 1.0
+    grid = levels[np.ix_(rows_kept, columns)].astype(np.float64)
+    x, y = east[columns], dec[rows_kept]
+    ax.set_facecolor(style.AXES_FACE)
+    for level, key, z in ((OUTER, "outer", 1), (INNER, "inner", 2)):
+        ax.contourf(x, y, grid, levels=[-1.0, level], colors=[style.SKY[f"{key}_fill"]], zorder=z)
+        ax.contour(x, y, grid, levels=[level], colors=[style.SKY[f"{key}_line"]],
+                   linewidths=1.2, zorder=z + 0.5)  # fmt: skip
+    if peak is not None:
+        ax.plot([float(_east_of(peak.ra, box.ra))], [peak.dec], marker="*", ms=13,
+                mfc=style.SKY["peak"], mec=style.INK, mew=0.9, ls="none", zorder=5)  # fmt: skip
+    for k, c in enumerate(candidates):
+        ax.plot([float(_east_of(c.ra, box.ra))], [c.dec],
+                marker=CANDIDATE_MARKERS[k % len(CANDIDATE_MARKERS)], ms=9, mfc=style.AXES_FACE,
+                mec=style.INK, mew=1.0, ls="none", zorder=5)  # fmt: skip
+    ax.set_xlim(half_ra, -half_ra)  # east, increasing right ascension, to the left
+    ax.set_ylim(box.dec - box.half, box.dec + box.half)
+    _close_up_ticks(ax, box, half_ra)
+    ax.grid(color=style.GRID, lw=0.6, zorder=0.5)
+    ax.tick_params(labelsize=style.FONT, length=3)
+
+
+def _close_up_ticks(ax: Axes, box: CloseUp, half_ra: float) -> None:
+    """Declination every few degrees; right ascension every few minutes of time, labelled
+    "10h20m" (whole hours "10h"), about as far apart on the sky as the declination ticks."""
+    dec_step = next((s for s in DEC_STEPS if 2 * box.half / s <= 5), DEC_STEPS[-1])
+    low = math.ceil((box.dec - box.half) / dec_step) * dec_step
+    decs = np.arange(low, box.dec + box.half + 1e-9, dec_step)
+    ax.set_yticks(decs, [_deg(d) for d in decs])
+    minutes = next((m for m in RA_STEPS_MIN if 2 * half_ra / (m / 4) <= 3), RA_STEPS_MIN[-1])
+    step = minutes / 4.0  # degrees
+    first = math.ceil((box.ra - half_ra) / step) * step
+    ras = np.arange(first, box.ra + half_ra + 1e-9, step)
+    ax.set_xticks(_east_of(ras, box.ra), [hours_minutes(r) for r in ras])
+
+
+def hours_minutes(ra: float) -> str:
+    """Right ascension in degrees as "10h20m" (to the minute; whole hours "10h")."""
+    total = round((ra % 360.0) * 4) % (24 * 60)
+    hours, minutes = divmod(total, 60)
+    return f"{hours}h{minutes:02d}m" if minutes else f"{hours}h"
 
 
 # --- where a region lies, in words ---------------------------------------------------------------

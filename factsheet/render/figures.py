@@ -150,7 +150,10 @@ def sky_figures(item: Derived, base: str) -> list[SiteFigure]:
     texts = fg.SkyTexts(labels.SKY_REGIONS[0.5], labels.SKY_REGIONS[0.9], labels.SKY_FIGURE_LEAD)
     caption = "Where the source lies: the sky map's 50 % and 90 % credible regions (equatorial "
     caption += "coordinates, right ascension increasing to the left)"
-    caption += ", with the counterpart candidates." if marks else "."
+    caption += ", with the counterpart candidates" if marks else ""
+    if fg.close_up_box(found.levels) is not None:
+        caption += "; below, a close-up of the small region (the square outlined on the sky)"
+    caption += "."
     return [
         _save(
             f"{base}-sky.svg",

@@ -96,8 +96,8 @@ def level_text(r: CandidateReading, level: float) -> str:
         return "no sky map to place it"
     at = percent(r.credible_level)
     if r.credible_level <= level:
-        return f"inside the {percent(level)} credible region (on its {at} contour)"
-    return f"outside the {percent(level)} credible region (on the {at} contour)"
+        return f"inside the {percent(level)} credible region, at the {at} credible level"
+    return f"outside the {percent(level)} credible region, at the {at} credible level"
 
 
 def _reading(r: CandidateReading, level: float) -> str:
@@ -130,10 +130,10 @@ def _repeat(r: CandidateReading, item: Derived) -> str:
         return ""
     start, end, _ = window_times(repeat.start, repeat.end)
     return (
-        f"If {r.candidate.name} is the flare of the kicked remnant, the remnant crosses the disk "
-        f"again about half an orbit later and could flare a second time: look between {start} "
-        f"and {end} UTC, at the same place. A second flare there would make the link much "
-        "stronger; none would not rule it out, since a crossing need not flare."
+        f"If {r.candidate.name} is the kicked remnant's flare, the remnant crosses the disk again "
+        f"half an orbit later and may flare again: look at the same place between {start} and "
+        f"{end} UTC. A second flare would make the link much stronger; none would not rule it "
+        "out."
     )
 
 
@@ -154,7 +154,7 @@ def candidate_rows(item: Derived) -> tuple[CandidateRow, ...]:
                 time_iso=c.time.utc.isot,
                 delay=_delay_text(r),
                 level=level_text(r, level),
-                windows=("inside the window for " + " and for ".join(inside))
+                windows=("inside the window of the " + " and of the ".join(inside))
                 if inside
                 else "outside every counterpart window of this sheet",
                 reading=_reading(r, level),

@@ -38,7 +38,7 @@ from factsheet.figures import (
     style,
     to_svg,
 )
-from factsheet.figures.sky import region_paths
+from factsheet.figures.sky import close_up_box, hours_minutes, region_paths
 from factsheet.physics.sky import RankedMap, level_grid
 
 SVG = "{http://www.w3.org/2000/svg}"
@@ -155,8 +155,12 @@ def test_sky_colours_keep_their_contrast():
 def test_candidates_sit_at_their_projected_positions_east_to_the_left(skies):
     ranked, grid = skies["compact"]
     fig = draw(grid, ranked).figure
-    (ax,) = fig.axes
-    marks = {line.get_label(): line for line in ax.lines if line.get_marker() not in ("None", "")}
+    ax = fig.axes[0]  # the whole sky; the compact map also gets a close-up below it
+    marks = {  # legend labels may wrap beside the close-up
+        line.get_label().replace("\n", " "): line
+        for line in ax.lines
+        if line.get_marker() not in ("None", "")
+    }
     placed = {name: (marks[name].get_xdata()[0], marks[name].get_ydata()[0]) for name in marks}
     root2 = math.sqrt(2)  # Snyder 1987: x = (2√2/π) λ on the equator, y = ±√2 at the poles
     assert placed["AT-Q7a"] == pytest.approx((-root2, 0.0), abs=1e-9)  # RA 6h: left of 0h
@@ -199,6 +203,48 @@ def test_outline_of_a_blob_is_the_gaussian_disc_even_across_a_seam(skies, name, 
         assert not along.any()
     crossings = sum(int((np.abs(unprojected(line)[:, 0]) > 179.99).any()) for line in lines)
     assert crossings == (2 if ra == 180 else 0)  # one piece on each side of the map
+
+
+# --- the close-up of a small region -----------------------------------------------------------
+
+
+def test_only_a_small_region_away_from_the_poles_gets_a_close_up(skies):
+    box = close_up_box(skies["compact"][1])
+    assert box is not None
+    assert (box.ra, box.dec) == pytest.approx((45, -35), abs=1.0)
+    # the 90 % disc of a σ = 3° blob has radius σ √(2 ln 10) ≈ 6.4°: all of it in the patch
+    assert box.half > 3 * math.sqrt(2 * math.log(10)) + 1
+    for name in ("arc", "broad", "near a pole"):
+        assert close_up_box(skies[name][1]) is None, name
+    assert len(draw(*reversed(skies["broad"])).figure.axes) == 1
+
+
+def test_close_up_outline_is_the_gaussian_disc_with_east_to_the_left(skies):
+    ranked, grid = skies["compact"]
+    drawing = draw(grid, ranked)
+    near = drawing.figure.axes[1]
+    left, right = near.get_xlim()
+    assert left > 0 > right  # x is degrees east of the centre: increasing RA to the left
+    ra0 = close_up_box(grid).ra
+    outline = near.collections[1]  # the 90 % region's line, drawn after its fill
+    points = np.concatenate([p.vertices for p in outline.get_paths() if len(p.vertices)])
+    ra, dec = np.radians(ra0 + points[:, 0]), np.radians(points[:, 1])
+    cos = np.sin(dec) * math.sin(math.radians(-35)) + np.cos(dec) * math.cos(
+        math.radians(-35)
+    ) * np.cos(ra - math.radians(45))
+    radius = np.degrees(np.arccos(np.clip(cos, -1, 1)))
+    assert radius == pytest.approx(3 * math.sqrt(2 * math.log(10)), abs=0.5)  # Rayleigh, σ = 3°
+    labels = [t.get_text() for t in near.get_xticklabels()]
+    assert labels and all("h" in text for text in labels)
+    assert "close-up" in drawing.alt and "3h00m" not in drawing.alt
+
+
+@pytest.mark.parametrize(
+    ("degrees", "text"), [(0.0, "0h"), (152.578, "10h10m"), (359.9, "0h"), (15.25, "1h01m")]
+)
+def test_hours_minutes(degrees, text):
+    # 15° of right ascension is one hour, 0.25° one minute of time (IAU definition of RA units)
+    assert hours_minutes(degrees) == text
 
 
 # --- the alt text ------------------------------------------------------------------------------
