@@ -5,7 +5,8 @@ an edge of the module graph. The graph must have no cycle, and each part may imp
 parts at or below it:
 
 * ``physics`` — pure functions (tests/physics/test_physics_boundary.py checks its own imports);
-* the shared records and words — ``model``, ``labels``, ``notation``, ``errors``, ``resources``;
+* the shared records and words — ``model``, ``labels``, ``notation``, ``i18n``, ``errors``,
+  ``resources``;
 * ``load`` — may use the records and the physics (the redshift check);
 * ``derive`` — may use load;
 * ``figures`` — drawing only: the records, the labels and the physics, nothing of the stages;
@@ -23,7 +24,7 @@ import pytest
 import factsheet
 
 PACKAGE = Path(factsheet.__file__).resolve().parent
-SHARED = {"model", "labels", "notation", "errors", "resources"}
+SHARED = {"model", "labels", "notation", "errors", "resources", "i18n"}
 TOP = {"build", "cache", "progress", "publish", "serve", "cli", "api"}
 #: The parts each part may import (besides itself).
 ALLOWED = {
