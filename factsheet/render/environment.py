@@ -18,7 +18,7 @@ import markdown as md
 import nh3
 from markupsafe import Markup
 
-from factsheet import __version__
+from factsheet import __version__, i18n
 from factsheet.labels import CLASS_NAMES, QUANTITIES
 from factsheet.notation import format_interval, format_value, percent, unit_text
 from factsheet.resources import templates_dir
@@ -52,6 +52,7 @@ def url_filter(context: jinja2.runtime.Context, target: str) -> str:
 def make_environment() -> jinja2.Environment:
     env = jinja2.Environment(
         loader=jinja2.FileSystemLoader(templates_dir()),
+        extensions=["jinja2.ext.i18n"],
         autoescape=jinja2.select_autoescape(["html", "xml"]),
         undefined=jinja2.StrictUndefined,
         trim_blocks=True,
@@ -65,6 +66,11 @@ def make_environment() -> jinja2.Environment:
         value=format_value,
         percent=percent,
         label=lambda key: QUANTITIES[key].short,
+    )
+    # {{ _("...") }}, {{ ngettext(...) }} and {% trans %} in the language in use (newstyle:
+    # parameters are escaped and a literal per cent sign is written %%)
+    env.install_gettext_callables(
+        i18n.gettext, i18n.ngettext, newstyle=True, pgettext=i18n.pgettext
     )
     env.globals["factsheet_version"] = __version__
     env.globals["class_names"] = CLASS_NAMES
