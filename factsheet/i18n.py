@@ -27,7 +27,7 @@ import contextlib
 import datetime as dt
 import functools
 import gettext as _gettext
-from collections.abc import Callable, Iterator
+from collections.abc import Callable, Iterator, Mapping
 from contextvars import ContextVar
 from pathlib import Path
 from typing import Any
@@ -118,7 +118,7 @@ def _plural_n(n: float) -> int:
 
 def _shown(value: Any) -> str:
     """A parameter of a message as shown in the language in use."""
-    if isinstance(value, Text | Later):
+    if isinstance(value, Text | Later | Editorial):
         return value.localized()
     if isinstance(value, bool):
         return str(value)
@@ -240,9 +240,53 @@ class Later:
         return (Later, (self.function, *self.args))
 
 
+class Editorial(str):
+    """An editor's text from the input (a title, a summary, a caveat, a note) with its versions
+    by language, as given: ``summary: {en: ..., es: ...}`` or one plain text.
+
+    The ``str`` value is the original (the first version given), which the exports carry;
+    ``str()`` and HTML escaping give the version in the language in use, or the original where
+    that language has none (:meth:`missing_in` says so, for the page to tell its reader). A
+    plain text has the one version ``""``: written in the site's first language.
+    """
+
+    __slots__ = ("versions",)
+
+    def __new__(cls, versions: Mapping[str, str] | str) -> Editorial:
+        given = {"": versions} if isinstance(versions, str) else dict(versions)
+        self = super().__new__(cls, next(iter(given.values()), ""))
+        self.versions = given
+        return self
+
+    def localized(self) -> str:
+        return self.versions.get(current(), str.__str__(self))
+
+    def missing_in(self, language: str, first: str) -> bool:
+        """True when a page in ``language`` (``first``: the site's first language) shows the
+        original because the editors gave no version in that language."""
+        if language in self.versions or not str.__str__(self):
+            return False
+        return not ("" in self.versions and language == first)
+
+    def __str__(self) -> str:
+        return self.localized()
+
+    def __format__(self, spec: str) -> str:
+        return format(self.localized(), spec)
+
+    def __html__(self) -> str:
+        return str(escape(self.localized()))
+
+    def __reduce__(self):
+        return (Editorial, (self.versions,))
+
+    def __repr__(self) -> str:
+        return f"Editorial({self.versions!r})"
+
+
 def localized(value: Any) -> Any:
-    """``value`` in the language in use when it is kept words (``Text``, ``Later``), else as is."""
-    return value.localized() if isinstance(value, Text | Later) else value
+    """``value`` in the language in use when it is kept or editors' words, else as is."""
+    return value.localized() if isinstance(value, Text | Later | Editorial) else value
 
 
 # --- numbers and dates ------------------------------------------------------------------------
