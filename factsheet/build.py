@@ -27,6 +27,7 @@ from astropy.time import Time
 from factsheet.cache import Cache, cached_files, content_key, event_key
 from factsheet.derive import derive_event
 from factsheet.errors import BuildError, InputError, Problem
+from factsheet.i18n import use_language
 from factsheet.load import load_catalogue
 from factsheet.load.reference import reference_for
 from factsheet.model import (
@@ -41,7 +42,7 @@ from factsheet.model import (
 from factsheet.progress import Progress
 from factsheet.publish import HELD, OutputLock, Staging, check_output
 from factsheet.render import Site, render_site
-from factsheet.render.assets import event_files
+from factsheet.render.assets import event_files, language_path
 from factsheet.render.site import plane_edges
 
 
@@ -114,7 +115,9 @@ def build(
             )
     except OSError as exc:
         raise BuildError(_os_problem(exc, out)) from exc
-    figure_seconds = sum(b.figure_seconds for b in made) + sum(f.seconds for f in index)
+    figure_seconds = sum(b.figure_seconds for b in made) + sum(
+        f.seconds for figs in index.values() for f in figs
+    )
     return BuildReport(
         count,
         count - len(made),
@@ -205,7 +208,7 @@ def make_bundles(
 def event_bundle(event: Event, settings: Settings, reference: Reference) -> EventBundle:
     """Derive one event and make its figures and chirp sound (the expensive part of a build)."""
     item = derive_event(event, settings, reference)
-    figures, audio, files, seconds = event_files(item)
+    figures, audio, files, seconds = event_files(item, settings.languages)
     return EventBundle(_summaries_only(item), figures, audio, files, seconds)
 
 
@@ -274,12 +277,16 @@ def _exit_when_orphaned(parent: int) -> None:
     os._exit(1)
 
 
-def _index_figures(bundles: list[EventBundle], settings: Settings, cache: Cache):
+def _index_figures(
+    bundles: list[EventBundle], settings: Settings, cache: Cache
+) -> dict[str, list[SiteFigure]]:
+    """The index's figures by language (drawn in each, published once where they agree)."""
     derived = [b.derived for b in bundles]
     edges = plane_edges(settings)
     key = content_key(
         "index",
         edges,
+        settings.languages,
         [
             (
                 d.event.id,
@@ -293,18 +300,28 @@ def _index_figures(bundles: list[EventBundle], settings: Settings, cache: Cache)
             for d in derived
         ],
     )
-    stored: dict[str, SiteFigure] = {}
+    stored: dict[str, list[SiteFigure]] = {}
 
     def make() -> dict[str, bytes]:
         from factsheet.render import figures  # matplotlib loads only when drawing
 
-        for fig in figures.index_figures(derived, edges):
-            stored[fig.path] = fig
-        meta = [[f.path, f.alt, f.caption] for f in stored.values()]
-        return {**{f.path: f.svg for f in stored.values()}, "index.json": json.dumps(meta).encode()}
+        files: dict[str, bytes] = {}
+        for n, language in enumerate(settings.languages):
+            with use_language(language):
+                drawn = figures.index_figures(derived, edges)
+            for fig in drawn:
+                if n and files.get(fig.path) != fig.svg:
+                    fig = replace(fig, path=language_path(language, fig.path))
+                files[fig.path] = fig.svg
+                stored.setdefault(language, []).append(fig)
+        meta = {lang: [[f.path, f.alt, f.caption] for f in figs] for lang, figs in stored.items()}
+        return {**files, "index.json": json.dumps(meta).encode()}
 
     files = cached_files(cache, key, make)
     if stored:
-        return list(stored.values())
-    rows = json.loads(files["index.json"])
-    return [SiteFigure(p, files[p], alt, cap) for p, alt, cap in rows]
+        return stored
+    meta = json.loads(files["index.json"])
+    return {
+        lang: [SiteFigure(p, files[p], alt, cap) for p, alt, cap in rows]
+        for lang, rows in meta.items()
+    }

@@ -27,7 +27,7 @@ from typing import Any
 import astropy.units as u
 from astropy.time import Time
 
-from factsheet import __version__
+from factsheet import __version__, i18n
 from factsheet.errors import BuildError
 from factsheet.model import (
     Audio,
@@ -50,7 +50,7 @@ from factsheet.physics.counterparts import Window
 from factsheet.publish import regular_files
 from factsheet.resources import PACKAGE
 
-FORMAT = "4"
+FORMAT = "5"
 ENTRY = "entry.json"
 MAX_ENTRY_BYTES = 4_000_000  # an entry's JSON is a few kilobytes; anything far larger is not ours
 
@@ -247,36 +247,41 @@ def cached_files(cache_: Cache, key: str, make: Callable[[], dict[str, bytes]]) 
 def bundle_to_json(bundle: EventBundle) -> dict[str, Any]:
     """The parts of a bundle that the pages need, as plain JSON values (exact floats)."""
     d = bundle.derived
-    return {
-        "quantities": {k: asdict(s) for k, s in d.quantities.items()},
-        "caveats": [asdict(c) for c in d.caveats],
-        "second_generation": [asdict(g) for g in d.second_generation],
-        "source_class": d.source_class,
-        "class_probabilities": dict(d.class_probabilities),
-        "mass_bands": {k: dict(v) for k, v in d.mass_bands.items()},
-        "intermediate_mass": dict(d.intermediate_mass),
-        "disruption_probability": d.disruption_probability,
-        "windows": [_window_json(w) for w in d.windows],
-        "no_window_reason": d.no_window_reason,
-        "energy": dict(d.comparisons.energy),
-        "luminosity": dict(d.comparisons.luminosity),
-        "sun_years": None if d.comparisons.sun_years is None else d.comparisons.sun_years.value,
-        "other_methods": list(d.other_methods),
-        "lensing": None if d.lensing is None else asdict(d.lensing),
-        "sky_map": _sky_json(d.sky_map),
-        "candidates": [
-            {
-                "credible_level": r.credible_level,
-                "delay_days": float(r.delay.to_value(u.d)),
-                "delay_source": asdict(r.delay_source),
-                "windows": list(r.windows),
-            }
-            for r in d.candidates
-        ],
-        "figures": [[f.path, f.alt, f.caption] for f in bundle.figures],
-        "audio": asdict(bundle.audio),
-        "figure_seconds": bundle.figure_seconds,
-    }
+    return i18n.to_json(
+        {
+            "quantities": {k: asdict(s) for k, s in d.quantities.items()},
+            "caveats": [asdict(c) for c in d.caveats],
+            "second_generation": [asdict(g) for g in d.second_generation],
+            "source_class": d.source_class,
+            "class_probabilities": dict(d.class_probabilities),
+            "mass_bands": {k: dict(v) for k, v in d.mass_bands.items()},
+            "intermediate_mass": dict(d.intermediate_mass),
+            "disruption_probability": d.disruption_probability,
+            "windows": [_window_json(w) for w in d.windows],
+            "no_window_reason": d.no_window_reason,
+            "energy": dict(d.comparisons.energy),
+            "luminosity": dict(d.comparisons.luminosity),
+            "sun_years": None if d.comparisons.sun_years is None else d.comparisons.sun_years.value,
+            "other_methods": list(d.other_methods),
+            "lensing": None if d.lensing is None else asdict(d.lensing),
+            "sky_map": _sky_json(d.sky_map),
+            "candidates": [
+                {
+                    "credible_level": r.credible_level,
+                    "delay_days": float(r.delay.to_value(u.d)),
+                    "delay_source": asdict(r.delay_source),
+                    "windows": list(r.windows),
+                }
+                for r in d.candidates
+            ],
+            "figures": {
+                language: [[f.path, f.alt, f.caption] for f in infos]
+                for language, infos in bundle.figures.items()
+            },
+            "audio": asdict(bundle.audio),
+            "figure_seconds": bundle.figure_seconds,
+        }
+    )
 
 
 def _sky_json(found: SkyMapSummary | None) -> dict[str, Any] | None:
@@ -324,6 +329,7 @@ def bundle_from_json(
 ) -> EventBundle:
     """A bundle from its JSON and the freshly loaded event it belongs to (same key, same
     content); raises KeyError, TypeError or ValueError when the JSON is not a bundle."""
+    data = i18n.from_json(data)  # kept words (caveats, the sound's description) translate again
     quantities = {
         k: Summary(**{**v, "methods": tuple(v["methods"])}) for k, v in data["quantities"].items()
     }
@@ -354,7 +360,10 @@ def bundle_from_json(
         sky_map=_sky(data["sky_map"]),
         candidates=_readings(data["candidates"], event),
     )
-    figures = tuple(FigureInfo(*map(str, f)) for f in data["figures"])
+    figures = {
+        str(language): tuple(FigureInfo(*map(str, f)) for f in infos)
+        for language, infos in data["figures"].items()
+    }
     return EventBundle(derived, figures, Audio(**data["audio"]), {}, data["figure_seconds"])
 
 

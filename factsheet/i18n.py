@@ -328,3 +328,61 @@ def language_name(language: str) -> str:
     """A language's name in that language, capitalised for a menu: ``English``, ``Español``."""
     name = Locale.parse(language).get_display_name(language) or language
     return name[:1].upper() + name[1:]
+
+
+# --- kept words as plain JSON (the build cache stores what derive found as JSON) ---------------
+
+_TEXT, _LATER, _TUPLE = "§text", "§later", "§tuple"
+
+
+def to_json(value: Any) -> Any:
+    """``value`` with every kept message as plain JSON (lists and dicts walked), so that words
+    read back from the build cache still translate. Other values are returned as they are."""
+    if isinstance(value, Text):
+        params = {k: to_json(v) for k, v in value._params}
+        return {_TEXT: list(value._key), "params": params}
+    if isinstance(value, Later):
+        function = value.function
+        name = f"{function.__module__}:{function.__qualname__}"
+        return {_LATER: name, "args": [to_json(a) for a in value.args]}
+    if isinstance(value, tuple):
+        return {_TUPLE: [to_json(v) for v in value]}
+    if isinstance(value, list):
+        return [to_json(v) for v in value]
+    if isinstance(value, dict):
+        return {k: to_json(v) for k, v in value.items()}
+    return value
+
+
+def from_json(value: Any) -> Any:
+    """The inverse of :func:`to_json`. A kept value names only a function of this package
+    (nothing read from the cache can name other code); anything else raises ValueError."""
+    if isinstance(value, list):
+        return [from_json(v) for v in value]
+    if not isinstance(value, dict):
+        return value
+    if _TEXT in value:
+        key, params = value[_TEXT], {k: from_json(v) for k, v in value["params"].items()}
+        if not (
+            isinstance(key, list) and 1 <= len(key) <= 2 and all(isinstance(k, str) for k in key)
+        ):
+            raise ValueError(f"not a kept message: {key!r}")
+        return (Text if len(key) == 1 else Plural)._make(tuple(key), params)
+    if _LATER in value:
+        return Later(_function(value[_LATER]), *(from_json(a) for a in value["args"]))
+    if _TUPLE in value:
+        return tuple(from_json(v) for v in value[_TUPLE])
+    return {k: from_json(v) for k, v in value.items()}
+
+
+def _function(name: str) -> Callable[..., str]:
+    import importlib
+    import types
+
+    module_name, _, qualname = str(name).partition(":")
+    if not module_name.startswith("factsheet.") or not qualname.isidentifier():
+        raise ValueError(f"not a function of factsheet: {name!r}")
+    function = getattr(importlib.import_module(module_name), qualname, None)
+    if not isinstance(function, types.FunctionType):
+        raise ValueError(f"not a function of factsheet: {name!r}")
+    return function

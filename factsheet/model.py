@@ -101,6 +101,8 @@ class Settings:
     citation: str = ""  # how to cite the catalogue (Markdown)
     # magnifications of the automatic what-if-lensed panel (METHODS: 4, 25 and 100 by default)
     what_if_lensed: tuple[float, ...] = (4.0, 25.0, 100.0)
+    # languages of the site: the first at the root, each other under <lang>/ (DESIGN 5.1)
+    languages: tuple[str, ...] = ("en",)
 
     def fingerprint(self) -> str:
         """A stable text form of the settings that change derived numbers."""
@@ -119,6 +121,7 @@ class Settings:
                 self.low_significance_rate.to_value(1 / u.yr),
                 self.large_sky_area.to_value(u.deg**2),
                 self.what_if_lensed,
+                self.languages,  # a bundle holds each language's figures
             )
         )
 
@@ -657,10 +660,17 @@ class Audio:
 
 @dataclass(frozen=True)
 class EventBundle:
-    """A derived event (samples dropped) and its figure and sound files, ready for the pages."""
+    """A derived event (samples dropped) and its figure and sound files, ready for the pages.
+
+    The figures are drawn once per language of the site (their words are in it) and listed by
+    language; a figure that comes out the same in every language (one with no words) is
+    published once, and every language lists the first language's file. The sound has no
+    words: one for all languages."""
 
     derived: Derived
-    figures: tuple[FigureInfo, ...]
+    figures: Mapping[
+        str, tuple[FigureInfo, ...]
+    ]  # by language: figures with words are per language
     audio: Audio
     files: Mapping[str, bytes] = field(default_factory=dict, repr=False)
     figure_seconds: float = 0.0

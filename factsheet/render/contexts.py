@@ -19,13 +19,28 @@ from factsheet.physics.comparisons import ENERGY_UNITS
 
 
 @dataclass(frozen=True)
+class Alternate:
+    """A page's version in one language of the site: its code, its name in that language and
+    its site path."""
+
+    language: str
+    name: str
+    path: str
+
+
+@dataclass(frozen=True)
 class SiteContext:
-    """What every page gets: its own site path (for the ``url`` filter) and the catalogue's."""
+    """What every page gets: its own site path (for the ``url`` filter), the catalogue's
+    settings, its language (``lang``, and the folder of the language's pages that the ``url``
+    filter puts before links to pages) and its versions in the site's languages."""
 
     page_path: str
     settings: Settings
     catalogue_title: str
     audience: str
+    language: str = "en"
+    language_prefix: str = ""
+    alternates: tuple[Alternate, ...] = ()
 
 
 def variables(*contexts: object) -> dict[str, object]:

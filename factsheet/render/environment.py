@@ -16,7 +16,7 @@ import posixpath
 import jinja2
 import markdown as md
 import nh3
-from markupsafe import Markup
+from markupsafe import Markup, escape
 
 from factsheet import __version__, i18n
 from factsheet.labels import CLASS_NAMES, QUANTITIES
@@ -32,7 +32,7 @@ ALLOWED_SCHEMES = {"http", "https", "mailto"}
 
 def markdown_html(text: str) -> Markup:
     """Markdown to HTML, passed through the nh3 sanitiser (no scripts, handlers or frames)."""
-    html = md.markdown(text or "", extensions=["sane_lists"])
+    html = md.markdown(i18n.localized(text) or "", extensions=["sane_lists"])
     clean = nh3.clean(
         html,
         tags=ALLOWED_TAGS,
@@ -43,8 +43,54 @@ def markdown_html(text: str) -> Markup:
 
 
 @jinja2.pass_context
+def markdown_filter(context: jinja2.runtime.Context, text: str) -> Markup:
+    """:func:`markdown_html` in the page's language; an editor's text shown in its original
+    language for want of a translation is marked with that language."""
+    html = markdown_html(text)
+    original = original_language(context, text)
+    if original:
+        return Markup('<div lang="{}">{}</div>').format(original, html)
+    return html
+
+
+@jinja2.pass_context
+def original_language(context: jinja2.runtime.Context, text: object) -> str:
+    """The language of an editor's text when the page shows it in that original language for
+    want of a version in the page's own (empty otherwise)."""
+    if not isinstance(text, i18n.Editorial):
+        return ""
+    settings = context.get("settings")
+    first = settings.languages[0] if settings is not None else i18n.SOURCE
+    language = context.get("language", first)
+    if not text.missing_in(language, first):
+        return ""
+    return next(iter(text.versions)) or first
+
+
+@jinja2.pass_context
+def editorial_html(context: jinja2.runtime.Context, text: object) -> Markup:
+    """An editor's short text (a title), marked with its language when shown in the original."""
+    original = original_language(context, text)
+    if original:
+        return Markup('<span lang="{}">{}</span>').format(original, str.__str__(text))
+    return Markup(escape(i18n.localized(text)))
+
+
+@jinja2.pass_context
 def url_filter(context: jinja2.runtime.Context, target: str) -> str:
-    """A link from the page being rendered to ``target`` (a path from the site root)."""
+    """A link from the page being rendered to ``target`` (a path from the site root, as in the
+    first language's site): a page or the feed of the page's own language, or a shared file
+    (style, script, exports, sounds; figures carry their language's path already)."""
+    prefix = context.get("language_prefix", "")
+    if prefix and (target.endswith(".html") or target == "feed.xml"):
+        target = prefix + target
+    return placed_url(context, target)
+
+
+@jinja2.pass_context
+def placed_url(context: jinja2.runtime.Context, target: str) -> str:
+    """A link from the page being rendered to ``target``, a site path taken as it is (another
+    language's version of a page)."""
     here = posixpath.dirname(context["page_path"]) or "."
     return posixpath.relpath(target, here)
 
@@ -60,7 +106,12 @@ def make_environment() -> jinja2.Environment:
     )
     env.filters.update(
         url=url_filter,
-        markdown=markdown_html,
+        placed_url=placed_url,
+        in_language=i18n.localized,
+        editorial=editorial_html,
+        original_language=original_language,
+        language_name=i18n.language_name,
+        markdown=markdown_filter,
         unit=unit_text,
         interval=lambda s: format_interval(s.median, s.low, s.high, s.unit),
         value=format_value,

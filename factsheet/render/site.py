@@ -1,4 +1,7 @@
-"""Render every page and export of a catalogue from its event bundles.
+"""Render every page and export of a catalogue from its event bundles, in each of its languages.
+
+The site's first language is at its root; each other language has the same pages under
+``<lang>/``, and every page links its versions in the others (:func:`alternates`).
 
 The pages' contexts come from :mod:`factsheet.render.contexts`; a memo (the build cache) lets
 a page whose inputs did not change come from the previous build instead of being rendered.
@@ -7,15 +10,16 @@ a page whose inputs did not change come from the previous build instead of being
 from __future__ import annotations
 
 import json
-from collections.abc import Callable
+from collections.abc import Callable, Mapping, Sequence
 from dataclasses import dataclass, field
 
 import jinja2
 
+from factsheet.i18n import SOURCE, language_name, use_language
 from factsheet.load.reference import reference_for
 from factsheet.model import Derived, EventBundle, Settings, SiteFigure
 from factsheet.render import contexts, history, sheet, tables
-from factsheet.render.contexts import SiteContext, variables
+from factsheet.render.contexts import Alternate, SiteContext, variables
 from factsheet.render.environment import make_environment, templates_fingerprint
 from factsheet.render.event_json import event_json
 from factsheet.render.feed import atom_feed
@@ -39,17 +43,47 @@ class Site:
 
 @dataclass(frozen=True)
 class Renderer:
-    """The environment and what every page shares, for one render of the site."""
+    """The environment and what every page shares, for one render of the site in one language."""
 
     env: jinja2.Environment
     settings: Settings
     audience: str
     templates: str  # fingerprint of the templates, part of every memo key
+    language: str = SOURCE
+
+    @property
+    def prefix(self) -> str:
+        """Where this language's pages are: the site root for the first language, else
+        ``<lang>/``."""
+        return language_prefix(self.settings, self.language)
 
     def page(self, template: str, path: str, context: object) -> bytes:
-        common = SiteContext(path, self.settings, self.settings.title, self.audience)
+        """Render ``template`` as the page ``path`` (a path of the first language's site; the
+        page is placed under this language's prefix)."""
+        common = SiteContext(
+            self.prefix + path,
+            self.settings,
+            self.settings.title,
+            self.audience,
+            self.language,
+            self.prefix,
+            alternates(self.settings, path),
+        )
         html = self.env.get_template(template).render(**variables(common, context))
         return html.encode("utf-8")
+
+
+def language_prefix(settings: Settings, language: str) -> str:
+    """The folder of a language's pages: none for the site's first language, else ``<lang>/``."""
+    return "" if language == settings.languages[0] else f"{language}/"
+
+
+def alternates(settings: Settings, path: str) -> tuple[Alternate, ...]:
+    """The versions of the page ``path`` in each language of the site."""
+    return tuple(
+        Alternate(language, language_name(language), language_prefix(settings, language) + path)
+        for language in settings.languages
+    )
 
 
 def plane_edges(settings: Settings) -> dict[str, float]:
@@ -62,32 +96,44 @@ def render_site(
     bundles: list[EventBundle],
     settings: Settings,
     audience: str = "public",
-    index_figures: list[SiteFigure] = (),
+    index_figures: Mapping[str, Sequence[SiteFigure]] | Sequence[SiteFigure] = (),
     site: Site | None = None,
     memo: Memo | None = None,
 ) -> Site:
-    """Every page and export of the catalogue (event figures and sounds are placed separately).
+    """Every page and export of the catalogue, in every language of the site (event figures
+    and sounds are placed separately).
 
-    With a ``memo`` (the build cache), pages whose inputs are unchanged come from the last build.
+    The exports (JSON, ECSV, CSV) are written once, in English, whatever the languages. With a
+    ``memo`` (the build cache), pages whose inputs are unchanged come from the last build.
     """
     site = Site() if site is None else site
-    r = Renderer(make_environment(), settings, audience, templates_fingerprint())
+    env, fingerprint = make_environment(), templates_fingerprint()
+    if not isinstance(index_figures, Mapping):
+        index_figures = {settings.languages[0]: list(index_figures)}
     derived = [b.derived for b in bundles]
-    for fig in index_figures:
-        site.add(fig.path, fig.svg)
-    for i, bundle in enumerate(bundles):
-        previous = derived[i - 1] if i else None
-        following = derived[i + 1] if i + 1 < len(derived) else None
-        render_event(r, site, bundle, previous, following, memo)
+    placed: set[str] = set()
+    for figures in index_figures.values():
+        for fig in figures:
+            if fig.path not in placed:
+                placed.add(fig.path)
+                site.add(fig.path, fig.svg)
+    for language in settings.languages:
+        r = Renderer(env, settings, audience, fingerprint, language)
+        shown = tuple(index_figures.get(language, ()))
+        with use_language(language):
+            for i, bundle in enumerate(bundles):
+                previous = derived[i - 1] if i else None
+                following = derived[i + 1] if i + 1 < len(derived) else None
+                render_event(r, site, bundle, previous, following, memo)
 
-    def make() -> dict[str, bytes]:
-        return catalogue_pages(r, derived, index_figures)
+            def make(r: Renderer = r, shown: tuple[SiteFigure, ...] = shown) -> dict[str, bytes]:
+                return catalogue_pages(r, derived, list(shown))
 
-    keys = tuple(b.key for b in bundles)
-    figures = tuple((f.path, f.alt) for f in index_figures)
-    key = ("catalogue", keys, settings, audience, r.templates, figures)
-    for name, content in (memo(key, make) if memo and all(keys) else make()).items():
-        site.add(name, content)
+            keys = tuple(b.key for b in bundles)
+            figures = tuple((f.path, f.alt) for f in shown)
+            key = ("catalogue", keys, settings, audience, r.templates, figures, language)
+            for name, content in (memo(key, make) if memo and all(keys) else make()).items():
+                site.add(name, content)
     static = templates_dir() / "static"
     for path in sorted(p for p in static.rglob("*") if p.is_file()):
         site.add(f"static/{path.relative_to(static).as_posix()}", path.read_bytes())
@@ -97,21 +143,29 @@ def render_site(
 def catalogue_pages(
     r: Renderer, derived: list[Derived], index_figures: list[SiteFigure]
 ) -> dict[str, bytes]:
-    """The catalogue-wide pages and exports: index, methods, changes, feed, tables."""
+    """The catalogue-wide pages of one language (index, methods, changes, feed) and, with the
+    first language, the exports, in English."""
     index = index_page(derived, r.settings.description, index_figures, r.audience)
-    table = tables.catalogue_table(derived, r.audience)
-    return {
-        "index.html": r.page("index.html", "index.html", index),
-        "methods.html": r.page(
+    prefix = r.prefix
+    base = r.settings.base_url and r.settings.base_url + prefix
+    pages = {
+        prefix + "index.html": r.page("index.html", "index.html", index),
+        prefix + "methods.html": r.page(
             "methods.html",
             "methods.html",
             methods_page(derived, reference_for(r.settings)),
         ),
-        "changes.html": r.page("changes.html", "changes.html", history.changes_page(derived)),
-        "feed.xml": atom_feed(history.change_entries(derived), r.settings),
-        "data/catalogue.ecsv": tables.write_ecsv(table),
-        "data/catalogue.csv": tables.write_csv(table),
+        prefix + "changes.html": r.page(
+            "changes.html", "changes.html", history.changes_page(derived)
+        ),
+        prefix + "feed.xml": atom_feed(history.change_entries(derived), r.settings, base),
     }
+    if not prefix:
+        with use_language(SOURCE):
+            table = tables.catalogue_table(derived, r.audience)
+            pages["data/catalogue.ecsv"] = tables.write_ecsv(table)
+            pages["data/catalogue.csv"] = tables.write_csv(table)
+    return pages
 
 
 def render_event(
@@ -128,12 +182,18 @@ def render_event(
     and audience reuses its page and JSON from the previous build.
     """
     item = bundle.derived
-    page, data = contexts.page_of(item.event.id), f"data/{item.event.id}.json"
+    path, data = contexts.page_of(item.event.id), f"data/{item.event.id}.json"
+    page = r.prefix + path
+    names = (page, data) if not r.prefix else (page,)
 
     def make() -> dict[str, bytes]:
-        context = sheet.event_page(item, previous, following, bundle.figures, bundle.audio)
-        text = json.dumps(event_json(item), indent=2) + "\n"
-        return {page: r.page("event.html", page, context), data: text.encode("utf-8")}
+        figures = bundle.figures.get(r.language, ())
+        context = sheet.event_page(item, previous, following, figures, bundle.audio)
+        files = {page: r.page("event.html", path, context)}
+        if data in names:
+            with use_language(SOURCE):  # the export is language-neutral
+                files[data] = (json.dumps(event_json(item), indent=2) + "\n").encode("utf-8")
+        return files
 
     key = (
         bundle.key,
@@ -145,7 +205,9 @@ def render_event(
         r.settings.licence,
         r.settings.citation,
         r.templates,
+        r.settings.languages,
+        r.language,
     )
     files = memo(key, make) if memo and bundle.key else make()
-    for name in (page, data):
+    for name in names:
         site.add(name, files[name])

@@ -122,7 +122,7 @@ def test_json_leaves_the_key_out_without_a_panel():
 
 
 def test_cache_round_trip_keeps_the_panel(heavy):
-    bundle = EventBundle(dataclasses.replace(heavy, samples={}), (), Audio("", "", 0.0))
+    bundle = EventBundle(dataclasses.replace(heavy, samples={}), {}, Audio("", "", 0.0))
     back = bundle_from_json(bundle_to_json(bundle), heavy.event, heavy.settings, heavy.reference)
     assert back.derived.lensing == heavy.lensing
 

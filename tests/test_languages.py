@@ -1,0 +1,136 @@
+"""A site in two languages (catalogue.yaml ``languages: [en, es]``), built from one catalogue.
+
+The first language is at the site root and the second under ``es/`` with the same file names;
+every page says its language and links its other version; the exports are written once, in
+English; the physics and the sounds are made once for both languages.
+"""
+
+from __future__ import annotations
+
+import json
+import re
+from html.parser import HTMLParser
+from pathlib import Path
+
+import pytest
+from helpers import VALID_EVENT
+
+from factsheet import build as build_module
+from factsheet.build import build
+
+pytestmark = pytest.mark.slow
+
+SETTINGS = "title: A test catalogue\nlanguages: [en, es]\n"
+
+
+class Links(HTMLParser):
+    """The language, the alternates and every local link of one page."""
+
+    def __init__(self):
+        super().__init__()
+        self.lang, self.alternates, self.links, self.switch = None, {}, [], []
+        self._in_switch = False
+
+    def handle_starttag(self, tag, attrs):
+        a = dict(attrs)
+        if tag == "html":
+            self.lang = a.get("lang")
+        if tag == "link" and a.get("rel") == "alternate" and "hreflang" in a:
+            self.alternates[a["hreflang"]] = a["href"]
+        if tag == "nav" and "languages" in (a.get("class") or ""):
+            self._in_switch = True
+        if self._in_switch and tag == "a":
+            self.switch.append(a["href"])
+        for name in ("href", "src"):
+            value = a.get(name)
+            if value and not re.match(r"^(#|data:|https?:|mailto:)", value):
+                self.links.append(value.split("#")[0])
+
+    def handle_endtag(self, tag):
+        if tag == "nav":
+            self._in_switch = False
+
+
+def parsed(path: Path) -> Links:
+    page = Links()
+    page.feed(path.read_text(encoding="utf-8"))
+    return page
+
+
+@pytest.fixture(scope="module")
+def two_languages(tmp_path_factory) -> tuple[Path, list]:
+    folder = tmp_path_factory.mktemp("cat")
+    (folder / "catalogue.yaml").write_text(SETTINGS, encoding="utf-8")
+    (folder / "one.yaml").write_text(VALID_EVENT, encoding="utf-8")
+    (folder / "two.yaml").write_text(VALID_EVENT.replace("TEST-1", "TEST-2"), encoding="utf-8")
+    derived = []
+    original = build_module.derive_event
+
+    def counting(*args, **kwargs):
+        derived.append(args[0].id)
+        return original(*args, **kwargs)
+
+    build_module.derive_event = counting
+    try:
+        out = tmp_path_factory.mktemp("out") / "site"
+        build(folder, out, jobs=1)
+    finally:
+        build_module.derive_event = original
+    return out, derived
+
+
+def test_each_language_has_the_same_pages(two_languages):
+    site, _ = two_languages
+    root = {p.relative_to(site).as_posix() for p in site.rglob("*.html") if "es" not in p.parts}
+    spanish = {p.relative_to(site / "es").as_posix() for p in (site / "es").rglob("*.html")}
+    assert root == spanish
+    assert {"index.html", "methods.html", "changes.html", "events/TEST-1.html"} <= root
+    assert (site / "es" / "feed.xml").is_file()
+
+
+def test_every_page_says_its_language_and_links_its_other_version(two_languages):
+    site, _ = two_languages
+    for page in site.rglob("*.html"):
+        found = parsed(page)
+        spanish = page.relative_to(site).parts[0] == "es"
+        assert found.lang == ("es" if spanish else "en"), page
+        assert set(found.alternates) == {"en", "es", "x-default"}, page
+        other = found.alternates["en" if spanish else "es"]
+        assert (page.parent / other).resolve().is_file(), (page, other)
+        assert found.switch == [other], page  # the visible switch links the other version
+        name = page.relative_to(site / "es" if spanish else site).as_posix()
+        assert (page.parent / other).resolve() == (
+            (site / name) if spanish else (site / "es" / name)
+        ).resolve()
+
+
+def test_every_local_link_of_every_page_reaches_a_file(two_languages):
+    site, _ = two_languages
+    for page in site.rglob("*.html"):
+        for link in parsed(page).links:
+            assert (page.parent / link).resolve().is_file(), (page, link)
+
+
+def test_exports_are_written_once_in_english(two_languages):
+    site, _ = two_languages
+    assert not (site / "es" / "data").exists()
+    data = json.loads((site / "data" / "TEST-1.json").read_text(encoding="utf-8"))
+    texts = [c["text"] for c in data["caveats"]]
+    assert texts and all(re.search(r"\b(the|of|and|is)\b", t) for t in texts)
+
+
+def test_physics_and_sound_are_made_once_for_both_languages(two_languages):
+    site, derived = two_languages
+    assert sorted(derived) == ["TEST-1", "TEST-2"]
+    assert not list((site / "es").rglob("*.wav"))
+    page = (site / "es" / "events" / "TEST-1.html").read_text(encoding="utf-8")
+    sound = re.search(r'<audio[^>]*src="([^"]+)"', page)
+    assert sound and sound.group(1) == "../../events/TEST-1.wav"
+
+
+def test_spanish_pages_are_in_spanish(two_languages):
+    site, _ = two_languages
+    page = (site / "es" / "events" / "TEST-1.html").read_text(encoding="utf-8")
+    assert ">Eventos<" in page and ">Métodos<" in page
+    index = (site / "es" / "index.html").read_text(encoding="utf-8")
+    assert 'lang="es"' in index
