@@ -155,7 +155,11 @@ def main(argv: list[str]) -> int:
                     and message.string
                     and (not isinstance(message.string, tuple) or all(message.string))
                 ):
-                    catalog.add(message.id, message.string, context=message.context)
+                    found = catalog.get(message.id, message.context)
+                    if found is not None:  # update keeps an entry with an empty translation
+                        found.string, found.flags = message.string, set()
+                    else:
+                        catalog.add(message.id, message.string, context=message.context)
         write(language, catalog)
     elif command == "check":
         pot, bad = template(), 0
