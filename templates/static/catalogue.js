@@ -5,6 +5,9 @@
 // so a filtered view can be shared as a link and is restored on load; a fragment works from
 // file:// and on any host, and never reaches a server. When no row matches, the table says so
 // and offers a control that clears the filter.
+// The words of the controls are the page's, in its language: the table's data-ui-* attributes
+// (placeholders in braces, e.g. "{shown}", filled in here); a filter's choices are written as
+// the table's cells write them.
 "use strict";
 
 (function () {
@@ -15,6 +18,14 @@
   const body = table.tBodies[0];
   const rows = Array.from(body.rows);
   const headers = Array.from(table.tHead.rows[0].cells);
+  const ui = table.dataset;
+
+  // The page's words for `name` (a data-ui-* attribute), with {placeholders} filled in.
+  function uiText(name, values) {
+    return (ui[name] || "").replace(/\{(\w+)\}/g, function (whole, key) {
+      return values && key in values ? String(values[key]) : whole;
+    });
+  }
 
   function make(tag, props, children) {
     const node = document.createElement(tag);
@@ -66,19 +77,28 @@
   headers.forEach(function (header, column) {
     const label = header.textContent.trim();
     const button = make("button", { type: "button", className: "sort" }, [label]);
-    button.setAttribute("aria-label", "Sort by " + label);
+    button.setAttribute("aria-label", uiText("uiSort", { column: label }));
     button.addEventListener("click", function () { sortBy(column, header); save(); });
     header.textContent = "";
     header.append(button);
   });
 
   // Filtering -------------------------------------------------------------------------
+  // A value as the table shows it: the text of its column's cell (a status in words).
+  function shownAs(attribute, value) {
+    const column = headers.findIndex(function (th) { return th.dataset.key === attribute; });
+    const row = rows.find(function (r) { return r.dataset[attribute] === value; });
+    return (column >= 0 && row && row.cells[column].textContent.trim()) || value;
+  }
+
   function options(attribute, allLabel) {
     const values = Array.from(new Set(rows.map(function (row) {
       return row.dataset[attribute] || "";
     }).filter(Boolean))).sort();
     return [make("option", { value: "", textContent: allLabel })].concat(
-      values.map(function (value) { return make("option", { value: value, textContent: value }); })
+      values.map(function (value) {
+        return make("option", { value: value, textContent: shownAs(attribute, value) });
+      })
     );
   }
 
@@ -87,9 +107,9 @@
     return make("span", { className: "control" }, [make("label", { htmlFor: id, textContent: text }), control]);
   }
 
-  const search = make("input", { type: "search", autocomplete: "off", placeholder: "designation, title, class…" });
-  const status = make("select", {}, options("status", "all statuses"));
-  const kind = make("select", {}, options("class", "all classes"));
+  const search = make("input", { type: "search", autocomplete: "off", placeholder: uiText("uiPlaceholder") });
+  const status = make("select", {}, options("status", uiText("uiAllStatuses")));
+  const kind = make("select", {}, options("class", uiText("uiAllClasses")));
   const count = make("p", { className: "count" });
   count.setAttribute("aria-live", "polite");
 
@@ -103,12 +123,17 @@
       row.hidden = !match;
     });
     const shown = shownCount();
-    count.textContent = shown + " of " + rows.length + " events shown";
+    // one form for a single event, the other for any other number
+    count.textContent = uiText(rows.length === 1 ? "uiCountOne" : "uiCountOther",
+      { shown: shown, total: rows.length });
   }
 
   // No match: one row across the table, with a control that clears the filter.
-  const clear = make("button", { type: "button", className: "clear-filter" }, ["clear the filter"]);
-  const empty = make("td", { colSpan: headers.length }, ["No event matches — ", clear]);
+  const clear = make("button", { type: "button", className: "clear-filter" }, [uiText("uiClear")]);
+  const message = uiText("uiNoMatch").split("{clear}");
+  const empty = make("td", { colSpan: headers.length },
+    message.flatMap(function (part, index) { return index ? [clear, part] : [part]; })
+      .filter(function (part) { return part !== ""; }));
   const emptyBody = make("tfoot", { className: "no-match", hidden: true }, [make("tr", {}, [empty])]);
   table.append(emptyBody);
 
@@ -178,9 +203,9 @@
   window.addEventListener("hashchange", restore);
 
   const controls = make("div", { className: "table-controls" }, [
-    labelled("Filter", search, "catalogue-filter"),
-    labelled("Status", status, "catalogue-status"),
-    labelled("Class", kind, "catalogue-class"),
+    labelled(uiText("uiFilter"), search, "catalogue-filter"),
+    labelled(uiText("uiStatus"), status, "catalogue-status"),
+    labelled(uiText("uiClass"), kind, "catalogue-class"),
     count,
   ]);
   controls.setAttribute("role", "search");
