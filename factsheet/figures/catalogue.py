@@ -11,13 +11,29 @@ from factsheet import labels
 from factsheet.figures import names, style
 from factsheet.figures.inputs import DistanceItem, Drawing, PlaneItem
 from factsheet.figures.ticks import set_log_ticks
-from factsheet.figures.words import count_words, value_words
+from factsheet.figures.words import value_words
+from factsheet.i18n import _, decimal_text, ngettext, pgettext
 from factsheet.notation import format_median
 
 MSUN, MPC = u.Msun, u.Mpc
 LABEL_ALL_UP_TO = 15  # with more events, only the notable ones are candidates for a name
 STATUS_ORDER = ("confirmed", "candidate", "retracted")
-_SOURCE_FRAME = " (source frame)"
+
+
+def status_word(status: str) -> str:
+    """An event's status as the legend names it, in the language in use."""
+    if status == "confirmed":
+        return pgettext("status", "confirmed")
+    if status == "candidate":
+        return pgettext("status", "candidate")
+    if status == "retracted":
+        return pgettext("status", "retracted")
+    return status
+
+
+def _source_frame(name: str) -> str:
+    """An axis name of masses in the source frame: ``Total mass (source frame)``."""
+    return _("{name} (source frame)").format(name=name)
 
 
 def _status_style(status: str, colour: str) -> dict:
@@ -50,7 +66,7 @@ def _points(ax, xs: np.ndarray, ys: np.ndarray, statuses: list[str]) -> None:
             ms=7,
             elinewidth=0.9,
             alpha=0.95,
-            label=status,
+            label=status_word(status),
             zorder=3,
             **_status_style(status, style.ROLE["primary"]),
         )
@@ -93,7 +109,7 @@ def _shade_bands(ax, bands: list[tuple[str, float, float]]) -> list[Patch]:
         shade = style.BAND_SHADE[name]
         ax.axvspan(a, b, color=shade, alpha=0.7, lw=0, zorder=0)
         ax.axhspan(a, b, color=shade, alpha=0.7, lw=0, zorder=0)
-        handles.append(Patch(color=shade, label=labels.BANDS[name]))
+        handles.append(Patch(color=shade, label=str(labels.BANDS[name])))
     # m2 > m1 is empty by convention: the shades fade there
     ax.fill_between(
         [1e-3, 1e6], [1e-3, 1e6], 1e6, color=style.AXES_FACE, alpha=0.6, lw=0, zorder=0.5
@@ -124,8 +140,12 @@ def _square_log_axes(ax: Axes, lo: float, hi: float) -> tuple[float, float, floa
         fontsize=style.FONT,
         color=style.INK,
     )
-    ax.set_xlabel(style.unit_label(labels.QUANTITIES["heavier_mass"].name + _SOURCE_FRAME, MSUN))
-    ax.set_ylabel(style.unit_label(labels.QUANTITIES["lighter_mass"].name + _SOURCE_FRAME, MSUN))
+    heavier, lighter = (
+        labels.QUANTITIES["heavier_mass"].name,
+        labels.QUANTITIES["lighter_mass"].name,
+    )
+    ax.set_xlabel(style.unit_label(_source_frame(heavier), MSUN))
+    ax.set_ylabel(style.unit_label(_source_frame(lighter), MSUN))
     x, y = ax.transData.transform((at, at)) * 72 / ax.figure.dpi
     side = 7 * 0.6 * style.FONT * 0.71 + style.FONT  # the rotated name's extent on each axis
     return (x - side / 2, y, x + side, y + side + style.FONT)
@@ -170,30 +190,59 @@ def mass_plane(
     return Drawing(fig, _plane_alt(m1, m2, statuses, edges) + _named_words(len(named), ids))
 
 
+def _count(n: int) -> str:
+    return decimal_text(n, 0)
+
+
 def _named_words(named: int, ids: list[str]) -> str:
     if named == len(ids):
         return ""
-    return f" {named} of the {len(ids)} events are named where there is room; the table lists all."
+    words = ngettext(
+        "{named} of the {total} events are named where there is room; the table lists all.",
+        "{named} of the {total} events are named where there is room; the table lists all.",
+        named,
+    )
+    return " " + words.format(named=_count(named), total=_count(len(ids)))
+
+
+def _events(n: int) -> str:
+    return ngettext("{n} event", "{n} events", n).format(n=_count(n))
+
+
+def _status_count(status: str, n: int) -> str:
+    """``3 confirmed``: how many events have a status, in the language in use."""
+    if status == "confirmed":
+        return ngettext("{n} confirmed", "{n} confirmed", n).format(n=_count(n))
+    if status == "candidate":
+        return ngettext("{n} candidate", "{n} candidate", n).format(n=_count(n))
+    return ngettext("{n} retracted", "{n} retracted", n).format(n=_count(n))
 
 
 def _status_counts(statuses: list[str]) -> str:
-    counts = [f"{statuses.count(s)} {s}" for s in STATUS_ORDER if s in statuses]
+    counts = [_status_count(s, statuses.count(s)) for s in STATUS_ORDER if s in statuses]
     return ", ".join(counts)
 
 
 def _plane_alt(m1: np.ndarray, m2: np.ndarray, statuses: list[str], edges: dict) -> str:
-    return (
-        f"Component-mass plane of {count_words(len(statuses), 'event')} "
-        f"({_status_counts(statuses)}): heavier bodies from "
-        f"{_median_words(m1, np.argmin(m1[:, 0]), MSUN)} to "
-        f"{_median_words(m1, np.argmax(m1[:, 0]), MSUN)}, lighter bodies from "
-        f"{_median_words(m2, np.argmin(m2[:, 0]), MSUN)} to "
-        f"{_median_words(m2, np.argmax(m2[:, 0]), MSUN)}. Shaded mass bands: "
-        f"{labels.BANDS['neutron_star']} up to {value_words(edges['neutron_star_max'], MSUN)}, "
-        f"{labels.BANDS['lower_gap']} to {value_words(edges['lower_gap_top'], MSUN)}, "
-        f"{labels.BANDS['pair_instability_gap']} "
-        f"{value_words(edges['pair_instability_lower'], MSUN)} to "
-        f"{value_words(edges['pair_instability_upper'], MSUN)}."
+    return _(
+        "Component-mass plane of {events} ({statuses}): heavier bodies from {heavier_low} to "
+        "{heavier_high}, lighter bodies from {lighter_low} to {lighter_high}. Shaded mass "
+        "bands: {neutron_star} up to {neutron_star_max}, {lower_gap} to {lower_gap_top}, "
+        "{pair_gap} {pair_gap_low} to {pair_gap_high}."
+    ).format(
+        events=_events(len(statuses)),
+        statuses=_status_counts(statuses),
+        heavier_low=_median_words(m1, np.argmin(m1[:, 0]), MSUN),
+        heavier_high=_median_words(m1, np.argmax(m1[:, 0]), MSUN),
+        lighter_low=_median_words(m2, np.argmin(m2[:, 0]), MSUN),
+        lighter_high=_median_words(m2, np.argmax(m2[:, 0]), MSUN),
+        neutron_star=labels.BANDS["neutron_star"],
+        neutron_star_max=value_words(edges["neutron_star_max"], MSUN),
+        lower_gap=labels.BANDS["lower_gap"],
+        lower_gap_top=value_words(edges["lower_gap_top"], MSUN),
+        pair_gap=labels.BANDS["pair_instability_gap"],
+        pair_gap_low=value_words(edges["pair_instability_lower"], MSUN),
+        pair_gap_high=value_words(edges["pair_instability_upper"], MSUN),
     )
 
 
@@ -215,7 +264,7 @@ def distance_mass(events: list[DistanceItem], notable_ids: set[str] | None = Non
     set_log_ticks(ax.yaxis, ylo, yhi)
     chosen = names.order(statuses, notable(m, d, ids, notable_ids))
     named = names.place(ax, m, d, ids, chosen, [])
-    ax.set_xlabel(style.unit_label(labels.QUANTITIES["total_mass"].name + _SOURCE_FRAME, MSUN))
+    ax.set_xlabel(style.unit_label(_source_frame(labels.QUANTITIES["total_mass"].name), MSUN))
     ax.set_ylabel(style.unit_label(labels.QUANTITIES["distance"].name, MPC))
     fig.legend(
         loc="upper left",
@@ -227,12 +276,16 @@ def distance_mass(events: list[DistanceItem], notable_ids: set[str] | None = Non
         columnspacing=1.0,
     )
     style.finish_axes(ax)
-    alt = (
-        f"Luminosity distance against total mass for {count_words(len(events), 'event')} "
-        f"({_status_counts(statuses)}): distances from {_median_words(d, np.argmin(d[:, 0]), MPC)} "
-        f"to {_median_words(d, np.argmax(d[:, 0]), MPC)}, total masses from "
-        f"{_median_words(m, np.argmin(m[:, 0]), MSUN)} to "
-        f"{_median_words(m, np.argmax(m[:, 0]), MSUN)}."
+    alt = _(
+        "Luminosity distance against total mass for {events} ({statuses}): distances from "
+        "{distance_low} to {distance_high}, total masses from {mass_low} to {mass_high}."
+    ).format(
+        events=_events(len(events)),
+        statuses=_status_counts(statuses),
+        distance_low=_median_words(d, np.argmin(d[:, 0]), MPC),
+        distance_high=_median_words(d, np.argmax(d[:, 0]), MPC),
+        mass_low=_median_words(m, np.argmin(m[:, 0]), MSUN),
+        mass_high=_median_words(m, np.argmax(m[:, 0]), MSUN),
     )
     return Drawing(fig, alt + _named_words(len(named), ids))
 

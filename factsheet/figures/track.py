@@ -20,6 +20,7 @@ from factsheet.figures import style
 from factsheet.figures.inputs import Drawing, Track
 from factsheet.figures.ticks import log_tick_values, plain_number, set_log_ticks
 from factsheet.figures.words import value_words
+from factsheet.i18n import _
 from factsheet.labels import FIGURE_NAMES, QUANTITIES
 
 MAX_TRACK_POINTS = 600  # the track is thinned to this many points for the drawing
@@ -36,7 +37,7 @@ def _thin(t: np.ndarray, f: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
 
 
 def _text(track: Track, key: str, value: float, unit: str) -> str:
-    return (track.texts or {}).get(key) or value_words(value, unit)
+    return str((track.texts or {}).get(key) or value_words(value, unit))
 
 
 def _marks(track: Track) -> list[tuple[str, float, str, str, bool]]:
@@ -98,7 +99,8 @@ def _before_axis(ax: Axes, t: np.ndarray) -> None:
     ax.xaxis.set_major_locator(FixedLocator(values))
     ax.set_xticklabels([plain_number(v) for v in values])
     ax.xaxis.set_minor_locator(NullLocator())
-    ax.set_xlabel(style.unit_label(FIGURE_NAMES["time_before_merger"], "s") + ", log scale")
+    label = style.unit_label(FIGURE_NAMES["time_before_merger"], "s")
+    ax.set_xlabel(_("{name}, log scale").format(name=label))
 
 
 def _after_axis(ax: Axes, track: Track) -> None:
@@ -110,7 +112,7 @@ def _after_axis(ax: Axes, track: Track) -> None:
     ax.tick_params(axis="y", which="both", left=False, labelleft=False)
     ax.axvline(0.0, color=style.INK, linewidth=1.0)
     ax.annotate(
-        FIGURE_NAMES["merger"],
+        str(FIGURE_NAMES["merger"]),
         (0, 1),
         xycoords="axes fraction",
         xytext=(4, -4),
@@ -125,7 +127,7 @@ def _after_axis(ax: Axes, track: Track) -> None:
             color=style.ROLE["ringdown"],
             linewidth=5,
             solid_capstyle="butt",
-            label=f"ringdown ({RINGDOWN_TAUS} τ)",
+            label=_("ringdown ({n} τ)").format(n=RINGDOWN_TAUS),
         )
 
 
@@ -136,7 +138,7 @@ def _note(ax: Axes, track: Track, lo: float, hi: float) -> None:
     ax.text(
         0.5,
         y,
-        textwrap.fill(track.note, 30),
+        textwrap.fill(str(track.note), 30),
         transform=ax.get_yaxis_transform(),
         ha="center",
         va="center",
@@ -157,7 +159,8 @@ def frequency_track(track: Track) -> Drawing:
     axes = [ax, fig.add_subplot(grid[1], sharey=ax)] if ring else [ax]
     ax.set_yscale("log")
     if len(t):
-        ax.plot(t, f, color=style.ROLE["track"], linewidth=2.2, label="frequency track", zorder=2)
+        track_name = _("frequency track")
+        ax.plot(t, f, color=style.ROLE["track"], linewidth=2.2, label=track_name, zorder=2)
     _mark_frequencies(axes, track)
     fs = [*([f.min(), f.max()] if len(f) else []), *(m[1] for m in _marks(track))]
     lo, hi = min(fs) / 1.5, max(fs) * 1.7
@@ -177,19 +180,45 @@ def frequency_track(track: Track) -> Drawing:
 def _track_alt(track: Track, t: np.ndarray) -> str:
     edge = value_words(track.f_low_hz, "Hz")
     isco = _text(track, "isco_frequency", track.f_isco_hz, "Hz")
-    if len(t):
-        duration = _text(track, "time_in_band", float(t.max()), "s")
-        text = (
-            f"Gravitational-wave frequency rising from {edge} at the band edge, {duration} "
-            f"before merger, through the ISCO frequency {isco}"
-        )
-    else:
-        text = f"The inspiral ends at the ISCO frequency {isco}, below the band edge at {edge}"
+    ring = tau = ""
     if track.f_ringdown_hz is not None:
         ring = _text(track, "ringdown_frequency", track.f_ringdown_hz, "Hz")
-        text += f", to the ringdown frequency {ring}"
         if track.tau_ringdown_s:
             tau = _text(track, "ringdown_damping_time", track.tau_ringdown_s * 1e3, "ms")
-            text += f" with damping time {tau}"
-    text += "."
+    if len(t):
+        duration = _text(track, "time_in_band", float(t.max()), "s")
+        if tau:
+            text = _(
+                "Gravitational-wave frequency rising from {edge} at the band edge, {duration} "
+                "before merger, through the ISCO frequency {isco}, to the ringdown frequency "
+                "{ringdown} with damping time {damping}."
+            )
+        elif ring:
+            text = _(
+                "Gravitational-wave frequency rising from {edge} at the band edge, {duration} "
+                "before merger, through the ISCO frequency {isco}, to the ringdown frequency "
+                "{ringdown}."
+            )
+        else:
+            text = _(
+                "Gravitational-wave frequency rising from {edge} at the band edge, {duration} "
+                "before merger, through the ISCO frequency {isco}."
+            )
+    else:
+        duration = ""
+        if tau:
+            text = _(
+                "The inspiral ends at the ISCO frequency {isco}, below the band edge at {edge}, "
+                "to the ringdown frequency {ringdown} with damping time {damping}."
+            )
+        elif ring:
+            text = _(
+                "The inspiral ends at the ISCO frequency {isco}, below the band edge at {edge}, "
+                "to the ringdown frequency {ringdown}."
+            )
+        else:
+            text = _(
+                "The inspiral ends at the ISCO frequency {isco}, below the band edge at {edge}."
+            )
+    text = text.format(edge=edge, duration=duration, isco=isco, ringdown=ring, damping=tau)
     return f"{text} {track.note}" if track.note else text
