@@ -109,7 +109,7 @@ def _shade_bands(ax, bands: list[tuple[str, float, float]]) -> list[Patch]:
         shade = style.BAND_SHADE[name]
         ax.axvspan(a, b, color=shade, alpha=0.7, lw=0, zorder=0)
         ax.axhspan(a, b, color=shade, alpha=0.7, lw=0, zorder=0)
-        handles.append(Patch(color=shade, label=str(labels.BANDS[name])))
+        handles.append(Patch(color=shade, label=style.wrapped(labels.BANDS[name], LEGEND_CHARS)))
     # m2 > m1 is empty by convention: the shades fade there
     ax.fill_between(
         [1e-3, 1e6], [1e-3, 1e6], 1e6, color=style.AXES_FACE, alpha=0.6, lw=0, zorder=0.5
@@ -117,9 +117,11 @@ def _shade_bands(ax, bands: list[tuple[str, float, float]]) -> list[Patch]:
     return handles
 
 
-def _square_log_axes(ax: Axes, lo: float, hi: float) -> tuple[float, float, float, float]:
-    """Both axes log over lo..hi, the m2 = m1 diagonal drawn and named; return the box (pt) its
-    name takes."""
+def _square_log_axes(
+    ax: Axes, lo: float, hi: float, axis_names: tuple[str, str]
+) -> tuple[float, float, float, float]:
+    """Both axes log over lo..hi, the m2 = m1 diagonal drawn and named, the axes named
+    ``axis_names`` (x, y); return the box (pt) the diagonal's name takes."""
     ax.set_xscale("log")
     ax.set_yscale("log")
     ax.set_xlim(lo, hi)
@@ -140,12 +142,8 @@ def _square_log_axes(ax: Axes, lo: float, hi: float) -> tuple[float, float, floa
         fontsize=style.FONT,
         color=style.INK,
     )
-    heavier, lighter = (
-        labels.QUANTITIES["heavier_mass"].name,
-        labels.QUANTITIES["lighter_mass"].name,
-    )
-    ax.set_xlabel(style.unit_label(_source_frame(heavier), MSUN))
-    ax.set_ylabel(style.unit_label(_source_frame(lighter), MSUN))
+    ax.set_xlabel(axis_names[0])
+    ax.set_ylabel(axis_names[1])
     x, y = ax.transData.transform((at, at)) * 72 / ax.figure.dpi
     side = 7 * 0.6 * style.FONT * 0.71 + style.FONT  # the rotated name's extent on each axis
     return (x - side / 2, y, x + side, y + side + style.FONT)
@@ -153,6 +151,9 @@ def _square_log_axes(ax: Axes, lo: float, hi: float) -> tuple[float, float, floa
 
 PLANE_AXES_IN = 3.9  # side of the square axes of the mass plane, in inches
 PLANE_LEFT_IN, PLANE_BOTTOM_IN = 0.85, 1.75  # room for the tick labels, axis names and legend
+PLANE_NAME_CHARS = 48  # an axis name longer than this takes two lines (the English ones fit)
+LEGEND_CHARS = 24  # a legend name longer than this takes two lines (the legend's two columns)
+LINE_IN = 0.2  # inches of one more line of text
 
 
 @style.styled
@@ -163,18 +164,31 @@ def mass_plane(
     m1 = _intervals(events, ("m1_median", "m1_low", "m1_high"), MSUN)
     m2 = _intervals(events, ("m2_median", "m2_low", "m2_high"), MSUN)
     lo, hi = min(m2.min(), m1.min(), 1.0) / 1.3, max(m1.max(), 8.0) * 1.5
-    width, height = style.WIDTH, PLANE_BOTTOM_IN + PLANE_AXES_IN + 0.15
-    left, bottom = PLANE_LEFT_IN / width, PLANE_BOTTOM_IN / height
-    top = (PLANE_BOTTOM_IN + PLANE_AXES_IN) / height
-    fig = style.new_figure(width, height, (left, left + PLANE_AXES_IN / width, bottom, top))
-    ax = fig.add_subplot()  # square axes: the diagonal at 45°
-    diagonal = _square_log_axes(ax, lo, hi)
-    band_handles = _shade_bands(ax, band_ranges(edges, lo, hi))
+    axis_names = tuple(
+        style.two_lines(style.unit_label(_source_frame(name), MSUN), PLANE_NAME_CHARS)
+        for name in (labels.QUANTITIES["heavier_mass"].name, labels.QUANTITIES["lighter_mass"].name)
+    )
+    bands = band_ranges(edges, lo, hi)
     statuses, ids = [e.status for e in events], [e.id for e in events]
+    legend = [status_word(s) for s in STATUS_ORDER if s in statuses]
+    legend += [style.wrapped(labels.BANDS[name], LEGEND_CHARS) for name, _a, _b in bands]
+    # Room for names that run onto more lines (in a wordier language): below for the x axis's
+    # name and the legend, at the left for the y axis's name (the square axes shrink).
+    below = (axis_names[0].count("\n") + _legend_lines(legend)) * LINE_IN
+    beside = axis_names[1].count("\n") * LINE_IN
+    bottom_in, left_in = PLANE_BOTTOM_IN + below, PLANE_LEFT_IN + beside
+    side = PLANE_AXES_IN - beside
+    width, height = style.WIDTH, bottom_in + side + 0.15
+    left, bottom = left_in / width, bottom_in / height
+    top = (bottom_in + side) / height
+    fig = style.new_figure(width, height, (left, left + side / width, bottom, top))
+    ax = fig.add_subplot()  # square axes: the diagonal at 45°
+    diagonal = _square_log_axes(ax, lo, hi, axis_names)
+    band_handles = _shade_bands(ax, bands)
     _points(ax, m1, m2, statuses)
     chosen = names.order(statuses, notable(m1, m2, ids, notable_ids))
     named = names.place(ax, m1, m2, ids, chosen, [diagonal])
-    status_handles, _ = ax.get_legend_handles_labels()
+    status_handles, _labels = ax.get_legend_handles_labels()
     fig.legend(
         handles=status_handles + band_handles,
         loc="lower left",
@@ -188,6 +202,14 @@ def mass_plane(
     )
     style.finish_axes(ax)
     return Drawing(fig, _plane_alt(m1, m2, statuses, edges) + _named_words(len(named), ids))
+
+
+def _legend_lines(names: list[str], columns: int = 2) -> int:
+    """The lines beyond one that the legend's names take in its longest column (filled column
+    by column)."""
+    per = max(1, -(-len(names) // columns))
+    split = [names[k : k + per] for k in range(0, len(names), per)]
+    return max((sum(n.count("\n") for n in column) for column in split), default=0)
 
 
 def _count(n: int) -> str:

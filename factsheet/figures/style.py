@@ -152,6 +152,17 @@ def wrapped(label: str, width: int = 26) -> str:
     return textwrap.fill(label, width) if len(label) > width else label
 
 
+def two_lines(label: str, chars: int) -> str:
+    """An axis name longer than ``chars`` characters broken at the space nearest its middle
+    (names in a wordier language than English then still fit beside the axis)."""
+    label = str(label)
+    if len(label) <= chars or " " not in label:
+        return label
+    spaces = [k for k, c in enumerate(label) if c == " "]
+    k = min(spaces, key=lambda k: abs(k - len(label) / 2))
+    return label[:k] + "\n" + label[k + 1 :]
+
+
 def row_height(labels: list[str], single: float) -> float:
     """Height in inches of one labelled row: more when a label runs onto a second line."""
     return single * 1.3 if any("\n" in text for text in labels) else single

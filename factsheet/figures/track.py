@@ -27,6 +27,8 @@ MAX_TRACK_POINTS = 600  # the track is thinned to this many points for the drawi
 RINGDOWN_TAUS = 5  # the ringdown bar spans this many damping times after the merger
 NO_TRACK_S = (1.0, 1e-3)  # the span of the before-merger axis when no inspiral is in band
 NOTE_CHARS = 28  # the note's lines, at most this long (the before-merger panel's width)
+AXIS_NAME_CHARS = 36  # beside the after-merger panel, a longer axis name takes two lines
+LINE_IN = 0.2  # inches of one more line of text
 
 
 def _thin(t: np.ndarray, f: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
@@ -85,7 +87,15 @@ def _mark_frequencies(axes: list[Axes], track: Track) -> None:
         )
 
 
-def _before_axis(ax: Axes, t: np.ndarray) -> None:
+def _before_name(ring: bool) -> str:
+    """The before-merger axis's name; beside the after-merger panel, on two lines when it is
+    longer than the panel is wide (in a wordier language than English)."""
+    label = style.unit_label(FIGURE_NAMES["time_before_merger"], "s")
+    label = _("{name}, log scale").format(name=label)
+    return style.two_lines(label, AXIS_NAME_CHARS) if ring else label
+
+
+def _before_axis(ax: Axes, t: np.ndarray, name: str) -> None:
     """Time to merger, log scale, decreasing to the right (towards the merger)."""
     left, right = (t.max() * 1.6, t.min() / 1.6) if len(t) else NO_TRACK_S
     ax.set_xscale("log")
@@ -99,8 +109,7 @@ def _before_axis(ax: Axes, t: np.ndarray) -> None:
     ax.xaxis.set_major_locator(FixedLocator(values))
     ax.set_xticklabels([plain_number(v) for v in values])
     ax.xaxis.set_minor_locator(NullLocator())
-    label = style.unit_label(FIGURE_NAMES["time_before_merger"], "s")
-    ax.set_xlabel(_("{name}, log scale").format(name=label))
+    ax.set_xlabel(name)
 
 
 def _after_axis(ax: Axes, track: Track) -> None:
@@ -153,7 +162,13 @@ def frequency_track(track: Track) -> Drawing:
     after it), the band edge, the ISCO and the ringdown frequency marked."""
     t, f = _thin(np.asarray(track.time_to_merger_s, float), np.asarray(track.frequency_hz, float))
     ring = track.f_ringdown_hz is not None
-    fig = style.new_figure(style.WIDTH, 3.4, (0.16, 0.97, 0.16, 0.97))
+    before_name = _before_name(ring)
+    if "\n" in before_name:  # one more line below the panels
+        height = 3.4 + LINE_IN
+        margins = (0.16, 0.97, (0.16 * 3.4 + LINE_IN) / height, 1 - 0.03 * 3.4 / height)
+    else:
+        height, margins = 3.4, (0.16, 0.97, 0.16, 0.97)
+    fig = style.new_figure(style.WIDTH, height, margins)
     grid = fig.add_gridspec(1, 2 if ring else 1, width_ratios=[3, 1] if ring else [1], wspace=0.06)
     ax = fig.add_subplot(grid[0])
     axes = [ax, fig.add_subplot(grid[1], sharey=ax)] if ring else [ax]
@@ -166,7 +181,7 @@ def frequency_track(track: Track) -> Drawing:
     lo, hi = min(fs) / 1.5, max(fs) * 1.7
     ax.set_ylim(lo, hi)
     set_log_ticks(ax.yaxis, lo, hi)
-    _before_axis(ax, t)
+    _before_axis(ax, t, before_name)
     if ring:
         _after_axis(axes[1], track)
     if track.note:
