@@ -15,6 +15,7 @@ from factsheet.figures import style
 from factsheet.figures.inputs import ComparisonItem, Drawing, IntervalItem
 from factsheet.figures.ticks import set_log_ticks
 from factsheet.figures.words import interval_words
+from factsheet.i18n import N_, _
 from factsheet.notation import percent
 
 INTERVAL_COLOURS = ("primary", "secondary", "remnant")
@@ -23,9 +24,21 @@ NBSP = "\u00a0"
 NAME_CHARS = 44  # a row name wider than this runs onto a second line (the figure's width)
 
 
+#: The axis name of a unit's kind (astropy's physical type); another kind is named as astropy
+#: names it.
+KIND_NAMES = {
+    "mass": N_("Mass"),
+    "length": N_("Length"),
+    "time": N_("Time"),
+    "frequency": N_("Frequency"),
+}
+
+
 def _quantity_name(unit: str) -> str:
     kind = str(u.Unit(unit).physical_type) if unit else ""
-    return "Mass" if kind == "mass" else (kind.capitalize() or "Value")
+    if kind in KIND_NAMES:
+        return _(KIND_NAMES[kind])
+    return kind.capitalize() or _("Value")
 
 
 def _shown(item: IntervalItem, unit: str = "") -> str:
@@ -61,7 +74,8 @@ def component_intervals(items: list[IntervalItem]) -> Drawing:
     style.finish_axes(ax, grid_axis="x")
     parts = [f"{i.label} {_shown(i, unit)}" for i in items]
     levels = "/".join(dict.fromkeys(percent(i.level) for i in items))
-    return Drawing(fig, f"Medians with {levels} credible intervals: " + "; ".join(parts) + ".")
+    alt = _("Medians with {levels} credible intervals: {values}.")
+    return Drawing(fig, alt.format(levels=levels, values="; ".join(parts)))
 
 
 def _cycle(names: tuple[str, ...], n: int) -> list[str]:
@@ -77,7 +91,7 @@ def _log_range(items: list[ComparisonItem]) -> tuple[float, float]:
 
 def _name(row: ComparisonItem) -> str:
     """``name: value`` wrapped between words of the name, never inside the value."""
-    glued = row.shown.replace(" ", NBSP)
+    glued = str(row.shown).replace(" ", NBSP)
     return textwrap.fill(f"{row.name}: {glued}", NAME_CHARS).replace(NBSP, " ")
 
 
@@ -115,11 +129,11 @@ def comparison_points(
     ax.set_xlim(lo, hi)
     set_log_ticks(ax.xaxis, lo, hi)
     ax.set_ylim(-0.45, len(rows) - 0.2)
-    ax.set_xlabel(style.unit_label(title, unit) + ", log scale")
+    ax.set_xlabel(_("{name}, log scale").format(name=style.unit_label(title, unit)))
     style.finish_axes(ax, grid_axis="x")
     listed = "; ".join(f"{r.name} {r.shown}" for r in rows)
-    return Drawing(
-        fig,
-        f"{title} on a logarithmic scale, largest first, the merger's with its {percent(level)} "
-        f"credible interval: {listed}.",
+    alt = _(
+        "{quantity} on a logarithmic scale, largest first, the merger's with its {level} "
+        "credible interval: {values}."
     )
+    return Drawing(fig, alt.format(quantity=title, level=percent(level), values=listed))

@@ -9,6 +9,8 @@ import numpy as np
 
 from factsheet.figures import style
 from factsheet.figures.inputs import Drawing
+from factsheet.figures.ticks import digits
+from factsheet.i18n import _
 
 
 class LensMass(NamedTuple):
@@ -42,6 +44,7 @@ def lensed_masses(columns: list[LensColumn], gap: tuple[float, float], gap_label
     fig = style.new_figure(style.WIDTH, height, (0.14, 0.97, 0.62 / height, 1 - 0.72 / height))
     ax = fig.add_subplot()
     top = max(m.high for c in columns for m in c.masses) * 1.08
+    gap_label = str(gap_label)  # the band's name in the language in use
     ax.axhspan(
         gap[0], min(gap[1], top * 2), color=style.BAND_SHADE["pair_instability_gap"], lw=0,
         label=gap_label,
@@ -53,14 +56,14 @@ def lensed_masses(columns: list[LensColumn], gap: tuple[float, float], gap_label
             ax.errorbar(
                 x + OFFSETS.get(m.role, 0.0), m.median, yerr=err, fmt=MARKERS.get(m.role, "o"),
                 color=style.ROLE[m.role], ms=5.5, capsize=3, lw=1.6,
-                label=None if m.role in seen else m.name,
+                label=None if m.role in seen else str(m.name),
             )  # fmt: skip
-            seen.setdefault(m.role, m.name)
-    ax.set_xticks(np.arange(len(columns)), [c.label for c in columns])
+            seen.setdefault(m.role, str(m.name))
+    ax.set_xticks(np.arange(len(columns)), [str(c.label) for c in columns])
     ax.set_xlim(-0.5, len(columns) - 0.5)
     ax.set_ylim(0, top)
-    ax.set_xlabel("Magnification assumed")
-    ax.set_ylabel(style.unit_label("Mass, source frame", "solMass"))
+    ax.set_xlabel(_("Magnification assumed"))
+    ax.set_ylabel(style.unit_label(_("Mass, source frame"), "solMass"))
     handles, names = ax.get_legend_handles_labels()
     order = [names.index(n) for n in names if n != gap_label] + [names.index(gap_label)]
     ax.legend(
@@ -75,10 +78,11 @@ def lensed_masses(columns: list[LensColumn], gap: tuple[float, float], gap_label
 def _alt(columns: list[LensColumn], gap_label: str) -> str:
     """The figure in words: each magnification with its masses."""
     parts = [
-        f"{c.label}: " + ", ".join(f"{m.name} {m.shown or f'{m.median:.3g}'}" for m in c.masses)
+        f"{c.label}: "
+        + ", ".join(f"{m.name} {m.shown or digits(f'{m.median:.3g}')}" for m in c.masses)
         for c in columns
     ]
-    return (
-        "Source-frame masses (medians) at each assumed magnification, against "
-        f"the {gap_label} (shaded): " + "; ".join(parts) + "."
-    )
+    return _(
+        "Source-frame masses (medians) at each assumed magnification, against the {gap} "
+        "(shaded): {columns}."
+    ).format(gap=gap_label, columns="; ".join(parts))

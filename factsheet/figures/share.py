@@ -43,6 +43,7 @@ class ShareCard(NamedTuple):
     status: str | None  # the word shown across the top (a candidate, a retraction), or None
     bodies: tuple[ShareBody, ...]  # the heavier, the lighter, then the remnant if there is one
     footer: str  # the catalogue's title
+    tone: str = ""  # the status whose tint the top band takes (the word may be translated)
 
 
 def _disc(ax, x: float, body: ShareBody, scale: float, label_y: float) -> float:
@@ -76,9 +77,11 @@ def _discs(ax, bodies: tuple[ShareBody, ...]) -> None:
         ax.add_patch(arrow)
 
 
-def _status(ax, status: str) -> None:
-    """The status word across the top of the card, on a pale band."""
-    shade = STATUS_SHADE.get(status.lower(), style.GRID)
+def _status(ax, status: str, tone: str) -> None:
+    """The status word across the top of the card, on a pale band (the tint of ``tone``, or of
+    the word itself)."""
+    status = str(status)
+    shade = STATUS_SHADE.get(tone or status.lower(), style.GRID)
     ax.add_patch(Rectangle((0, 0.455), 1, 0.07, lw=0, color=shade))
     ax.text(
         0.04, 0.49, status.upper(), fontsize=34, fontweight="bold", va="center", color=style.INK
@@ -95,9 +98,9 @@ def share_png(card: ShareCard) -> bytes:
         ax.set_ylim(0, SIZE_PX[1] / SIZE_PX[0])
         top = 0.5
         if card.status:
-            _status(ax, card.status)
+            _status(ax, card.status, card.tone)
             top = 0.435
-        title = textwrap.fill(card.title, TITLE_CHARS)
+        title = textwrap.fill(str(card.title), TITLE_CHARS)  # in the language in use
         ax.text(
             0.04,
             top,
@@ -109,9 +112,9 @@ def share_png(card: ShareCard) -> bytes:
             linespacing=1.15,
         )
         below = top - 0.042 * (title.count("\n") + 1) - 0.012
-        ax.text(0.04, below, card.subtitle, fontsize=22, va="top", color=style.INK)
+        ax.text(0.04, below, str(card.subtitle), fontsize=22, va="top", color=style.INK)
         _discs(ax, card.bodies)
-        ax.text(0.04, 0.015, card.footer, fontsize=16, color=style.MUTED, va="bottom")
+        ax.text(0.04, 0.015, str(card.footer), fontsize=16, color=style.MUTED, va="bottom")
         buffer = io.BytesIO()
         fig.savefig(
             buffer,

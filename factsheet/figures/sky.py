@@ -27,6 +27,7 @@ from matplotlib.transforms import Affine2D
 
 from factsheet.figures import style
 from factsheet.figures.inputs import Drawing
+from factsheet.i18n import _
 
 INNER, OUTER = 0.5, 0.9  # the credible levels drawn
 CENTRE_RA = 0.0  # degrees: the map's central meridian
@@ -317,30 +318,48 @@ def sky_thumbnail(levels: np.ndarray, candidates: list[SkyMark]) -> Drawing:
     _regions(ax, coarse(levels, THUMB_CELL), edge, 0.8, 0.5)
     x, y = project([c.ra for c in candidates], [c.dec for c in candidates])
     ax.plot(x, y, "o", ms=2.5, mfc=style.INK, mec=style.INK, ls="none", zorder=5)
-    alt = f"Sky map: the {OUTER:.0%} credible region lies {extent_words(levels, OUTER)}"
+    level, where = f"{OUTER:.0%}", extent_words(levels, OUTER)
     if candidates:
-        alt += "; candidates marked: " + ", ".join(c.name for c in candidates)
-    return Drawing(fig, alt.replace("%", " %") + ".")
+        alt = _("Sky map: the {level} credible region lies {where}; candidates marked: {names}.")
+    else:
+        alt = _("Sky map: the {level} credible region lies {where}.")
+    names = ", ".join(str(c.name) for c in candidates)
+    return Drawing(fig, alt.format(level=level, where=where, names=names).replace("%", " %"))
 
 
 def _alt(levels, regions: SkyRegions, candidates, peak, texts: SkyTexts, box=None) -> str:
+    lead = _(
+        "{lead}: an all-sky map in equatorial coordinates, right ascension increasing to the "
+        "left. The {inner} covers {area_50} and the {outer} covers {area_90}; the {outer} lies "
+        "{where}."
+    )
     parts = [
-        f"{texts.lead}: an all-sky map in equatorial coordinates, right ascension increasing to "
-        f"the left. The {texts.inner} covers {regions.area_50} and the {texts.outer} covers "
-        f"{regions.area_90}; the {texts.outer} lies {extent_words(levels, OUTER)}."
+        lead.format(
+            lead=texts.lead,
+            inner=texts.inner,
+            outer=texts.outer,
+            area_50=regions.area_50,
+            area_90=regions.area_90,
+            where=extent_words(levels, OUTER),
+        )
     ]
     if box is not None:
-        parts.append(
-            f"Below it, a close-up {2 * box.half:.0f}° across, centred on right ascension "
-            f"{hours_minutes(box.ra)} and declination {_deg(box.dec)}, draws the regions and "
-            "the marks larger."
+        close_up = _(
+            "Below it, a close-up {size} across, centred on right ascension {ra} and "
+            "declination {dec}, draws the regions and the marks larger."
         )
+        size = f"{2 * box.half:.0f}°"
+        parts.append(close_up.format(size=size, ra=hours_minutes(box.ra), dec=_deg(box.dec)))
     if peak is not None:
-        name = peak.name[:1].upper() + peak.name[1:]
-        parts.append(f"{name} marked{f' ({peak.note})' if peak.note else ''}.")
+        name = str(peak.name)
+        name = name[:1].upper() + name[1:]
+        if peak.note:
+            parts.append(_("{name} marked ({note}).").format(name=name, note=peak.note))
+        else:
+            parts.append(_("{name} marked.").format(name=name))
     if candidates:
-        said = [f"{c.name}{f' ({c.note})' if c.note else ''}" for c in candidates]
-        parts.append("Candidates marked: " + "; ".join(said) + ".")
+        said = [f"{c.name} ({c.note})" if c.note else str(c.name) for c in candidates]
+        parts.append(_("Candidates marked: {names}.").format(names="; ".join(said)))
     return " ".join(parts)
 
 
@@ -493,7 +512,7 @@ def extent_words(levels: np.ndarray, level: float) -> str:
     −40° and −10°" (hours and 5° steps rounded outward)."""
     e = extent(levels, level)
     if e is None:
-        return "nowhere on the grid"
+        return _("nowhere on the grid")
     dec_low = 5 * math.floor(e.dec_low / 5)
     dec_high = 5 * math.ceil(e.dec_high / 5)
     wraps = e.ra_from is not None and e.ra_to < e.ra_from
@@ -503,16 +522,35 @@ def extent_words(levels: np.ndarray, level: float) -> str:
         if hours[1] - hours[0] + 24 * wraps >= 24:
             hours = None  # the arc rounds to the whole circle
     if hours is None and dec_high >= 90 and dec_low > -90:
-        return f"around the north celestial pole, north of declination {_deg(dec_low)}"
+        return _("around the north celestial pole, north of declination {dec}").format(
+            dec=_deg(dec_low)
+        )
     if hours is None and dec_low <= -90 and dec_high < 90:
-        return f"around the south celestial pole, south of declination {_deg(dec_high)}"
+        return _("around the south celestial pole, south of declination {dec}").format(
+            dec=_deg(dec_high)
+        )
     if hours is None:
-        where = "at every right ascension"
+        words = _("{hemisphere}, at every right ascension and declination {low} to {high}")
+        first = last = ""
     else:
-        across = " (across 0h)" if wraps else ""
-        where = f"between right ascension {hours[0] % 24}h and {hours[1] % 24}h{across}"
-    decs = f"declination {_deg(dec_low)} to {_deg(dec_high)}"
-    return f"{_hemisphere(e.south)}, {where} and {decs}"
+        first, last = f"{hours[0] % 24}h", f"{hours[1] % 24}h"
+        if wraps:
+            words = _(
+                "{hemisphere}, between right ascension {first} and {last} (across 0h) and "
+                "declination {low} to {high}"
+            )
+        else:
+            words = _(
+                "{hemisphere}, between right ascension {first} and {last} and declination {low} "
+                "to {high}"
+            )
+    return words.format(
+        hemisphere=_hemisphere(e.south),
+        first=first,
+        last=last,
+        low=_deg(dec_low),
+        high=_deg(dec_high),
+    )
 
 
 def _deg(value: float) -> str:
@@ -521,11 +559,11 @@ def _deg(value: float) -> str:
 
 def _hemisphere(south: float) -> str:
     if south >= 0.95:
-        return "in the southern sky"
+        return _("in the southern sky")
     if south <= 0.05:
-        return "in the northern sky"
+        return _("in the northern sky")
     if south >= 0.6:
-        return "mostly in the southern sky"
+        return _("mostly in the southern sky")
     if south <= 0.4:
-        return "mostly in the northern sky"
-    return "on both sides of the celestial equator"
+        return _("mostly in the northern sky")
+    return _("on both sides of the celestial equator")

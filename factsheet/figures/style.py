@@ -19,6 +19,10 @@ scaled; the SVG names ``'DejaVu Sans', sans-serif`` (matplotlib adds the generic
 the font it measured with), so a viewer without DejaVu Sans falls back to its own sans-serif,
 which is narrower than DejaVu in the common cases: labels placed with DejaVu's widths still fit.
 
+Words: the figures are drawn once per language, inside ``factsheet.i18n.use_language``, so
+their words are looked up when drawn (``_()``, or ``str()`` of a kept ``Text`` label), and their
+numbers take the language's decimal symbol (:mod:`factsheet.figures.ticks`).
+
 Dark mode: each figure is drawn on its own opaque light panel (figure and axes faces below), so
 the dark text and mid-tone lines read the same whether the page around it is light or dark.
 """
@@ -34,8 +38,9 @@ import matplotlib
 from matplotlib.axes import Axes
 from matplotlib.figure import Figure
 from matplotlib.text import Text
-from matplotlib.ticker import NullLocator
+from matplotlib.ticker import NullLocator, ScalarFormatter
 
+from factsheet.figures.ticks import LocalFormatter
 from factsheet.notation import unit_text
 
 PANEL = "#FAFAF7"  # figure face: the light panel every figure sits on
@@ -141,8 +146,21 @@ def new_figure(width: float, height: float, margins: tuple[float, float, float, 
 
 
 def wrapped(label: str, width: int = 26) -> str:
-    """A long row label broken onto lines of at most ``width`` characters."""
+    """A long row label broken onto lines of at most ``width`` characters (in the language in
+    use: a kept label is wrapped as it is shown)."""
+    label = str(label)
     return textwrap.fill(label, width) if len(label) > width else label
+
+
+def two_lines(label: str, chars: int) -> str:
+    """An axis name longer than ``chars`` characters broken at the space nearest its middle
+    (names in a wordier language than English then still fit beside the axis)."""
+    label = str(label)
+    if len(label) <= chars or " " not in label:
+        return label
+    spaces = [k for k, c in enumerate(label) if c == " "]
+    k = min(spaces, key=lambda k: abs(k - len(label) / 2))
+    return label[:k] + "\n" + label[k + 1 :]
 
 
 def row_height(labels: list[str], single: float) -> float:
@@ -152,7 +170,7 @@ def row_height(labels: list[str], single: float) -> float:
 
 def label_margin(labels: list[str], fig_width: float, fontsize: float = FONT) -> float:
     """Left margin (figure fraction) that fits the longest y label; DejaVu Sans ≈ 0.6 em a glyph."""
-    longest = max((len(line) for text in labels for line in text.splitlines()), default=0)
+    longest = max((len(line) for text in labels for line in str(text).splitlines()), default=0)
     inches = 0.2 + longest * 0.6 * fontsize / 72
     return min(0.5, max(0.06, inches / fig_width))
 
@@ -163,7 +181,7 @@ def row_names(ax: Axes, ys, names: list[str], bold: int | None = None) -> None:
     ax.yaxis.set_major_locator(NullLocator())
     for k, (y, name) in enumerate(zip(ys, names, strict=True)):
         ax.annotate(
-            name,
+            str(name),
             (0, y),
             xycoords=ax.get_yaxis_transform(),
             xytext=(0, 7),
@@ -187,12 +205,16 @@ def finish_axes(ax: Axes, grid_axis: str = "both") -> None:
     if grid_axis:
         ax.grid(True, which="major", axis=grid_axis, color=GRID, linewidth=0.6)
     ax.set_axisbelow(True)
+    for axis in (ax.xaxis, ax.yaxis):  # matplotlib's own tick numbers, in the language's digits
+        if type(axis.get_major_formatter()) is ScalarFormatter:
+            axis.set_major_formatter(LocalFormatter())
 
 
 def unit_label(name: str, unit: str | u.UnitBase) -> str:
-    """An axis label with its unit written as readers write it: ``Mass (M⊙)``."""
+    """An axis label with its unit written as readers write it: ``Mass (M⊙)`` (the name in
+    the language in use)."""
     text = unit_text(unit)
-    return f"{name} ({text})" if text else name
+    return f"{name} ({text})" if text else str(name)
 
 
 def as_value(x: float | u.Quantity, unit: u.UnitBase) -> float:

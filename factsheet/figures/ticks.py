@@ -2,6 +2,10 @@
 
 Fixed ticks with plain labels cost far less to draw than matplotlib's automatic log labels (which
 go through mathtext) and read better: ``20 50 100 200`` rather than powers of ten.
+
+Numbers drawn on a figure take the decimal symbol of the language in use (``0.5`` / ``0,5``);
+tick numbers are never grouped by thousands (``5000``), in any language. :class:`LocalFormatter`
+does the same for the ticks of linear axes that matplotlib labels itself.
 """
 
 from __future__ import annotations
@@ -10,9 +14,33 @@ import math
 
 import numpy as np
 from matplotlib.axis import Axis
-from matplotlib.ticker import FixedLocator, NullLocator
+from matplotlib.ticker import FixedLocator, NullLocator, ScalarFormatter
+
+from factsheet.i18n import decimal_text
 
 SUPERSCRIPT = str.maketrans("-0123456789", "⁻⁰¹²³⁴⁵⁶⁷⁸⁹")
+
+
+def decimal_symbol() -> str:
+    """The decimal symbol of the language in use, as :func:`factsheet.i18n.decimal_text`
+    writes it."""
+    return decimal_text(0.5, 1)[1]
+
+
+def digits(text: str) -> str:
+    """A number written with a full stop (``2.5``, ``−0.25``, ``2.5×10⁶``) in the decimal
+    symbol of the language in use, ungrouped."""
+    return text.replace(".", decimal_symbol())
+
+
+class LocalFormatter(ScalarFormatter):
+    """matplotlib's tick labels of a linear axis, with the decimal symbol of the language."""
+
+    def __call__(self, x, pos=None):
+        return digits(super().__call__(x, pos))
+
+    def get_offset(self):
+        return digits(super().get_offset())
 
 
 def plain_number(x: float) -> str:
@@ -22,11 +50,11 @@ def plain_number(x: float) -> str:
     sign = "−" if x < 0 else ""
     x = abs(x)
     if 1e-3 <= x < 1e5:
-        return sign + f"{x:.6g}"
+        return sign + digits(f"{x:.6g}")
     exponent = math.floor(math.log10(x) + 1e-9)
     mantissa = round(x / 10**exponent, 6)
     power = "10" + str(exponent).translate(SUPERSCRIPT)
-    return sign + (power if mantissa == 1 else f"{mantissa:g}×{power}")
+    return sign + (power if mantissa == 1 else digits(f"{mantissa:g}") + "×" + power)
 
 
 def log_tick_values(lo: float, hi: float) -> list[float]:

@@ -13,19 +13,20 @@ from factsheet.figures import style
 from factsheet.figures.inputs import Drawing, HistoryItem, WindowItem
 from factsheet.figures.ticks import plain_number
 from factsheet.figures.words import interval_words
+from factsheet.i18n import N_, _, ngettext
 from factsheet.labels import WINDOW_BANDS
 
-# Tick marks of the window axis, in seconds, named as people say them.
+# Tick marks of the window axis, in seconds, named as people say them (translated when drawn).
 _MARKS = [
-    (u.s, "1 s"),
-    (u.min, "1 min"),
-    (u.h, "1 h"),
-    (u.day, "1 d"),
-    (7 * u.day, "1 wk"),
-    (30 * u.day, "30 d"),
-    (100 * u.day, "100 d"),
-    (u.yr, "1 yr"),
-    (10 * u.yr, "10 yr"),
+    (u.s, N_("1 s")),
+    (u.min, N_("1 min")),
+    (u.h, N_("1 h")),
+    (u.day, N_("1 d")),
+    (7 * u.day, N_("1 wk")),
+    (30 * u.day, N_("30 d")),
+    (100 * u.day, N_("100 d")),
+    (u.yr, N_("1 yr")),
+    (10 * u.yr, N_("10 yr")),
 ]
 LINTHRESH_S = 1.0  # with windows before the merger: linear within ±1 s of it, logarithmic beyond
 NAME_CHARS = 44  # a window's name wider than this runs onto a second line
@@ -34,16 +35,26 @@ NAME_CHARS = 44  # a window's name wider than this runs onto a second line
 def duration_words(seconds: float) -> str:
     """A signed duration in the largest fitting unit: ``−1 s``, ``6 h``, ``1.5 yr``."""
     sign, x = ("−" if seconds < 0 else ""), abs(seconds) * u.s
-    for unit in (u.yr, u.day, u.h, u.min):
-        if x >= 1 * unit:
-            return f"{sign}{plain_number(float(f'{x.to_value(unit):.2g}'))} {unit.to_string()}"
-    return f"{sign}{plain_number(float(f'{x.to_value(u.s):.2g}'))} s"
+    for unit in (u.yr, u.day, u.h, u.min, u.s):
+        if x >= 1 * unit or unit is u.s:
+            value = float(f"{x.to_value(unit):.2g}")
+            return sign + _amount(plain_number(value), value, unit.to_string())
+    raise AssertionError("unreachable")
+
+
+def _amount(number: str, value: float, unit: str) -> str:
+    """``6 h``, ``1.5 yr``: a number with a unit of time, in the language in use."""
+    if unit == "yr":
+        return ngettext("{n} yr", "{n} yr", value).format(n=number)
+    if unit == "d":
+        return ngettext("{n} d", "{n} d", value).format(n=number)
+    return f"{number} {unit}"  # h, min, s: the SI's symbols
 
 
 def _time_marks(left: float, right: float) -> list[tuple[float, str]]:
     marks = [(0.0, "0")] if left <= 0 <= right else []
-    for q, text in _MARKS:
-        s = float((1 * q).to_value(u.s))
+    for q, mark in _MARKS:
+        s, text = float((1 * q).to_value(u.s)), _(mark)
         marks += [(s, text)] if left <= s <= right else []
         marks += [(-s, "−" + text)] if left <= -s <= right else []
     return sorted(marks)
@@ -52,8 +63,8 @@ def _time_marks(left: float, right: float) -> list[tuple[float, str]]:
 def _spaced(ax: Axes, marks: list[tuple[float, str]]) -> list[tuple[float, str]]:
     """The marks whose names do not touch, zero and the largest first, then inwards."""
     scale = 72 / ax.figure.dpi
-    at = ax.transData.transform([(v, 0.0) for v, _ in marks])[:, 0] * scale
-    half = [len(text) * 0.33 * style.FONT + 4 for _, text in marks]  # half a name, and a gap
+    at = ax.transData.transform([(v, 0.0) for v, _text in marks])[:, 0] * scale
+    half = [len(text) * 0.33 * style.FONT + 4 for _value, text in marks]  # half a name, a gap
     order = sorted(range(len(marks)), key=lambda k: (marks[k][0] != 0, -abs(marks[k][0])))
     kept: list[int] = []
     for k in order:
@@ -65,11 +76,14 @@ def _spaced(ax: Axes, marks: list[tuple[float, str]]) -> list[tuple[float, str]]
 def _window_axis(ax: Axes, left: float, right: float, merger_utc: str, log: bool) -> None:
     ax.set_xlim(left, right)
     marks = _spaced(ax, _time_marks(left, right))
-    ax.xaxis.set_major_locator(FixedLocator([v for v, _ in marks]))
-    ax.set_xticklabels([text for _, text in marks])
+    ax.xaxis.set_major_locator(FixedLocator([v for v, _text in marks]))
+    ax.set_xticklabels([text for _value, text in marks])
     ax.xaxis.set_minor_locator(NullLocator())
-    scale = "log scale" if log else "linear within ±1 s"
-    ax.set_xlabel(f"Time after the merger at\n{merger_utc} ({scale})")
+    if log:
+        label = _("Time after the merger at\n{time} (log scale)")
+    else:
+        label = _("Time after the merger at\n{time} (linear within ±1 s)")
+    ax.set_xlabel(label.format(time=merger_utc))
 
 
 def _span(starts: np.ndarray, ends: np.ndarray) -> tuple[float, float, bool]:
@@ -107,21 +121,26 @@ def window_timeline(windows: list[WindowItem], merger_utc: str) -> Drawing:
     style.row_names(ax, ys, names)
     style.finish_axes(ax, grid_axis="x")
     parts = [
-        f"{w.name} ({WINDOW_BANDS[w.band]}) from {duration_words(s)} to {duration_words(e)}"
+        _("{window} ({band}) from {start} to {end}").format(
+            window=w.name, band=WINDOW_BANDS[w.band], start=duration_words(s), end=duration_words(e)
+        )
         for w, s, e in zip(windows, starts, ends, strict=True)
     ]
-    alt = f"Counterpart windows relative to the merger at {merger_utc}: " + "; ".join(parts)
-    return Drawing(fig, alt + ". A planning aid, not a prediction.")
+    alt = _(
+        "Counterpart windows relative to the merger at {time}: {windows}. A planning aid, not a "
+        "prediction."
+    )
+    return Drawing(fig, alt.format(time=merger_utc, windows="; ".join(parts)))
 
 
 def _window_name(w: WindowItem) -> str:
     """The window's name, and its band when the name does not say it (colour is not alone)."""
-    band = WINDOW_BANDS[w.band]
-    return w.name if band.lower() in w.name.lower() else f"{w.name} ({band})"
+    name, band = str(w.name), str(WINDOW_BANDS[w.band])
+    return name if band.lower() in name.lower() else f"{name} ({band})"
 
 
 def _estimate_name(label: str, date_iso: str) -> str:
-    return f"{label} ({date_iso})" if date_iso else label
+    return f"{label} ({date_iso})" if date_iso else str(label)
 
 
 def _grouped(points: list[HistoryItem]) -> tuple[list[tuple[str, str]], dict[str, list]]:
@@ -134,16 +153,19 @@ def _grouped(points: list[HistoryItem]) -> tuple[list[tuple[str, str]], dict[str
 
 
 def _history_alt(groups: dict[str, list[HistoryItem]]) -> str:
+    then = _(", then ")  # between two estimates of one quantity, earliest first
     parts = [
         f"{name}: "
-        + ", then ".join(
+        + then.join(
             f"{_estimate_name(p.label, p.date_iso)} "
             f"{p.shown or interval_words(p.median, p.low, p.high, p.unit)}"
             for p in items
         )
         for name, items in groups.items()
     ]
-    return "History of estimates, earliest first. " + "; ".join(parts) + "."
+    return _("History of estimates, earliest first. {quantities}.").format(
+        quantities="; ".join(parts)
+    )
 
 
 @style.styled

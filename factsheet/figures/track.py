@@ -20,12 +20,15 @@ from factsheet.figures import style
 from factsheet.figures.inputs import Drawing, Track
 from factsheet.figures.ticks import log_tick_values, plain_number, set_log_ticks
 from factsheet.figures.words import value_words
+from factsheet.i18n import _
 from factsheet.labels import FIGURE_NAMES, QUANTITIES
 
 MAX_TRACK_POINTS = 600  # the track is thinned to this many points for the drawing
 RINGDOWN_TAUS = 5  # the ringdown bar spans this many damping times after the merger
 NO_TRACK_S = (1.0, 1e-3)  # the span of the before-merger axis when no inspiral is in band
 NOTE_CHARS = 28  # the note's lines, at most this long (the before-merger panel's width)
+AXIS_NAME_CHARS = 36  # beside the after-merger panel, a longer axis name takes two lines
+LINE_IN = 0.2  # inches of one more line of text
 
 
 def _thin(t: np.ndarray, f: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
@@ -36,7 +39,7 @@ def _thin(t: np.ndarray, f: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
 
 
 def _text(track: Track, key: str, value: float, unit: str) -> str:
-    return (track.texts or {}).get(key) or value_words(value, unit)
+    return str((track.texts or {}).get(key) or value_words(value, unit))
 
 
 def _marks(track: Track) -> list[tuple[str, float, str, str, bool]]:
@@ -84,7 +87,15 @@ def _mark_frequencies(axes: list[Axes], track: Track) -> None:
         )
 
 
-def _before_axis(ax: Axes, t: np.ndarray) -> None:
+def _before_name(ring: bool) -> str:
+    """The before-merger axis's name; beside the after-merger panel, on two lines when it is
+    longer than the panel is wide (in a wordier language than English)."""
+    label = style.unit_label(FIGURE_NAMES["time_before_merger"], "s")
+    label = _("{name}, log scale").format(name=label)
+    return style.two_lines(label, AXIS_NAME_CHARS) if ring else label
+
+
+def _before_axis(ax: Axes, t: np.ndarray, name: str) -> None:
     """Time to merger, log scale, decreasing to the right (towards the merger)."""
     left, right = (t.max() * 1.6, t.min() / 1.6) if len(t) else NO_TRACK_S
     ax.set_xscale("log")
@@ -98,7 +109,7 @@ def _before_axis(ax: Axes, t: np.ndarray) -> None:
     ax.xaxis.set_major_locator(FixedLocator(values))
     ax.set_xticklabels([plain_number(v) for v in values])
     ax.xaxis.set_minor_locator(NullLocator())
-    ax.set_xlabel(style.unit_label(FIGURE_NAMES["time_before_merger"], "s") + ", log scale")
+    ax.set_xlabel(name)
 
 
 def _after_axis(ax: Axes, track: Track) -> None:
@@ -110,7 +121,7 @@ def _after_axis(ax: Axes, track: Track) -> None:
     ax.tick_params(axis="y", which="both", left=False, labelleft=False)
     ax.axvline(0.0, color=style.INK, linewidth=1.0)
     ax.annotate(
-        FIGURE_NAMES["merger"],
+        str(FIGURE_NAMES["merger"]),
         (0, 1),
         xycoords="axes fraction",
         xytext=(4, -4),
@@ -125,7 +136,7 @@ def _after_axis(ax: Axes, track: Track) -> None:
             color=style.ROLE["ringdown"],
             linewidth=5,
             solid_capstyle="butt",
-            label=f"ringdown ({RINGDOWN_TAUS} τ)",
+            label=_("ringdown ({n} τ)").format(n=RINGDOWN_TAUS),
         )
 
 
@@ -136,7 +147,7 @@ def _note(ax: Axes, track: Track, lo: float, hi: float) -> None:
     ax.text(
         0.5,
         y,
-        textwrap.fill(track.note, 30),
+        textwrap.fill(str(track.note), 30),
         transform=ax.get_yaxis_transform(),
         ha="center",
         va="center",
@@ -151,19 +162,26 @@ def frequency_track(track: Track) -> Drawing:
     after it), the band edge, the ISCO and the ringdown frequency marked."""
     t, f = _thin(np.asarray(track.time_to_merger_s, float), np.asarray(track.frequency_hz, float))
     ring = track.f_ringdown_hz is not None
-    fig = style.new_figure(style.WIDTH, 3.4, (0.16, 0.97, 0.16, 0.97))
+    before_name = _before_name(ring)
+    if "\n" in before_name:  # one more line below the panels
+        height = 3.4 + LINE_IN
+        margins = (0.16, 0.97, (0.16 * 3.4 + LINE_IN) / height, 1 - 0.03 * 3.4 / height)
+    else:
+        height, margins = 3.4, (0.16, 0.97, 0.16, 0.97)
+    fig = style.new_figure(style.WIDTH, height, margins)
     grid = fig.add_gridspec(1, 2 if ring else 1, width_ratios=[3, 1] if ring else [1], wspace=0.06)
     ax = fig.add_subplot(grid[0])
     axes = [ax, fig.add_subplot(grid[1], sharey=ax)] if ring else [ax]
     ax.set_yscale("log")
     if len(t):
-        ax.plot(t, f, color=style.ROLE["track"], linewidth=2.2, label="frequency track", zorder=2)
+        track_name = _("frequency track")
+        ax.plot(t, f, color=style.ROLE["track"], linewidth=2.2, label=track_name, zorder=2)
     _mark_frequencies(axes, track)
     fs = [*([f.min(), f.max()] if len(f) else []), *(m[1] for m in _marks(track))]
     lo, hi = min(fs) / 1.5, max(fs) * 1.7
     ax.set_ylim(lo, hi)
     set_log_ticks(ax.yaxis, lo, hi)
-    _before_axis(ax, t)
+    _before_axis(ax, t, before_name)
     if ring:
         _after_axis(axes[1], track)
     if track.note:
@@ -177,19 +195,45 @@ def frequency_track(track: Track) -> Drawing:
 def _track_alt(track: Track, t: np.ndarray) -> str:
     edge = value_words(track.f_low_hz, "Hz")
     isco = _text(track, "isco_frequency", track.f_isco_hz, "Hz")
-    if len(t):
-        duration = _text(track, "time_in_band", float(t.max()), "s")
-        text = (
-            f"Gravitational-wave frequency rising from {edge} at the band edge, {duration} "
-            f"before merger, through the ISCO frequency {isco}"
-        )
-    else:
-        text = f"The inspiral ends at the ISCO frequency {isco}, below the band edge at {edge}"
+    ring = tau = ""
     if track.f_ringdown_hz is not None:
         ring = _text(track, "ringdown_frequency", track.f_ringdown_hz, "Hz")
-        text += f", to the ringdown frequency {ring}"
         if track.tau_ringdown_s:
             tau = _text(track, "ringdown_damping_time", track.tau_ringdown_s * 1e3, "ms")
-            text += f" with damping time {tau}"
-    text += "."
+    if len(t):
+        duration = _text(track, "time_in_band", float(t.max()), "s")
+        if tau:
+            text = _(
+                "Gravitational-wave frequency rising from {edge} at the band edge, {duration} "
+                "before merger, through the ISCO frequency {isco}, to the ringdown frequency "
+                "{ringdown} with damping time {damping}."
+            )
+        elif ring:
+            text = _(
+                "Gravitational-wave frequency rising from {edge} at the band edge, {duration} "
+                "before merger, through the ISCO frequency {isco}, to the ringdown frequency "
+                "{ringdown}."
+            )
+        else:
+            text = _(
+                "Gravitational-wave frequency rising from {edge} at the band edge, {duration} "
+                "before merger, through the ISCO frequency {isco}."
+            )
+    else:
+        duration = ""
+        if tau:
+            text = _(
+                "The inspiral ends at the ISCO frequency {isco}, below the band edge at {edge}, "
+                "to the ringdown frequency {ringdown} with damping time {damping}."
+            )
+        elif ring:
+            text = _(
+                "The inspiral ends at the ISCO frequency {isco}, below the band edge at {edge}, "
+                "to the ringdown frequency {ringdown}."
+            )
+        else:
+            text = _(
+                "The inspiral ends at the ISCO frequency {isco}, below the band edge at {edge}."
+            )
+    text = text.format(edge=edge, duration=duration, isco=isco, ringdown=ring, damping=tau)
     return f"{text} {track.note}" if track.note else text

@@ -16,6 +16,9 @@ import numpy as np
 
 from factsheet import figures as fg
 from factsheet import labels
+from factsheet.figures.catalogue import status_word
+from factsheet.figures.ticks import digits
+from factsheet.i18n import N_, _, pgettext
 from factsheet.model import Derived, SiteFigure
 from factsheet.notation import format_median, format_value
 from factsheet.physics import inspiral
@@ -78,16 +81,19 @@ def event_figures(item: Derived) -> list[SiteFigure]:
         _save(
             f"{base}-masses.svg",
             lambda: fg.component_intervals([_item(item, k) for k in masses]),
-            "Masses (source frame) with credible intervals.",
+            _("Masses (source frame) with credible intervals."),
         )
     )
     note = in_band_note(item)
+    caption = _(
+        "Frequency of the waves as they swept through the detectors' band "
+        "(leading-order inspiral; observed frequencies)."
+    )
     out.append(
         _save(
             f"{base}-track.svg",
-            lambda: fg.frequency_track(_track(item, IN_BAND_FIGURE_NOTE if note else "")),
-            "Frequency of the waves as they swept through the detectors' band "
-            "(leading-order inspiral; observed frequencies)." + (f" {note}" if note else ""),
+            lambda: fg.frequency_track(_track(item, _(IN_BAND_FIGURE_NOTE) if note else "")),
+            f"{caption} {note}" if note else caption,
         )
     )
     if "energy_radiated" in q:
@@ -110,7 +116,7 @@ def event_figures(item: Derived) -> list[SiteFigure]:
                 lambda: fg.window_timeline(
                     windows, item.event.time.utc.isot[:19].replace("T", " ") + " UTC"
                 ),
-                "Counterpart windows after the merger (a planning aid).",
+                _("Counterpart windows after the merger (a planning aid)."),
             )
         )
     if item.sky_map is not None and item.sky_map.levels.size:
@@ -120,7 +126,7 @@ def event_figures(item: Derived) -> list[SiteFigure]:
             _save(
                 f"{base}-history.svg",
                 lambda: fg.history(_history_points(item)),
-                "How the estimate changed from one analysis to the next.",
+                _("How the estimate changed from one analysis to the next."),
             )
         )
     out.append(share_image(item))
@@ -133,7 +139,7 @@ def sky_figures(item: Derived, base: str) -> list[SiteFigure]:
     found, level = item.sky_map, item.credible_level
     assert found is not None
     areas = [
-        format_value(a.to_value(u.deg**2), "", 2) + " deg²" for a in (found.area_50, found.area_90)
+        f"{format_value(a.to_value(u.deg**2), '', 2)} deg²" for a in (found.area_50, found.area_90)
     ]
     marks = [
         fg.SkyMark(
@@ -148,12 +154,7 @@ def sky_figures(item: Derived, base: str) -> list[SiteFigure]:
         labels.SKY_PEAK, float(found.peak_ra.to_value(u.deg)), float(found.peak_dec.to_value(u.deg))
     )
     texts = fg.SkyTexts(labels.SKY_REGIONS[0.5], labels.SKY_REGIONS[0.9], labels.SKY_FIGURE_LEAD)
-    caption = "Where the source lies: the sky map's 50 % and 90 % credible regions (equatorial "
-    caption += "coordinates, right ascension increasing to the left)"
-    caption += ", with the counterpart candidates" if marks else ""
-    if fg.close_up_box(found.levels) is not None:
-        caption += "; below, a close-up of the small region (the square outlined on the sky)"
-    caption += "."
+    caption = sky_caption(bool(marks), fg.close_up_box(found.levels) is not None)
     return [
         _save(
             f"{base}-sky.svg",
@@ -163,9 +164,35 @@ def sky_figures(item: Derived, base: str) -> list[SiteFigure]:
         _save(
             f"{base}-sky-small.svg",
             lambda: fg.sky_thumbnail(found.levels, marks),
-            "The sky map's credible regions, small.",
+            _("The sky map's credible regions, small."),
         ),
     ]
+
+
+def sky_caption(candidates: bool, close_up: bool) -> str:
+    """The sky figure's caption: with or without candidates, with or without a close-up."""
+    if candidates and close_up:
+        return _(
+            "Where the source lies: the sky map's 50 % and 90 % credible regions (equatorial "
+            "coordinates, right ascension increasing to the left), with the counterpart "
+            "candidates; below, a close-up of the small region (the square outlined on the sky)."
+        )
+    if candidates:
+        return _(
+            "Where the source lies: the sky map's 50 % and 90 % credible regions (equatorial "
+            "coordinates, right ascension increasing to the left), with the counterpart "
+            "candidates."
+        )
+    if close_up:
+        return _(
+            "Where the source lies: the sky map's 50 % and 90 % credible regions (equatorial "
+            "coordinates, right ascension increasing to the left); below, a close-up of the "
+            "small region (the square outlined on the sky)."
+        )
+    return _(
+        "Where the source lies: the sky map's 50 % and 90 % credible regions (equatorial "
+        "coordinates, right ascension increasing to the left)."
+    )
 
 
 def lensing_figure(item: Derived, base: str) -> SiteFigure:
@@ -181,7 +208,7 @@ def lensing_figure(item: Derived, base: str) -> SiteFigure:
                  median_text(item, k))
         for k, role in roles.items() if k in q
     )  # fmt: skip
-    columns = [LensColumn("none", unlensed)]
+    columns = [LensColumn(pgettext("magnification", "none"), unlensed)]
     for case in item.lensing.cases:
         found = {k: getattr(case, k) for k in roles}
         lensed = tuple(
@@ -189,20 +216,22 @@ def lensing_figure(item: Derived, base: str) -> SiteFigure:
                      format_median(s.median, s.low, s.high, s.unit))
             for k, s in found.items() if s is not None
         )  # fmt: skip
-        columns.append(LensColumn(f"{case.magnification:g}×", lensed))
+        columns.append(LensColumn(digits(f"{case.magnification:g}") + "×", lensed))
     edges = item.reference.mass_bands
     low, high = (e.value.to_value(u.Msun) for e in (edges.pair_instability_lower,
                                                      edges.pair_instability_upper))  # fmt: skip
     return _save(
         f"{base}-lensing.svg",
         lambda: lensed_masses(columns, (low, high), labels.BANDS["pair_instability_gap"]),
-        "Masses (source frame) if a lens had magnified the signal, against the "
-        "pair-instability gap; “none” is the sheet's own estimate.",
+        _(
+            "Masses (source frame) if a lens had magnified the signal, against the "
+            "pair-instability gap; “none” is the sheet's own estimate."
+        ),
     )
 
 
-#: The word across the top of a sharing image, by status (a confirmed event shows none).
-SHARE_STATUS = {"candidate": "candidate", "retracted": "retracted"}
+#: The statuses a sharing image names across its top (a confirmed event shows none).
+SHARE_STATUS = ("candidate", "retracted")
 
 
 def share_image(item: Derived) -> SiteFigure:
@@ -215,18 +244,29 @@ def share_image(item: Derived) -> SiteFigure:
         fg.ShareBody(labels.QUANTITIES[k].short, median_text(item, k), q[k].median, roles[k])
         for k in keys
     )
-    status = SHARE_STATUS.get(event.status)
+    status = status_word(event.status) if event.status in SHARE_STATUS else None
     subtitle = f"{event.id} · {event.time.utc.isot[:10]} · {item.source_class}"
-    card = fg.ShareCard(event.title, subtitle, status, bodies, item.settings.title)
+    tone = event.status if status else ""
+    card = fg.ShareCard(event.title, subtitle, status, bodies, item.settings.title, tone)
     png = fg.share_png(card)
     masses = ", ".join(f"{b.label} {b.text}" for b in bodies)
-    alt = f"{status.capitalize() + ': ' if status else ''}{event.title} ({subtitle}); {masses}."
+    if status:
+        alt = _("{status}: {title} ({subtitle}); {masses}.")
+    else:
+        alt = _("{title} ({subtitle}); {masses}.")
+    alt = alt.format(
+        status=status.capitalize() if status else "",
+        title=event.title,
+        subtitle=subtitle,
+        masses=masses,
+    )
     return SiteFigure(f"events/{event.id}-share.png", png, alt, "", time.perf_counter() - start)
 
 
 #: What the frequency track says in its panel when the inspiral ends below the band edge (its
-#: marks show the two frequencies; the caption gives the full sentence of :func:`in_band_note`).
-IN_BAND_FIGURE_NOTE = (
+#: marks show the two frequencies; the caption gives the full sentence of :func:`in_band_note`);
+#: translated where it is drawn.
+IN_BAND_FIGURE_NOTE = N_(
     "The inspiral ends below the band edge: only the merger and ringdown are in band."
 )
 TRACK_TEXTS = ("isco_frequency", "ringdown_frequency", "ringdown_damping_time", "time_in_band")
@@ -288,14 +328,18 @@ def _comparisons(item: Derived, base: str) -> list[SiteFigure]:
         _save(
             f"{base}-energy.svg",
             lambda: fg.comparison_points(energy.name, e_unit, e_rows, level),
-            f"{energy.name} as gravitational waves, with its credible interval, against familiar "
-            "sources (log scale: equal steps are equal ratios).",
+            _(
+                "{name} as gravitational waves, with its credible interval, against familiar "
+                "sources (log scale: equal steps are equal ratios)."
+            ).format(name=energy.name),
         ),
         _save(
             f"{base}-luminosity.svg",
             lambda: fg.comparison_points(peak.name, l_unit, l_rows, level),
-            f"{peak.name} in gravitational waves, with its credible interval, against familiar "
-            "sources (log scale: equal steps are equal ratios).",
+            _(
+                "{name} in gravitational waves, with its credible interval, against familiar "
+                "sources (log scale: equal steps are equal ratios)."
+            ).format(name=peak.name),
         ),
     ]
 
@@ -349,13 +393,17 @@ def index_figures(derived: list[Derived], edges: dict[str, float]) -> list[SiteF
         _save(
             "figures/mass-plane.svg",
             lambda: fg.mass_plane(plane, edges),
-            "Component masses of every event, with the mass bands shaded; events are named "
-            "where there is room, and the table lists them all.",
+            _(
+                "Component masses of every event, with the mass bands shaded; events are named "
+                "where there is room, and the table lists them all."
+            ),
         ),
         _save(
             "figures/distance-mass.svg",
             lambda: fg.distance_mass(dist),
-            f"{labels.QUANTITIES['distance'].name} against total mass (source frame); events "
-            "are named where there is room, and the table lists them all.",
+            _(
+                "{distance} against total mass (source frame); events are named where there is "
+                "room, and the table lists them all."
+            ).format(distance=labels.QUANTITIES["distance"].name),
         ),
     ]

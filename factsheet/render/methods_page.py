@@ -5,7 +5,8 @@ The page is for the public, so its texts are decided here: formulas set in Unico
 superscripts and subscripts (the registry marks them ``^{...}`` and ``_{...}``), arXiv ids as
 links to their abstracts, rest-frame delays in the units people use ("60 days to 1 year"), and
 sources only: how a value was obtained (the ``provenance`` notes of the registry and the data
-files) stays with the maintainers.
+files) stays with the maintainers. The words are in the language in use (the context is built
+inside ``factsheet.i18n.use_language``); formulas and references stay as they are written.
 """
 
 from __future__ import annotations
@@ -16,6 +17,7 @@ from dataclasses import dataclass
 from markupsafe import Markup, escape
 
 from factsheet import labels
+from factsheet.i18n import _, decimal_text, ngettext
 from factsheet.model import Derived, Reference, WindowSpec
 from factsheet.notation import format_value
 from factsheet.physics.registry import METHODS, Method
@@ -145,25 +147,43 @@ def scripts(text: str) -> Markup:
     return Markup(_SCRIPT.sub(tag, str(escape(text))))
 
 
-#: Units of a delay in words, largest first: (seconds, singular, plural); a year from 360 days.
+#: Units of a delay, largest first: (seconds, name, from how many seconds it is used); a year
+#: from 360 days.
 _UNITS = (
-    (365.25 * 86400, "year", "years", 360 * 86400),
-    (86400, "day", "days", 86400),
-    (3600, "hour", "hours", 3600),
-    (60, "minute", "minutes", 100),
-    (1, "second", "seconds", 0),
+    (365.25 * 86400, "year", 360 * 86400),
+    (86400, "day", 86400),
+    (3600, "hour", 3600),
+    (60, "minute", 100),
+    (1, "second", 0),
 )
 
 
-def delay_words(seconds: float) -> tuple[str, str]:
-    """A delay's size to two significant figures and its unit in words: ("60", "days")."""
+def delay_words(seconds: float) -> tuple[float, str]:
+    """A delay's size to two significant figures and its unit: (60.0, "day")."""
     x = abs(seconds)
-    for size, one, many, from_ in _UNITS:
+    for size, unit, from_ in _UNITS:
         if x >= from_:
-            value = float(f"{x / size:.2g}")
-            number = f"{value:g}"
-            return number, one if value == 1 else many
-    return "0", "seconds"
+            return float(f"{x / size:.2g}"), unit
+    return 0.0, "second"
+
+
+def _number(value: float) -> str:
+    """A delay's size as written in the language in use: ``8.3`` / ``8,3``."""
+    return decimal_text(value, len(f"{value:g}".partition(".")[2]))
+
+
+def _amount(value: float, unit: str) -> str:
+    """``60 days``, ``1 year``: a delay's size with its unit in words."""
+    n = _number(value)
+    if unit == "year":
+        return ngettext("{n} year", "{n} years", value).format(n=n)
+    if unit == "day":
+        return ngettext("{n} day", "{n} days", value).format(n=n)
+    if unit == "hour":
+        return ngettext("{n} hour", "{n} hours", value).format(n=n)
+    if unit == "minute":
+        return ngettext("{n} minute", "{n} minutes", value).format(n=n)
+    return ngettext("{n} second", "{n} seconds", value).format(n=n)
 
 
 def delay_range(spec: WindowSpec) -> str:
@@ -171,9 +191,12 @@ def delay_range(spec: WindowSpec) -> str:
     10 seconds after"."""
     start, end = (float(q.to_value("s")) for q in (spec.start, spec.end))
     (n0, u0), (n1, u1) = delay_words(start), delay_words(end)
+    first, last = _amount(n0, u0), _amount(n1, u1)
     if start < 0:
-        after = " after" if end > 0 else " before"
-        return f"{n0} {u0} before to {n1} {u1}{after}"
-    if u0.rstrip("s") == u1.rstrip("s"):  # one unit: "3 to 14 days", "1 to 3 years"
-        return f"{n0} to {n1} {u1}"
-    return f"{n0} {u0} to {n1} {u1}"
+        if end > 0:
+            return _("{first} before to {last} after").format(first=first, last=last)
+        return _("{first} before to {last} before").format(first=first, last=last)
+    if u0 == u1:  # one unit: "3 to 14 days", "1 to 3 years"
+        first = _number(n0)
+    # TRANSLATORS: a range of delays, "6 hours to 3 days" or, in one unit, "3 to 14 days".
+    return _("{first} to {last}").format(first=first, last=last)
