@@ -451,6 +451,11 @@ class Summary:
 class Caveat:
     """One caveat: a stable code, a level (info, notice, warning) and plain text.
 
+    The text of a caveat derive makes is a kept message (:class:`factsheet.i18n.Text`): its
+    ``str`` value is the English wording, which comparisons and the exports see, while
+    ``str()``, formatting and HTML escaping give it in the language in use. An editorial
+    caveat's text is the editors' own (:class:`factsheet.i18n.Editorial`).
+
     ``concerns`` names the quantities (keys of :attr:`Derived.quantities`) whose rows the
     caveat bears on, so a sheet can mark those rows; a caveat about the whole sheet has none.
     """

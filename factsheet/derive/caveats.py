@@ -2,6 +2,12 @@
 
 Each rule is a small function of the event and what derive found; it returns a
 :class:`Caveat` or None. :func:`input_caveats` runs the rules that depend only on the input.
+
+Derive runs once for every language, so a caveat's text is a kept message
+(:class:`~factsheet.i18n.Text`): its ``str`` value is the English wording the exports carry,
+and each page shows it in its reader's language. Numbers go in as :class:`~factsheet.i18n.Later`
+values (written in the reader's digits when shown), lists as :func:`listed` (joined with the
+reader's words), and every variant of a sentence is a whole message of its own.
 """
 
 from __future__ import annotations
@@ -18,34 +24,114 @@ from factsheet.derive.sampling import (
     used_paths,
     value_range,
 )
+from factsheet.i18n import (
+    SOURCE,
+    Later,
+    Plural,
+    Text,
+    current,
+    localize_number,
+    pgettext,
+)
 from factsheet.model import Caveat, Event, Summary
 from factsheet.notation import format_given_median, format_median, how_often
+
+# --- words shown later: numbers and lists in the reader's language ------------------------------
+
+
+def general(value: float, spec: str = "g") -> str:
+    """``value`` as ``format(value, spec)`` writes it (``g``, ``.3g``): exactly so in English,
+    with the language's decimal sign and minus sign in another language."""
+    text = format(value, spec)
+    if current() == SOURCE:
+        return text
+    mantissa, e, power = text.partition("e")
+    return localize_number(mantissa) + e + power
+
+
+def share(fraction: float) -> str:
+    """A fraction as a whole percentage, rounded as ``format(fraction, ".0%")`` rounds it."""
+    digits = format(fraction, ".0%").removesuffix("%")
+    return pgettext("whole percentage", "{number}%").format(number=localize_number(digits))
+
+
+def _patterns(how: str) -> tuple[str, str]:
+    """The patterns that add an item to a list: one for the middle items, one for the last."""
+    if how == "and":
+        return pgettext("list", "{head}, {item}"), pgettext(
+            "list ending with and", "{head} and {item}"
+        )
+    if how == "nor":  # what something lacks: "does not give a, b or c"
+        return pgettext("list", "{head}, {item}"), pgettext(
+            "list of what is missing, ending with or", "{head} or {item}"
+        )
+    if how == "clauses":
+        return pgettext("list of clauses", "{head}; {item}"), pgettext(
+            "list of clauses ending with and", "{head}; and {item}"
+        )
+    if how == "numbers":
+        return pgettext("list of numbers", "{head}, {item}"), pgettext(
+            "list of numbers, last item", "{head}, {item}"
+        )
+    return pgettext("list", "{head}, {item}"), pgettext("list, last item", "{head}, {item}")
+
+
+def listed(items: tuple, how: str = "plain") -> str:
+    """Items (texts, numbers to show later) joined in the language in use: ``how`` is ``and``,
+    ``nor`` (what something lacks; "or" in English), ``clauses`` (joined by semicolons),
+    ``numbers`` or ``plain`` (commas only, in English)."""
+    shown = [str(item) for item in items]
+    if len(shown) < 2:
+        return "".join(shown)
+    middle, last = _patterns(how)
+    head = shown[0]
+    for item in shown[1:-1]:
+        head = middle.format(head=head, item=item)
+    return last.format(head=head, item=shown[-1])
+
+
+def sentence_start(value: object) -> str:
+    """``value`` as shown, with its first letter upper-case, to start a sentence."""
+    text = str(value)
+    return text[:1].upper() + text[1:]
+
+
+# --- the rules ------------------------------------------------------------------------------------
 
 
 def status_caveat(event: Event, far_threshold: u.Quantity | None = None) -> Caveat | None:
     """A candidate or a retraction; a candidate's caveat also says how often noise alone makes
     such a signal when its false-alarm rate is above ``far_threshold`` (one box, not two)."""
     if event.status == "candidate":
-        text = (
-            "This is a candidate: it has not been confirmed as an astrophysical signal "
-            "and may be withdrawn."
-        )
         far = event.detection.false_alarm_rate
         if far is not None and far_threshold is not None and far > far_threshold:
-            text += f" {_noise_alone(far)}, so treat it as marginal."
+            text = Text(
+                "This is a candidate: it has not been confirmed as an astrophysical signal and "
+                "may be withdrawn. Noise alone would make a signal like this {how_often}, so "
+                "treat it as marginal.",
+                how_often=_how_often(far),
+            )
+        else:
+            text = Text(
+                "This is a candidate: it has not been confirmed as an astrophysical signal "
+                "and may be withdrawn."
+            )
         return Caveat("candidate", "warning", text)
     if event.status == "retracted":
         return Caveat(
             "retracted",
             "warning",
-            "This candidate was retracted: it is not considered "
-            "an astrophysical signal. The numbers are kept for the record only.",
+            Text(
+                "This candidate was retracted: it is not considered "
+                "an astrophysical signal. The numbers are kept for the record only."
+            ),
         )
     return None
 
 
-def _noise_alone(far: u.Quantity) -> str:
-    return f"Noise alone would make a signal like this {how_often(far.to_value(1 / u.yr))}"
+def _how_often(far: u.Quantity) -> Later:
+    """How often noise alone makes such a signal, in words of the reader's language."""
+    return Later(how_often, float(far.to_value(1 / u.yr)))
 
 
 def sampling_caveat(event: Event) -> Caveat | None:
@@ -55,17 +141,21 @@ def sampling_caveat(event: Event) -> Caveat | None:
         return Caveat(
             "independent-sampling",
             "notice",
-            "The two masses were drawn through the chirp mass, which keeps its measured "
-            "interval, and the mass ratio; otherwise each parameter was sampled independently "
-            "from its summary interval, so other correlations (for example between the mass "
-            "ratio and the spins) are lost; derived intervals are approximate.",
+            Text(
+                "The two masses were drawn through the chirp mass, which keeps its measured "
+                "interval, and the mass ratio; otherwise each parameter was sampled independently "
+                "from its summary interval, so other correlations (for example between the mass "
+                "ratio and the spins) are lost; derived intervals are approximate."
+            ),
         )
     return Caveat(
         "independent-sampling",
         "notice",
-        "Each parameter was sampled independently from "
-        "its summary interval, so correlations between parameters (for example between "
-        "the two masses) are lost; derived intervals are approximate.",
+        Text(
+            "Each parameter was sampled independently from "
+            "its summary interval, so correlations between parameters (for example between "
+            "the two masses) are lost; derived intervals are approximate."
+        ),
     )
 
 
@@ -79,10 +169,12 @@ def mass_ratio_caveat(event: Event) -> Caveat | None:
         return Caveat(
             "mass-ratio-from-masses",
             "notice",
-            "No mass ratio was given: each draw takes the ratio of the two masses drawn "
-            "independently from their intervals and keeps the chirp mass drawn from its own, "
-            "so the masses behind the derived numbers may spread less or more than those "
-            "given (the table shows the masses as given).",
+            Text(
+                "No mass ratio was given: each draw takes the ratio of the two masses drawn "
+                "independently from their intervals and keeps the chirp mass drawn from its own, "
+                "so the masses behind the derived numbers may spread less or more than those "
+                "given (the table shows the masses as given)."
+            ),
             concerns=concerns,
         )
     if source == masses.ASSUMED:
@@ -90,10 +182,14 @@ def mass_ratio_caveat(event: Event) -> Caveat | None:
         return Caveat(
             "mass-ratio-assumed",
             "warning",
-            f"Only the chirp mass was given: the mass ratio was assumed to lie anywhere "
-            f"between {low:g} and {high:g} with equal probability (an assumption, not a "
-            "measurement), so the two masses and every number that depends on them rest on "
-            "that assumption.",
+            Text(
+                "Only the chirp mass was given: the mass ratio was assumed to lie anywhere "
+                "between {low} and {high} with equal probability (an assumption, not a "
+                "measurement), so the two masses and every number that depends on them rest on "
+                "that assumption.",
+                low=Later(general, low),
+                high=Later(general, high),
+            ),
             concerns=concerns,
         )
     return None
@@ -110,18 +206,29 @@ def limit_caveat(event: Event, level: float, ranges: Ranges | None = None) -> Ca
         low, high = drawn_bounds(value, level, limits)
         for drawn, given in ((low, value.low), (high, value.high)):
             if drawn != given:
-                name = labels.QUANTITIES[path.replace(".", "_")].in_prose
-                moved.append(f"{drawn:.3g} for {name} instead of {given:.3g}")
+                moved.append(
+                    Text(
+                        "{drawn} for {name} instead of {given}",
+                        drawn=Later(general, float(drawn), ".3g"),
+                        name=labels.QUANTITIES[path.replace(".", "_")].in_prose,
+                        given=Later(general, float(given), ".3g"),
+                    )
+                )
     if not moved:
         return None
-    return Caveat(
-        "bound-at-limit",
-        "info",
+    # TRANSLATORS: {bounds} lists one or more items "0.98 for the mass ratio instead of 1";
+    # English says "bound is" either way, other languages may choose by {n}.
+    text = Plural(
         "An interval given up to a physical limit cannot be drawn without piling samples onto "
         "the limit, so the draws behind the derived numbers stop short of it: their credible "
-        f"bound is {_listed(moved).replace(' or ', ' and ')}. The table shows the values as "
-        "given.",
+        "bound is {bounds}. The table shows the values as given.",
+        "An interval given up to a physical limit cannot be drawn without piling samples onto "
+        "the limit, so the draws behind the derived numbers stop short of it: their credible "
+        "bound is {bounds}. The table shows the values as given.",
+        len(moved),
+        bounds=Later(listed, tuple(moved), "and"),
     )
+    return Caveat("bound-at-limit", "info", text)
 
 
 def drawn_paths(event: Event) -> list[str]:
@@ -137,22 +244,23 @@ def drawn_paths(event: Event) -> list[str]:
 
 def _partly_drawn_caveat(event: Event) -> Caveat | None:
     """With a samples file: the values drawn from the summary because the file lacks them."""
-    drawn = [
+    drawn = tuple(
         labels.QUANTITIES[path.replace(".", "_")].in_prose for path in drawn_from_summary(event)
-    ]
+    )
     if not drawn:
         return None
-    these, their = ("this value was", "its") if len(drawn) == 1 else ("these values were", "their")
     return Caveat(
         "partly-independent-sampling",
         "notice",
-        f"The samples file does not give {_listed(drawn)}: {these} drawn independently from "
-        f"the summary, so {their} correlations with the other parameters are lost.",
+        Plural(
+            "The samples file does not give {names}: this value was drawn independently from "
+            "the summary, so its correlations with the other parameters are lost.",
+            "The samples file does not give {names}: these values were drawn independently from "
+            "the summary, so their correlations with the other parameters are lost.",
+            len(drawn),
+            names=Later(listed, drawn, "nor"),
+        ),
     )
-
-
-def _listed(words: list[str]) -> str:
-    return words[0] if len(words) == 1 else ", ".join(words[:-1]) + " or " + words[-1]
 
 
 def spin_caveat(event: Event) -> Caveat | None:
@@ -161,30 +269,37 @@ def spin_caveat(event: Event) -> Caveat | None:
     if bodies:
         if len(bodies) == 2:
             return None
-        missing = "lighter" if bodies == ["heavier"] else "heavier"
-        return Caveat(
-            "spin-assumed-zero",
-            "notice",
-            f"The {missing} body's spin was not given: it was taken as zero for the remnant fits.",
-        )
+        if bodies == ["heavier"]:
+            text = Text(
+                "The lighter body's spin was not given: it was taken as zero for the remnant fits."
+            )
+        else:
+            text = Text(
+                "The heavier body's spin was not given: it was taken as zero for the remnant fits."
+            )
+        return Caveat("spin-assumed-zero", "notice", text)
     if "effective_spin" in given:
         return Caveat(
             "spins-from-effective-spin",
             "notice",
-            "Only the effective spin was given: "
-            "both aligned spin components were set equal to it for the remnant fits.",
+            Text(
+                "Only the effective spin was given: "
+                "both aligned spin components were set equal to it for the remnant fits."
+            ),
         )
     if "precession_spin" in given:
         return Caveat(
             "aligned-spins-assumed-zero",
             "notice",
-            "Only the effective precession spin was given: the spins along the orbit were "
-            "taken as zero for the remnant fits.",
+            Text(
+                "Only the effective precession spin was given: the spins along the orbit were "
+                "taken as zero for the remnant fits."
+            ),
         )
     return Caveat(
         "spins-assumed-zero",
         "notice",
-        "No spins were given: both bodies were taken as non-spinning for the remnant fits.",
+        Text("No spins were given: both bodies were taken as non-spinning for the remnant fits."),
     )
 
 
@@ -194,8 +309,11 @@ def redshift_caveat(event: Event, cosmology: str) -> Caveat | None:
     return Caveat(
         "redshift-from-cosmology",
         "info",
-        f"The redshift, and from it the source-frame "
-        f"masses, follow from the luminosity distance under the {cosmology} cosmology.",
+        Text(
+            "The redshift, and from it the source-frame masses, follow from the luminosity "
+            "distance under the {cosmology} cosmology.",
+            cosmology=cosmology,
+        ),
     )
 
 
@@ -237,7 +355,11 @@ def significance_caveats(
             Caveat(
                 "low-significance",
                 "warning",
-                f"{_noise_alone(far)}, so treat it as marginal.",
+                Text(
+                    "Noise alone would make a signal like this {how_often}, so treat it as "
+                    "marginal.",
+                    how_often=_how_often(far),
+                ),
             )
         )
     if sky is not None and sky > sky_threshold:
@@ -245,9 +367,11 @@ def significance_caveats(
             Caveat(
                 "large-sky-area",
                 "notice",
-                f"The source is localised only to "
-                f"{sky.to_value(u.deg**2):.0f} square degrees, a large "
-                "area to search for a counterpart.",
+                Text(
+                    "The source is localised only to {area} square degrees, a large area to "
+                    "search for a counterpart.",
+                    area=Later(general, float(sky.to_value(u.deg**2)), ".0f"),
+                ),
             )
         )
     return notes
@@ -274,14 +398,24 @@ def relabel_caveat(given: dict[str, Summary], drawn: dict[str, np.ndarray]) -> C
                 format_given_median(g.median, g.low, g.high),
             )
             if shown != was:  # a shift the table's precision hides is not worth a caveat
-                moved.append(f"{labels.QUANTITIES[key].short} {shown} instead of {was}")
+                moved.append(
+                    Text(
+                        "{label} {median} instead of {given}",
+                        label=labels.QUANTITIES[key].short,
+                        median=Later(format_median, median, g.low, g.high),
+                        given=Later(format_given_median, g.median, g.low, g.high),
+                    )
+                )
     if not moved:
         return None
     return Caveat(
         "relabelled-draws",
         "info",
-        "The two masses' intervals overlap, so in some draws the lighter body came out heavier "
-        "and the two were swapped; the derived numbers rest on these draws, whose medians are "
-        f"{_listed(moved).replace(' or ', ' and ')} (the table shows the masses as given).",
+        Text(
+            "The two masses' intervals overlap, so in some draws the lighter body came out "
+            "heavier and the two were swapped; the derived numbers rest on these draws, whose "
+            "medians are {medians} (the table shows the masses as given).",
+            medians=Later(listed, tuple(moved), "and"),
+        ),
         concerns=(),
     )

@@ -8,11 +8,24 @@ from dataclasses import dataclass
 import astropy.units as u
 
 from factsheet import labels
+from factsheet.derive.caveats import general, listed, sentence_start, share
+from factsheet.i18n import Later, Plural, Text
 from factsheet.model import Caveat, Reference
 from factsheet.physics import bands, disruption
 
 #: The mass of each band subject, among the samples.
 SUBJECT_MASSES = {"heavier": "heavier_mass", "lighter": "lighter_mass", "remnant": "remnant_mass"}
+
+#: Each mass-band edge (the fields of the reference data's mass bands) inside a sentence, with
+#: its article: "the" and its label in :data:`factsheet.labels.EDGES`, as one message, so that
+#: another language can give the article the edge's gender.
+EDGES_IN_SENTENCE = {
+    "neutron_star_max": Text("the maximum neutron-star mass"),
+    "lower_gap_top": Text("the top of the lower mass gap"),
+    "pair_instability_lower": Text("the lower edge of the pair-instability gap"),
+    "pair_instability_upper": Text("the upper edge of the pair-instability gap"),
+    "intermediate_mass_min": Text("the lower bound of intermediate-mass black holes"),
+}
 
 
 @dataclass(frozen=True)
@@ -62,19 +75,27 @@ def _straddle_notes(straddled: list[tuple[str, str]], edges: dict[str, u.Quantit
     """One caveat for every band edge a mass straddles, naming each mass and its edge."""
     if not straddled:
         return []
-    parts = [
-        f"{labels.QUANTITIES[key].in_prose} straddles the {labels.EDGES[edge]} "
-        f"({edges[edge].to_value(u.Msun):g} M⊙)"
+    parts = tuple(
+        Text(
+            "{mass} straddles {edge} ({value} M⊙)",
+            mass=labels.QUANTITIES[key].in_prose,
+            edge=EDGES_IN_SENTENCE[edge],
+            value=Later(general, float(edges[edge].to_value(u.Msun))),
+        )
         for key, edge in straddled
-    ]
-    listed = parts[0] if len(parts) == 1 else "; ".join(parts[:-1]) + "; and " + parts[-1]
-    these = "that edge is" if len(parts) == 1 else "these edges are"
+    )
     return [
         Caveat(
             "band-straddles-edge",
             "notice",
-            f"{labels.sentence(listed)}: {these} uncertain in the literature, so the band "
-            "labels are soft.",
+            Plural(
+                "{straddles}: that edge is uncertain in the literature, so the band labels are "
+                "soft.",
+                "{straddles}: these edges are uncertain in the literature, so the band labels "
+                "are soft.",
+                len(parts),
+                straddles=Later(sentence_start, Later(listed, parts, "clauses")),
+            ),
             concerns=tuple(dict.fromkeys(key for key, _ in straddled)),
         )
     ]
@@ -86,29 +107,36 @@ def remnant_allowed(c: Classification) -> tuple[bool, Caveat | None]:
         return False, Caveat(
             "neutron-star-remnant",
             "notice",
-            "Both bodies are most likely "
-            "neutron stars: the black-hole fits for the remnant, radiated "
-            "energy, peak luminosity, kick and ringdown do not apply, so those "
-            "numbers are not given.",
+            Text(
+                "Both bodies are most likely neutron stars: the black-hole fits for the remnant, "
+                "radiated energy, peak luminosity, kick and ringdown do not apply, so those "
+                "numbers are not given."
+            ),
         )
     if c.source_class == "NSBH" and c.disrupted:
         return False, Caveat(
             "neutron-star-disrupted",
             "notice",
-            "The neutron star is likely "
-            f"torn apart before it plunges (probability "
-            f"{c.disruption_probability:.0%} by the Foucart, Hinderer & Nissanke "
-            f"2018 fit, neutron-star radius {c.ns_radius.to_value(u.km):g} km assumed): "
-            "black-hole remnant fits do not "
-            "apply, so remnant numbers are not given.",
+            Text(
+                "The neutron star is likely torn apart before it plunges (probability "
+                "{probability} by the Foucart, Hinderer & Nissanke 2018 fit, neutron-star radius "
+                "{radius} km assumed): black-hole remnant fits do not apply, so remnant numbers "
+                "are not given.",
+                probability=Later(share, c.disruption_probability),
+                radius=Later(general, float(c.ns_radius.to_value(u.km))),
+            ),
         )
     if c.source_class == "NSBH":
         return True, Caveat(
             "neutron-star-plunges",
             "info",
-            "The neutron star most likely plunges whole into the black hole (probability of "
-            f"disruption {c.disruption_probability:.0%} by the Foucart, Hinderer & Nissanke 2018 "
-            f"fit, neutron-star radius {c.ns_radius.to_value(u.km):g} km assumed), so the "
-            "black-hole remnant fits are a fair approximation (tidal effects neglected).",
+            Text(
+                "The neutron star most likely plunges whole into the black hole (probability of "
+                "disruption {probability} by the Foucart, Hinderer & Nissanke 2018 fit, "
+                "neutron-star radius {radius} km assumed), so the black-hole remnant fits are a "
+                "fair approximation (tidal effects neglected).",
+                probability=Later(share, c.disruption_probability),
+                radius=Later(general, float(c.ns_radius.to_value(u.km))),
+            ),
         )
     return True, None

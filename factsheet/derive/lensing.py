@@ -15,7 +15,9 @@ from collections.abc import Mapping
 
 import astropy.units as u
 
+from factsheet.derive.caveats import general, listed
 from factsheet.derive.summaries import summarise
+from factsheet.i18n import Later, Plural, Text
 from factsheet.model import SOURCE, Caveat, Event, LensedCase, Lensing, Reference, Settings
 from factsheet.physics import bands, lensing
 
@@ -104,26 +106,35 @@ def _case(
 
 def hypothetical_caveat(origin: str) -> Caveat:
     """The honest note: the panel assumes a lens that nobody has seen."""
-    why = (
-        "because a body is probably in or above the pair-instability gap"
-        if origin == "automatic"
-        else "because the editors asked for it"
-    )
-    return Caveat(
-        CAVEAT,
-        "info",
-        f"The what-if-lensed numbers are shown {why}. They assume a magnification: no lens is "
-        "known for this event unless the editors' own notes say so, and the sheet's other numbers "
-        "assume there is none.",
-    )
+    if origin == "automatic":
+        text = Text(
+            "The what-if-lensed numbers are shown because a body is probably in or above the "
+            "pair-instability gap. They assume a magnification: no lens is known for this event "
+            "unless the editors' own notes say so, and the sheet's other numbers assume there is "
+            "none."
+        )
+    else:
+        text = Text(
+            "The what-if-lensed numbers are shown because the editors asked for it. They assume "
+            "a magnification: no lens is known for this event unless the editors' own notes say "
+            "so, and the sheet's other numbers assume there is none."
+        )
+    return Caveat(CAVEAT, "info", text)
 
 
 def beyond_caveat(beyond: list[float]) -> Caveat:
     """Magnifications that put the source beyond the redshift table (z = 1000) are left out."""
-    listed = ", ".join(f"{mu:g}" for mu in beyond)
+    factors = tuple(Later(general, float(mu)) for mu in beyond)
     return Caveat(
         "lensing-beyond-table",
         "notice",
-        f"Magnified {listed} times, the source would lie beyond redshift 1000, where the "
-        "redshift table ends: those magnifications are left out.",
+        # TRANSLATORS: English says "those magnifications" for one or more; choose by {n}.
+        Plural(
+            "Magnified {factors} times, the source would lie beyond redshift 1000, where the "
+            "redshift table ends: those magnifications are left out.",
+            "Magnified {factors} times, the source would lie beyond redshift 1000, where the "
+            "redshift table ends: those magnifications are left out.",
+            len(factors),
+            factors=Later(listed, factors, "numbers"),
+        ),
     )

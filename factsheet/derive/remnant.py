@@ -15,6 +15,8 @@ import numpy as np
 
 from factsheet import labels
 from factsheet.derive import spin_effects
+from factsheet.derive.caveats import general, listed, share
+from factsheet.i18n import Later, Text
 from factsheet.model import DETECTOR, SOURCE, Caveat
 from factsheet.physics import inspiral, luminosity, remnant, ringdown
 from factsheet.physics.registry import METHODS, fraction_outside
@@ -131,9 +133,12 @@ def inspiral_quantities(
             Caveat(
                 "inspiral-below-band",
                 "notice",
-                "The inspiral ends (at the ISCO frequency, observed) below the band edge of "
-                f"{low_frequency.to_value(u.Hz):g} Hz: what the detectors saw is mostly the merger "
-                "and ringdown, and the time and cycles in band are lower limits of little meaning.",
+                Text(
+                    "The inspiral ends (at the ISCO frequency, observed) below the band edge of "
+                    "{frequency} Hz: what the detectors saw is mostly the merger and ringdown, and "
+                    "the time and cycles in band are lower limits of little meaning.",
+                    frequency=Later(general, float(low_frequency.to_value(u.Hz))),
+                ),
                 concerns=("isco_frequency", "time_in_band", "cycles_in_band"),
             )
         )
@@ -153,10 +158,13 @@ def _counter_rotating_caveat(spin: np.ndarray, out: Computed) -> None:
         Caveat(
             "counter-rotating-ringdown",
             "notice",
-            f"The remnant spins against the orbit in {against:.0%} of the samples. For those the "
-            "ringdown given is the counter-rotating mode of the black hole, the one expected to "
-            "dominate then: lower in frequency and slightly faster damped than the co-rotating "
-            "mode of a hole of the same spin turning with the orbit.",
+            Text(
+                "The remnant spins against the orbit in {share} of the samples. For those the "
+                "ringdown given is the counter-rotating mode of the black hole, the one expected "
+                "to dominate then: lower in frequency and slightly faster damped than the "
+                "co-rotating mode of a hole of the same spin turning with the orbit.",
+                share=Later(share, against),
+            ),
             concerns=("remnant_spin", "ringdown_frequency", "ringdown_damping_time"),
         )
     )
@@ -175,14 +183,19 @@ def _calibration_caveats(s: dict[str, u.Quantity], spin: np.ndarray, out: Comput
         worst = max(outside.values(), default=0.0)
         if worst < MATTERS:
             continue
-        names = ", ".join(labels.parameter(name) for name in sorted(outside))
+        names = tuple(labels.parameter(name) for name in sorted(outside))
         concerns = tuple(k for k, methods in out.methods.items() if method_id in methods)
         out.caveats.append(
             Caveat(
                 "fit-outside-calibration",
                 "warning" if worst > 0.5 else "notice",
-                f"{METHODS[method_id].title}: {worst:.0%} of the samples lie outside the range "
-                f"the fit was calibrated on ({names}); its numbers there are extrapolated.",
+                Text(
+                    "{fit}: {share} of the samples lie outside the range the fit was calibrated "
+                    "on ({parameters}); its numbers there are extrapolated.",
+                    fit=METHODS[method_id].title,
+                    share=Later(share, worst),
+                    parameters=Later(listed, names),
+                ),
                 concerns=concerns,
             )
         )

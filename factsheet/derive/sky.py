@@ -11,6 +11,7 @@ import astropy.units as u
 import numpy as np
 
 from factsheet.derive.summaries import summarise
+from factsheet.i18n import Later, Text
 from factsheet.model import CandidateReading, Caveat, Event, SkyMapSummary
 from factsheet.notation import format_value
 from factsheet.physics import sky
@@ -96,14 +97,16 @@ def sky_caveats(event: Event, summary: SkyMapSummary | None) -> list[Caveat]:
     low, high = AREA_RATIO_AGREES
     if low <= ratio <= high:
         return []
-    area = format_value(summary.area_90.to_value(u.deg**2))
-    stated = format_value(given.to_value(u.deg**2))
     return [
         Caveat(
             "sky-area-disagrees",
             "warning",
-            f"The sky map's 90 % credible region covers {area} square degrees, but the area "
-            f"stated beside it is {stated} square degrees. The sheet uses the map; one of the "
-            "two may belong to another analysis.",
+            Text(
+                "The sky map's 90 % credible region covers {area} square degrees, but the "
+                "area stated beside it is {stated} square degrees. The sheet uses the map; one of "
+                "the two may belong to another analysis.",
+                area=Later(format_value, float(summary.area_90.to_value(u.deg**2))),
+                stated=Later(format_value, float(given.to_value(u.deg**2))),
+            ),
         )
     ]

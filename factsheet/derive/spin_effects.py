@@ -16,6 +16,8 @@ import astropy.units as u
 import numpy as np
 
 from factsheet import labels
+from factsheet.derive.caveats import general, share
+from factsheet.i18n import SOURCE, Later, Text, current, localize_number
 from factsheet.model import Caveat
 from factsheet.physics import kick as kick_fits
 from factsheet.physics import remnant
@@ -59,35 +61,56 @@ def remnant_spin(s: dict[str, u.Quantity]) -> Found:
 
 
 def _in_plane_caveat(typical: float, reach: float) -> Caveat:
-    name = labels.QUANTITIES["remnant_spin"].in_prose
     return Caveat(
         "remnant-spin-in-plane-unknown",
         "notice",
-        f"The spins are known only along the orbit. Spin in the orbital plane would raise "
-        f"the {name}: by about {typical:.2g} (up to {reach:.2g}) with in-plane spins drawn up to "
-        "the largest the aligned spins allow. Its systematic spread is this shift where it is "
-        "larger than the difference between the fits, which assume no in-plane spin.",
+        Text(
+            "The spins are known only along the orbit. Spin in the orbital plane would raise "
+            "the {quantity}: by about {typical} (up to {reach}) with in-plane spins drawn up to "
+            "the largest the aligned spins allow. Its systematic spread is this shift where it "
+            "is larger than the difference between the fits, which assume no in-plane spin.",
+            quantity=labels.QUANTITIES["remnant_spin"].in_prose,
+            typical=Later(general, float(typical), ".2g"),
+            reach=Later(general, float(reach), ".2g"),
+        ),
         concerns=("remnant_spin",),
     )
 
 
 def _angles_caveat(s: dict[str, u.Quantity]) -> Caveat:
-    text = (
-        "The directions of the spins within the orbital plane are not in any summary: the "
-        "angle between them and their phase at merger were drawn uniformly for each sample "
-        "(common practice). The remnant spin comes from the one fit made for such spins; its "
-        f"systematic spread is that fit's stated accuracy, {remnant.HBR16_GENERIC_RMS:g}."
+    accuracy = Later(general, float(remnant.HBR16_GENERIC_RMS))
+    capped = (
+        float(np.mean(s["precession_spin_capped"].value)) if "precession_spin_capped" in s else None
     )
-    if "precession_spin_capped" in s:
-        text += (
-            " The precession spin was put on the heavier body, the single-spin case it stands for."
+    if capped is None:
+        text = Text(
+            "The directions of the spins within the orbital plane are not in any summary: the "
+            "angle between them and their phase at merger were drawn uniformly for each sample "
+            "(common practice). The remnant spin comes from the one fit made for such spins; its "
+            "systematic spread is that fit's stated accuracy, {accuracy}.",
+            accuracy=accuracy,
         )
-        capped = float(np.mean(s["precession_spin_capped"].value))
-        if capped > 0:
-            text += (
-                f" In {capped:.0%} of the samples it asked for more in-plane spin than the "
-                "heavier body's aligned spin leaves room for, and was lowered to fit."
-            )
+    elif capped > 0:
+        text = Text(
+            "The directions of the spins within the orbital plane are not in any summary: the "
+            "angle between them and their phase at merger were drawn uniformly for each sample "
+            "(common practice). The remnant spin comes from the one fit made for such spins; its "
+            "systematic spread is that fit's stated accuracy, {accuracy}. The precession spin "
+            "was put on the heavier body, the single-spin case it stands for. In {share} of the "
+            "samples it asked for more in-plane spin than the heavier body's aligned spin leaves "
+            "room for, and was lowered to fit.",
+            accuracy=accuracy,
+            share=Later(share, capped),
+        )
+    else:
+        text = Text(
+            "The directions of the spins within the orbital plane are not in any summary: the "
+            "angle between them and their phase at merger were drawn uniformly for each sample "
+            "(common practice). The remnant spin comes from the one fit made for such spins; its "
+            "systematic spread is that fit's stated accuracy, {accuracy}. The precession spin "
+            "was put on the heavier body, the single-spin case it stands for.",
+            accuracy=accuracy,
+        )
     return Caveat(
         "in-plane-spin-angles", "notice", text, concerns=("remnant_spin", "kick_velocity")
     )
@@ -98,9 +121,11 @@ def aligned_fits_caveat() -> Caveat:
     return Caveat(
         "in-plane-spin-ignored",
         "info",
-        "The fits for the energy radiated, the remnant mass and the peak luminosity are for "
-        "spins along the orbit: they were given the aligned parts of the spins, and the spin "
-        "in the orbital plane is left out of them (common practice).",
+        Text(
+            "The fits for the energy radiated, the remnant mass and the peak luminosity are for "
+            "spins along the orbit: they were given the aligned parts of the spins, and the spin "
+            "in the orbital plane is left out of them (common practice)."
+        ),
         concerns=("remnant_mass", "radiated_mass", "energy_radiated", "peak_luminosity"),
     )
 
@@ -120,18 +145,28 @@ def kick(s: dict[str, u.Quantity], has_host: bool) -> Found:
     return Found(v, (kick_fits.METHOD,), None, [_kick_caveat(v, reach, has_host)])
 
 
-def _two(x: float) -> str:
-    """A positive number to two significant figures, written out (2100, 85, 0.31)."""
-    return f"{float(f'{x:.2g}'):g}"
+def two_figures(x: float) -> str:
+    """A positive number to two significant figures, written out (2100, 85, 0.31), in the
+    reader's digits."""
+    text = f"{float(f'{x:.2g}'):g}"
+    return text if current() == SOURCE or "e" in text else localize_number(text)
 
 
 def _kick_caveat(v: u.Quantity, reach: float, has_host: bool) -> Caveat:
-    text = (
-        "The recoil kick counts only the spins along the orbit: spin in the orbital plane, "
-        f"which the input does not give, could make it much larger (up to about {_two(reach)} "
-        "km/s with in-plane spins drawn up to the largest the aligned spins allow). Read its "
-        "interval as a lower bound."
-    )
     if has_host:
-        text += " The disk-flare counterpart windows assume the kick shown."
+        text = Text(
+            "The recoil kick counts only the spins along the orbit: spin in the orbital plane, "
+            "which the input does not give, could make it much larger (up to about {reach} km/s "
+            "with in-plane spins drawn up to the largest the aligned spins allow). Read its "
+            "interval as a lower bound. The disk-flare counterpart windows assume the kick shown.",
+            reach=Later(two_figures, float(reach)),
+        )
+    else:
+        text = Text(
+            "The recoil kick counts only the spins along the orbit: spin in the orbital plane, "
+            "which the input does not give, could make it much larger (up to about {reach} km/s "
+            "with in-plane spins drawn up to the largest the aligned spins allow). Read its "
+            "interval as a lower bound.",
+            reach=Later(two_figures, float(reach)),
+        )
     return Caveat("kick-lower-bound", "notice", text, concerns=("kick_velocity",))

@@ -5,13 +5,15 @@ from __future__ import annotations
 import astropy.units as u
 
 from factsheet.derive.classify import Classification
+from factsheet.i18n import Plural, Text
 from factsheet.model import Caveat, Comparisons, Event, Reference
 from factsheet.physics import bands, comparisons, counterparts, disruption
 from factsheet.physics.counterparts import Window
 
-RETRACTED_REASON = (
+RETRACTED_REASON = Text(
     "The event was retracted: with no real merger there is no counterpart to look for."
 )
+BEYOND_CALENDAR_REASON = Text("Every window would end after the year 9999, so none is given.")
 
 
 def windows(
@@ -47,7 +49,7 @@ def windows(
 
 
 def _none_left(found: list[Window]) -> str:
-    return "" if found else "Every window would end after the year 9999, so none is given."
+    return "" if found else BEYOND_CALENDAR_REASON
 
 
 def _window_notes(left_out: int) -> list[Caveat]:
@@ -58,9 +60,13 @@ def _window_notes(left_out: int) -> list[Caveat]:
             Caveat(
                 "windows-beyond-calendar",
                 "notice",
-                f"{left_out} counterpart window{'s' if left_out > 1 else ''} would end after the "
-                "year 9999, beyond any date the site can write, and "
-                f"{'are' if left_out > 1 else 'is'} left out.",
+                Plural(
+                    "{n} counterpart window would end after the year 9999, beyond any date the "
+                    "site can write, and is left out.",
+                    "{n} counterpart windows would end after the year 9999, beyond any date the "
+                    "site can write, and are left out.",
+                    left_out,
+                ),
             )
         )
     return notes
@@ -70,9 +76,10 @@ def _planning_caveat() -> Caveat:
     return Caveat(
         "counterpart-windows-planning-aid",
         "info",
-        "Counterpart windows are a "
-        "planning aid built from typical time scales, not a prediction that "
-        "anything will be seen.",
+        Text(
+            "Counterpart windows are a planning aid built from typical time scales, not a "
+            "prediction that anything will be seen."
+        ),
     )
 
 
