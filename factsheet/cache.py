@@ -50,7 +50,7 @@ from factsheet.physics.counterparts import Window
 from factsheet.publish import regular_files
 from factsheet.resources import PACKAGE
 
-FORMAT = "5"
+FORMAT = "6"
 ENTRY = "entry.json"
 MAX_ENTRY_BYTES = 4_000_000  # an entry's JSON is a few kilobytes; anything far larger is not ours
 

@@ -30,7 +30,7 @@ import gettext as _gettext
 from collections.abc import Callable, Iterator, Mapping
 from contextvars import ContextVar
 from pathlib import Path
-from typing import Any
+from typing import Any, Self
 
 from babel import Locale
 from babel.dates import format_date as _babel_date
@@ -140,12 +140,14 @@ class Text(str):
     """
 
     __slots__ = ("_key", "_params")
+    _key: tuple[str, ...]
+    _params: tuple[tuple[str, Any], ...]
 
     def __new__(cls, message: str, /, **params: Any) -> Text:
         return cls._make((message,), params)
 
     @classmethod
-    def _make(cls, key: tuple, params: dict[str, Any]) -> Text:
+    def _make(cls, key: tuple, params: dict[str, Any]) -> Self:
         english = _fill(_pick(_gettext.NullTranslations(), key), params, SOURCE)
         self = super().__new__(cls, english)
         self._key, self._params = key, tuple(sorted(params.items()))
@@ -185,7 +187,7 @@ class Plural(Text):
         return cls._make((singular, plural), {"n": n, **params})
 
 
-def _rebuild(cls: type, key: tuple, params: dict[str, Any]) -> Text:
+def _rebuild(cls: type[Text], key: tuple, params: dict[str, Any]) -> Text:
     return cls._make(key, params)
 
 
@@ -251,6 +253,7 @@ class Editorial(str):
     """
 
     __slots__ = ("versions",)
+    versions: dict[str, str]
 
     def __new__(cls, versions: Mapping[str, str] | str) -> Editorial:
         given = {"": versions} if isinstance(versions, str) else dict(versions)
@@ -332,12 +335,14 @@ def language_name(language: str) -> str:
 
 # --- kept words as plain JSON (the build cache stores what derive found as JSON) ---------------
 
-_TEXT, _LATER, _TUPLE = "§text", "§later", "§tuple"
+_TEXT, _LATER, _TUPLE, _EDITORIAL = "§text", "§later", "§tuple", "§editorial"
 
 
 def to_json(value: Any) -> Any:
     """``value`` with every kept message as plain JSON (lists and dicts walked), so that words
     read back from the build cache still translate. Other values are returned as they are."""
+    if isinstance(value, Editorial):  # every version, the original first
+        return {_EDITORIAL: dict(value.versions)}
     if isinstance(value, Text):
         params = {k: to_json(v) for k, v in value._params}
         return {_TEXT: list(value._key), "params": params}
@@ -368,6 +373,15 @@ def from_json(value: Any) -> Any:
         ):
             raise ValueError(f"not a kept message: {key!r}")
         return (Text if len(key) == 1 else Plural)._make(tuple(key), params)
+    if _EDITORIAL in value:
+        versions = value[_EDITORIAL]
+        if not (
+            isinstance(versions, dict)
+            and versions
+            and all(isinstance(k, str) and isinstance(v, str) for k, v in versions.items())
+        ):
+            raise ValueError(f"not an editor's text: {versions!r}")
+        return Editorial(versions)
     if _LATER in value:
         return Later(_function(value[_LATER]), *(from_json(a) for a in value["args"]))
     if _TUPLE in value:
