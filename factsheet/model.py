@@ -20,7 +20,6 @@ import numpy as np
 from astropy.time import Time
 
 from factsheet.errors import Problem
-from factsheet.i18n import Editorial
 from factsheet.physics.counterparts import Window
 
 SOURCE = "source"
@@ -306,8 +305,8 @@ class Event:
     what_if_lensed: tuple[float, ...] | None = None  # magnifications asked for; None: automatic
     visibility: str = "public"
     embargo_until: Time | None = None
-    internal_notes: str = Editorial("")  # Editorial, like summary and each of caveats
-    summary: str = Editorial("")
+    internal_notes: str = ""  # Editorial when loaded, like summary and each of caveats
+    summary: str = ""
     caveats: tuple[str, ...] = ()
     key_lines: dict[str, int] = field(default_factory=dict, compare=False, repr=False)
 

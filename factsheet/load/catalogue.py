@@ -149,6 +149,8 @@ def load_event(
     if len(problems) > before:
         return None
     values.setdefault("title", Editorial(values["id"]))
+    for name in ("summary", "internal_notes"):  # every editors' text is an Editorial
+        values.setdefault(name, Editorial(""))
     event = Event(
         source=path,
         source_digest=hashlib.sha256(content).hexdigest(),
