@@ -280,10 +280,16 @@ class SamplesFile:
 
 @dataclass(frozen=True)
 class Event:
-    """One validated event file."""
+    """One validated event file.
+
+    The editors' texts — ``title``, ``summary``, ``internal_notes`` and each of ``caveats`` —
+    are :class:`~factsheet.i18n.Editorial` values when loaded: a ``str`` whose value is the
+    original (the first version given, which the exports carry) and which shows, in a language
+    context, the editors' version in that language or the original where they gave none.
+    """
 
     id: str
-    title: str
+    title: str  # Editorial when loaded (the id when the file gives no title)
     time: Time
     estimate: Estimate
     source: Path
@@ -299,7 +305,7 @@ class Event:
     what_if_lensed: tuple[float, ...] | None = None  # magnifications asked for; None: automatic
     visibility: str = "public"
     embargo_until: Time | None = None
-    internal_notes: str = ""
+    internal_notes: str = ""  # Editorial when loaded, like summary and each of caveats
     summary: str = ""
     caveats: tuple[str, ...] = ()
     key_lines: dict[str, int] = field(default_factory=dict, compare=False, repr=False)

@@ -325,10 +325,15 @@ CASES = {
         "catalogue.yaml:1: low_frequency:",
         "expected",
     ),
-    "settings_not_supported_yet": Case(
-        {"a.yaml": event(), "catalogue.yaml": "languages: [en]\n"},
-        "catalogue.yaml:1: languages:",
-        "not supported yet",
+    "settings_language_not_shipped": Case(
+        {"a.yaml": event(), "catalogue.yaml": "languages: [en, fr]\n"},
+        "catalogue.yaml:1: languages[1]:",
+        "no translation for fr (available: en, es",
+    ),
+    "editorial_bad_language_code": Case(
+        {"a.yaml": event({"summary": "summary:\n  en: A pair.\n  EN: A pair."})},
+        "a.yaml:20: summary.EN:",
+        "not a language code",
     ),
     # -- samples files ------------------------------------------------------------------------
     "samples_missing_column": Case(

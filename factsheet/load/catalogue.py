@@ -14,6 +14,7 @@ from pathlib import Path
 import astropy.units as u
 
 from factsheet.errors import InputError, Problem
+from factsheet.i18n import Editorial
 from factsheet.load.checker import Checker
 from factsheet.load.consistency import consistency_warnings
 from factsheet.load.files import CATALOGUE_FILE, FileRefused, event_files, target_of
@@ -130,7 +131,13 @@ def load_event(
         return None
     before, noticed = len(problems), list[Problem]()
     check = Checker(
-        path, problems, base=path.parent, root=root, cosmology=settings.cosmology, warnings=noticed
+        path,
+        problems,
+        base=path.parent,
+        root=root,
+        cosmology=settings.cosmology,
+        warnings=noticed,
+        languages=settings.languages,
     )
     values = check.mapping(data, EVENT_KEYS, prefix="")
     if "estimate" in values:
@@ -141,7 +148,9 @@ def load_event(
         )
     if len(problems) > before:
         return None
-    values.setdefault("title", values["id"])
+    values.setdefault("title", Editorial(values["id"]))
+    for name in ("summary", "internal_notes"):  # every editors' text is an Editorial
+        values.setdefault(name, Editorial(""))
     event = Event(
         source=path,
         source_digest=hashlib.sha256(content).hexdigest(),

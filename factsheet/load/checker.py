@@ -2,7 +2,8 @@
 
 A :class:`Checker` walks a mapping key by key, converts each value by its kind (plain kinds in
 :mod:`factsheet.load.scalars`, structured ones — detection, estimate, body, history,
-counterpart candidates, host, limits, file paths, the sky map — here) and appends a
+counterpart candidates, host, limits, file paths, the sky map, the editors' texts by language,
+the site's languages — here) and appends a
 :class:`~factsheet.errors.Problem` with the line and key path for each bad value, so one run
 reports every problem of a file.
 """
@@ -13,8 +14,10 @@ import difflib
 from pathlib import Path
 from typing import Any
 
+from factsheet import i18n
 from factsheet.errors import Problem
 from factsheet.load import scalars, spins
+from factsheet.load.languages import language_code
 from factsheet.load.scalars import Bad, show
 from factsheet.load.schema import (
     BODY_KEYS,
@@ -45,8 +48,10 @@ class Checker:
 
     ``base`` is the folder that relative file names start from, ``root`` the catalogue folder
     that they must not leave, ``cosmology`` the catalogue's cosmology, under which a distance
-    must lie inside the redshift table (up to d_L(z = 1000)). Warnings about valid but
-    suspicious files (a sky map far from normalised) go to ``warnings``.
+    must lie inside the redshift table (up to d_L(z = 1000)), ``languages`` the site's
+    languages (the first is its main one), against which the editors' versions by language are
+    read. Warnings about valid but suspicious files (a sky map far from normalised, a version
+    in a language the site is not built in) go to ``warnings``.
     """
 
     def __init__(
@@ -57,11 +62,13 @@ class Checker:
         root: Path | None = None,
         cosmology: str | None = None,
         warnings: list[Problem] | None = None,
+        languages: tuple[str, ...] = (i18n.SOURCE,),
     ):
         self.path, self.problems = path, problems
         self.base, self.root = base, root
         self.cosmology = cosmology
         self.warnings = [] if warnings is None else warnings
+        self.languages = languages
 
     def fail(self, line: int | None, key: str, message: str) -> None:
         self.problems.append(Problem(self.path, line, key, message))
@@ -117,6 +124,9 @@ class Checker:
         before = len(self.problems)
         values = self.mapping(raw, keys, prefix=f"{path}.")
         return values if len(self.problems) == before else None
+
+    def warn(self, line: int | None, key: str, message: str) -> None:
+        self.warnings.append(Problem(self.path, line, key, message))
 
     # -- structured kinds ------------------------------------------------------------------
     def _path(self, raw, key, path, line) -> Path | None:
@@ -300,6 +310,129 @@ class Checker:
             else:
                 out[name] = value
         return Limits(**out)
+
+    # -- the editors' texts, by language ---------------------------------------------------
+    def _editorial_text(self, raw, key, path, line) -> i18n.Editorial | None:
+        return self._editorial(raw, key, path, line, scalars.text)
+
+    def _editorial_markdown(self, raw, key, path, line) -> i18n.Editorial | None:
+        return self._editorial(raw, key, path, line, scalars.markdown)
+
+    def _editorial_list(self, raw, key, path, line) -> tuple[i18n.Editorial, ...] | None:
+        """Caveats: a list whose items are each one Markdown text or one per language."""
+        if not isinstance(raw, LineList):
+            self.fail(
+                line,
+                path,
+                f"expected a list of Markdown texts, each one text or one per language "
+                f"({_VERSIONS}), got {show(raw)}",
+            )
+            return None
+        before = len(self.problems)
+        items = [
+            self._editorial(item, key, f"{path}[{i}]", raw.line_of(i), scalars.markdown)
+            for i, item in enumerate(raw)
+        ]
+        if len(self.problems) > before:
+            return None
+        return tuple(item for item in items if item is not None)
+
+    def _editorial(self, raw, key, path, line, convert) -> i18n.Editorial | None:
+        """One text (written in the site's first language), or a mapping of language code to
+        text whose first version is the original. Each version is checked as ``convert``
+        checks a text (one line for a title, Markdown otherwise)."""
+        if not isinstance(raw, LineMap):
+            if isinstance(raw, list):
+                self.fail(line, path, f"expected one text, or one per language ({_VERSIONS})")
+                return None
+            try:
+                return i18n.Editorial(convert(raw, key))
+            except scalars.Bad as exc:
+                self.fail(line, path, str(exc))
+                return None
+        if not raw:
+            self.fail(line, path, f"expected one text, or one per language ({_VERSIONS})")
+            return None
+        before = len(self.problems)
+        versions: dict[str, str] = {}
+        for name, text in raw.items():
+            where, at = f"{path}.{str(name)[:60]}", raw.line_of(name)
+            try:
+                code = language_code(name)
+                if code in versions:
+                    raise scalars.Bad(f"a second version in {code}")
+                if text is None:
+                    raise scalars.Bad(
+                        "empty: write the text in this language, or leave the language out"
+                    )
+                versions[code] = convert(text, key)
+            except scalars.Bad as exc:
+                self.fail(at, where, str(exc))
+        if len(self.problems) > before:
+            return None
+        self._versions_shown(raw, versions, path, line)
+        return i18n.Editorial(versions)
+
+    def _versions_shown(self, raw: LineMap, versions: dict[str, str], path: str, line) -> None:
+        """Warn of a version no page shows, and of an original that is not in the site's
+        first language (the exports carry the original)."""
+        main, *_ = self.languages
+        built = ", ".join(self.languages)
+        for name, code in zip(raw, versions, strict=True):
+            if code not in self.languages:
+                self.warn(
+                    raw.line_of(name),
+                    f"{path}.{str(name)[:60]}",
+                    f"no page shows this version: the site is built in {built} (languages in "
+                    "catalogue.yaml); add the language there, or correct the code",
+                )
+        original = next(iter(versions))
+        if original == main:
+            return
+        if main in versions:
+            what = f"put the version in {main} first"
+        else:
+            what = f"the pages in {main} show the original with a note; add a version in {main}"
+        self.warn(
+            line,
+            path,
+            f"the original (the first version given, which the exports carry) is in {original}, "
+            f"not in {main}, the site's first language: {what}",
+        )
+
+    def _languages(self, raw, key, path, line) -> tuple[str, ...] | None:
+        """The site's languages: codes of languages factsheet ships, each once, main first."""
+        if not isinstance(raw, LineList) or not raw:
+            self.fail(
+                line,
+                path,
+                f"expected a list of language codes, the site's first language first, e.g. "
+                f"languages: {key.example}, got {show(raw)}",
+            )
+            return None
+        shipped = i18n.available()
+        before = len(self.problems)
+        codes: list[str] = []
+        for i, item in enumerate(raw):
+            where, at = f"{path}[{i}]", raw.line_of(i)
+            try:
+                code = language_code(item)
+                if code not in shipped:
+                    names = ", ".join(shipped)
+                    raise scalars.Bad(
+                        f"factsheet has no translation for {code} (available: {names})"
+                    )
+                if code in codes:
+                    raise scalars.Bad(f"{code} is listed twice")
+            except scalars.Bad as exc:
+                self.fail(at, where, str(exc))
+                continue
+            codes.append(code)
+        return tuple(codes) if len(self.problems) == before else None
+
+
+#: How versions by language are written, for messages.
+_VERSIONS = "e.g. {en: ..., es: ...}"
 
 
 def _day(time) -> str:

@@ -52,6 +52,8 @@ summary: |
   A few plain sentences for the page.
 
 caveats: []              # Markdown notes from the editors
+# On a site in several languages, each text may be given per language, the site's first
+# language first: summary: {{en: ..., es: ...}} (docs/input-format.md)
 """
 
 

@@ -220,17 +220,6 @@ def labels(raw: object, key: Key) -> tuple[str, ...]:
     return found
 
 
-def markdown_list(raw: object, key: Key) -> tuple[str, ...]:
-    if not isinstance(raw, list) or not all(isinstance(x, str) and x.strip() for x in raw):
-        raise Bad("expected a list of Markdown strings")
-    for i, item in enumerate(raw):
-        if len(item.strip()) > MAX_MARKDOWN:
-            raise Bad(
-                f"item {i + 1} is {len(item.strip())} characters long (at most {MAX_MARKDOWN})"
-            )
-    return tuple(x.strip() for x in raw)
-
-
 def mapping(raw: object, key: Key) -> dict:
     if not isinstance(raw, dict):
         raise Bad("expected a mapping")
@@ -350,7 +339,6 @@ CONVERTERS: dict[str, Callable[[object, Key], Any]] = {
     "count": count,
     "cosmology": cosmology,
     "labels": labels,
-    "markdown_list": markdown_list,
     "mapping": mapping,
     "unsupported": unsupported,
     "magnifications": magnifications,

@@ -2,8 +2,13 @@
 
 The loader checks every file against these tables, ``factsheet new`` writes its scaffold from
 them, and docs/input-format.md describes the same keys. The key names are a contract (input
-format version 2). A key of kind ``unsupported`` is named so the schema is whole, but its
-feature is not built yet: ``check`` says so instead of ignoring it.
+format version 2). A key of kind ``unsupported`` would be named so the schema is whole while its
+feature is not built yet: ``check`` says so instead of ignoring it (no key is of that kind
+now).
+
+The editors' texts (``title``, ``summary``, ``caveats``, ``internal_notes``) are each one text
+or a mapping of language code to text; the loader makes them
+:class:`~factsheet.i18n.Editorial` values.
 """
 
 from __future__ import annotations
@@ -51,7 +56,11 @@ def spin_key(meaning: str, example: str) -> Key:
 
 EVENT_KEYS: dict[str, Key] = {
     "id": Key("slug", "slug used in URLs, unique in the catalogue", True, example="DX-0412"),
-    "title": Key("text", "display title", example="A heavy pair in the upper gap"),
+    "title": Key(
+        "editorial_text",
+        "display title: one text, or one per language ({en: ..., es: ...})",
+        example="A heavy pair in the upper gap",
+    ),
     "time": Key("time", "merger time, UTC, ISO 8601", True, example="2034-04-12T07:26:41.2"),
     "status": Key(
         "choice",
@@ -84,9 +93,17 @@ EVENT_KEYS: dict[str, Key] = {
         "earlier estimates and changes of status, oldest first, each {date, label, note, "
         "estimate, status}",
     ),
-    "summary": Key("markdown", "Markdown text for the page"),
-    "caveats": Key("markdown_list", "list of Markdown strings written by the editors"),
-    "internal_notes": Key("markdown", "Markdown shown only in internal builds"),
+    "summary": Key(
+        "editorial_markdown", "Markdown text for the page: one text, or one per language"
+    ),
+    "caveats": Key(
+        "editorial_list",
+        "list of Markdown texts written by the editors, each one text or one per language",
+    ),
+    "internal_notes": Key(
+        "editorial_markdown",
+        "Markdown shown only in internal builds: one text, or one per language",
+    ),
 }
 
 DETECTION_KEYS: dict[str, Key] = {
@@ -349,7 +366,11 @@ CATALOGUE_KEYS: dict[str, Key] = {
         "text", "licence of the pages and exports, shown in the footer", example="CC BY 4.0"
     ),
     "citation": Key("markdown", "how to cite the catalogue (Markdown), shown on every sheet"),
-    "languages": unsupported("languages of the site", "leave it out (the site is in English)"),
+    "languages": Key(
+        "languages",
+        "languages of the site, each one factsheet ships; the first at the site's root",
+        example="[en, es]",
+    ),
     "what_if_lensed": Key(
         "magnifications",
         "magnifications of the what-if-lensed panel of a body probably in or above the "

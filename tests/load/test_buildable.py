@@ -61,7 +61,13 @@ def loads(catalogue, old: str, new: str, settings: str = ""):
         ("network: [A1, B1]", "network: [A1, " + "B" * 201 + "]", 6, "detection.network", "200"),
         ("network: [A1, B1]", 'network: [A1, "B\\n1"]', 6, "detection.network", "one line"),
         ("summary: A *test* event.", "summary: " + "s" * 100_001, 18, "summary", "at most 100000"),
-        ("summary: A *test* event.", "caveats: [" + "c" * 100_001 + "]", 18, "caveats", "100000"),
+        (
+            "summary: A *test* event.",
+            "caveats: [" + "c" * 100_001 + "]",
+            18,
+            "caveats[0]",
+            "100000",
+        ),
     ],
 )
 def test_text_length_and_lines(catalogue, old, new, line, key, words):

@@ -76,17 +76,17 @@ def test_each_problem_names_file_line_and_key(catalogue, old, new, line, key, wo
 
 
 @pytest.mark.parametrize(
-    "setting",
+    ("setting", "key", "words"),
     [
-        "languages: [en, fr]\n",
+        ("languages: [en, fr]\n", "languages[1]", "no translation for fr"),
+        ("languages: [en, en]\n", "languages[1]", "listed twice"),
     ],
 )
-def test_catalogue_keys_not_supported_yet(catalogue, setting):
+def test_catalogue_languages_name_line_and_key(catalogue, setting, key, words):
     folder = catalogue({"catalogue.yaml": "title: A season\n" + setting, "a.yaml": VALID_EVENT})
     (problem,) = problems_of(folder)
-    key = setting.split(":")[0]
     assert problem.startswith(f"{folder / 'catalogue.yaml'}:2: {key}: "), problem
-    assert "not supported yet" in problem
+    assert words in problem
 
 
 def test_all_problems_of_all_files_are_reported(catalogue):
