@@ -20,6 +20,7 @@ import numpy as np
 from astropy.time import Time
 
 from factsheet.errors import Problem
+from factsheet.i18n import Text
 from factsheet.physics.counterparts import Window
 
 SOURCE = "source"
@@ -80,7 +81,7 @@ class Limits:
 class Settings:
     """Catalogue-wide settings from ``catalogue.yaml``, with the documented defaults."""
 
-    title: str = "Gravitational-wave fact sheets"
+    title: str = Text("Gravitational-wave fact sheets")  # in the page's language
     description: str = ""
     base_url: str = ""
     cosmology: str = "Planck18"

@@ -8,6 +8,7 @@ from __future__ import annotations
 
 import os
 import random
+import re
 import shutil
 import signal
 import subprocess
@@ -44,9 +45,9 @@ def _catalogues(tmp_path: Path) -> tuple[Path, Path]:
         for name in DEMO_SUBSET:
             shutil.copy(demo_dir() / name, folder / name)
     text = (new / "mer34-001.yaml").read_text(encoding="utf-8")
-    (new / "mer34-001.yaml").write_text(
-        text.replace("title: ", "title: Revised - ", 1), encoding="utf-8"
-    )
+    revised = re.sub(r"(?m)^(title:\n  en: )", r"\1Revised - ", text, count=1)
+    assert revised != text
+    (new / "mer34-001.yaml").write_text(revised, encoding="utf-8")
     return old, new
 
 

@@ -297,8 +297,15 @@ HOST_KEYS: dict[str, Key] = {
 }
 
 CATALOGUE_KEYS: dict[str, Key] = {
-    "title": Key("text", "title of the catalogue site", example="First season"),
-    "description": Key("markdown", "Markdown shown on the index page"),
+    "title": Key(
+        "editorial_text",
+        "title of the catalogue site: one text, or one per language ({en: ..., es: ...})",
+        example="First season",
+    ),
+    "description": Key(
+        "editorial_markdown",
+        "Markdown shown on the index page: one text, or one per language",
+    ),
     "base_url": Key(
         "url",
         "absolute http:// or https:// URL of the published site, for the feed",
