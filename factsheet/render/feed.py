@@ -8,6 +8,8 @@ escapes text; characters XML 1.0 forbids are dropped. Links are absolute under t
 ``base_url`` and relative to the feed (at the site root) without one. Entry ids are
 ``urn:uuid:`` name-based UUIDs (IETF RFC 4122, version 5) of the event id, date, kind and
 origin, so they are stable across builds. The catalogue's ``licence`` is the feed's ``rights``.
+The feed's words (its subtitle, the entries' titles and summaries) are in the language in use
+when it is written: one feed per language.
 """
 
 from __future__ import annotations
@@ -16,6 +18,7 @@ import re
 import uuid
 import xml.etree.ElementTree as ET
 
+from factsheet.i18n import _
 from factsheet.model import Settings
 from factsheet.render.history import ADDED, REVISED, ChangeEntry
 
@@ -32,19 +35,29 @@ def entry_id(entry: ChangeEntry) -> str:
 
 
 def entry_title(entry: ChangeEntry) -> str:
-    return f"{entry.event_id} {entry.what}: {entry.label} — {entry.title}"
+    # TRANSLATORS: a feed entry's title: "MER34-007 retracted: Retraction — <the event's title>";
+    # {what} is what happened (added, revised, retracted...), {label} the step's label.
+    return _("{event} {what}: {label} — {title}").format(
+        event=entry.event_id, what=entry.what, label=entry.label, title=entry.title
+    )
 
 
 def entry_summary(entry: ChangeEntry) -> str:
     """Plain text: when the date is not the input's, the note, then the values (an addition),
     what changed (a revision) or the change of status."""
-    undated = (
-        f"The inputs give this estimate no date; the entry carries the merger time "
-        f"({entry.timestamp})."
-    )
-    lead = {ADDED: "Values as given: ", REVISED: "Changes: "}.get(entry.kind, "")
-    lines = "; ".join(c.text for c in entry.changes) or "no change in the listed values"
-    parts = ["" if entry.dated else undated, entry.note.strip(), f"{lead}{lines}."]
+    undated = _(
+        "The inputs give this estimate no date; the entry carries the merger time ({time})."
+    ).format(time=entry.timestamp)
+    lines = "; ".join(c.text for c in entry.changes)
+    if entry.kind == ADDED:
+        said = _("Values as given: {values}.").format(
+            values=lines or _("no change in the listed values")
+        )
+    elif entry.kind == REVISED:
+        said = _("Changes: {changes}.").format(changes=lines or _("no change in the listed values"))
+    else:
+        said = f"{lines or _('no change in the listed values')}."
+    parts = ["" if entry.dated else undated, str(entry.note).strip(), said]
     return " ".join(p for p in parts if p)
 
 
@@ -60,7 +73,9 @@ def _add(parent: ET.Element, tag: str, text: str | None = None, **attrib: str) -
 
 
 def _clean(text: str) -> str:
-    return _NOT_XML.sub("", text)
+    """``text`` in the language in use (words kept for later, editors' texts by language),
+    without the characters XML 1.0 forbids."""
+    return _NOT_XML.sub("", str(text))
 
 
 def atom_feed(entries: list[ChangeEntry], settings: Settings, base_url: str | None = None) -> bytes:
@@ -76,8 +91,10 @@ def atom_feed(entries: list[ChangeEntry], settings: Settings, base_url: str | No
     _add(
         feed,
         "subtitle",
-        "Additions, revisions and changes of status of the catalogue's events. Preliminary "
-        "estimates can change.",
+        _(
+            "Additions, revisions and changes of status of the catalogue's events. Preliminary "
+            "estimates can change."
+        ),
     )
     if settings.licence:
         _add(feed, "rights", settings.licence, type="text")

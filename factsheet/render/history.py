@@ -26,6 +26,9 @@ order. Values are written exactly as the sheet's tables write them (with the dig
 were given with, :func:`factsheet.notation.format_given`, in the table's units), and labelled
 by :func:`factsheet.labels.estimate_value`, so a detector-frame input says so here exactly as in
 the history figure.
+
+The words are in the language in use when the sheet, the changes page or the feed is made
+(the labels of our own steps are kept messages, shown in the language of the page).
 """
 
 from __future__ import annotations
@@ -36,15 +39,16 @@ from dataclasses import dataclass
 from astropy.time import Time
 
 from factsheet import labels
+from factsheet.i18n import Text, _, pgettext
 from factsheet.load.schema import value_key
 from factsheet.model import Derived, Estimate, Event, Interval
 from factsheet.notation import format_given
 from factsheet.render.numbers import estimate_texts
 
 ADDED, REVISED = "added", "revised"
-CURRENT_LABEL = "Current estimate"
-FIRST_LABEL = "First estimate"  # the current estimate of an event with no earlier estimate
-UNDATED_NOTE = (
+CURRENT_LABEL = Text("Current estimate")
+FIRST_LABEL = Text("First estimate")  # the current estimate of an event with no earlier estimate
+UNDATED_NOTE = Text(
     "The inputs give no date for the current estimate; it is listed at the date of the latest "
     "dated estimate before it."
 )
@@ -99,8 +103,10 @@ class Change:
     def text(self) -> str:
         """``m₁: 97 +28 −20 M⊙ → 91 +19 −15 M⊙`` (``m₁: 97 +28 −20 M⊙`` with no old value)."""
         if self.old is None:
-            return f"{self.label}: {self.new}"
-        return f"{self.label}: {self.old} → {self.new}"
+            # TRANSLATORS: a value of an estimate: "m₁: 97 +28 −20 M⊙".
+            return _("{label}: {value}").format(label=self.label, value=self.new)
+        # TRANSLATORS: a value that changed: "m₁: 97 +28 −20 M⊙ → 91 +19 −15 M⊙".
+        return _("{label}: {old} → {new}").format(label=self.label, old=self.old, new=self.new)
 
 
 def changes_between(
@@ -127,9 +133,21 @@ def changes_between(
     return tuple(out)
 
 
+def status_text(status: str) -> str:
+    """An event's status (``retracted``) in words, in the language in use."""
+    words = {
+        "candidate": pgettext("status", "candidate"),
+        "confirmed": pgettext("status", "confirmed"),
+        "retracted": pgettext("status", "retracted"),
+    }
+    return words.get(status, status)
+
+
 def status_row(old: str | None, new: str) -> Change:
     """The status before and after a step (``old`` None: the first status recorded)."""
-    return Change("status", labels.STATUS, old, new)
+    return Change(
+        "status", labels.STATUS, None if old is None else status_text(old), status_text(new)
+    )
 
 
 @dataclass(frozen=True)
@@ -199,16 +217,17 @@ def history_steps(event: Event, shown: Mapping[str, str] | None = None) -> list[
         date = "" if step.date is None or step.origin == "current" else step.date.utc.isot[:10]
         note = "" if step.origin == "current" else step.note
         if step.is_status_change:
-            old = step.old_status or labels.NOT_RECORDED
-            values = ((labels.STATUS, step.status),)
-            changes = ((labels.STATUS, old, step.status),)
+            status = status_text(step.status)
+            old = status_text(step.old_status) if step.old_status else labels.NOT_RECORDED
+            values = ((labels.STATUS, status),)
+            changes = ((labels.STATUS, old, status),)
         else:
             texts = shown if step.origin == "current" else None
             values = tuple(
                 (c.label, c.new) for c in changes_between(None, step.estimate, event.frame, texts)
             )
             if step.status:
-                values += ((labels.STATUS, step.status),)
+                values += ((labels.STATUS, status_text(step.status)),)
             found = (
                 () if before is None else changes_between(before, step.estimate, event.frame, texts)
             )

@@ -15,26 +15,35 @@ from collections.abc import Mapping
 from dataclasses import dataclass
 
 from factsheet import labels
+from factsheet.i18n import N_, _
 from factsheet.model import Caveat, Derived, FigureInfo, LensedCase
 from factsheet.notation import unit_text
 from factsheet.render import numbers
 from factsheet.render.contexts import converted
+from factsheet.render.sound import exact
 
 #: Caveats the panel says itself (the sheet places them here, not in the boxes).
 LENSING_NOTES = ("lensing-what-if", "lensing-beyond-table")
 BELOW = ("neutron_star", "lower_gap", "stellar_black_hole")
 PROBABLY = 0.5
-#: Where a body probably lies, relative to the pair-instability gap, in a table cell.
+#: Where a body probably lies, relative to the pair-instability gap, in a table cell (one body,
+#: named by its symbol; translate with ``_`` where shown).
 WHERE = {
-    "below": "below the gap",
-    "in": "in the gap",
-    "above": "above the gap",
-    "edge": "at the gap's edge",
+    "below": N_("{body} below the gap"),
+    "in": N_("{body} in the gap"),
+    "above": N_("{body} above the gap"),
+    "edge": N_("{body} at the gap's edge"),
+}
+#: Both bodies in the same place.
+WHERE_BOTH = {
+    "below": N_("both below the gap"),
+    "in": N_("both in the gap"),
+    "above": N_("both above the gap"),
+    "edge": N_("both at the gap's edge"),
 }
 BODIES = ("heavier", "lighter")
 #: Distances in the panel are in Gpc: magnified ones run to tens of thousands of Mpc.
 DISTANCE_UNIT = "Gpc"
-BODY_PROSE = {"heavier": "the heavier body", "lighter": "the lighter body"}
 
 
 @dataclass(frozen=True)
@@ -74,10 +83,12 @@ def where(bands: Mapping[str, float]) -> str:
 
 
 def where_text(found: dict[str, str]) -> str:
-    """Both bodies' places in a table cell."""
+    """Both bodies' places in a table cell, in the language in use."""
     if found["heavier"] == found["lighter"]:
-        return f"both {WHERE[found['heavier']]}"
-    return ", ".join(f"{labels.QUANTITIES[f'{b}_mass'].short} {WHERE[found[b]]}" for b in BODIES)
+        return _(WHERE_BOTH[found["heavier"]])
+    return ", ".join(
+        _(WHERE[found[b]]).format(body=labels.QUANTITIES[f"{b}_mass"].short) for b in BODIES
+    )
 
 
 def _row(item: Derived, case: LensedCase) -> LensRow:
@@ -102,7 +113,7 @@ def _measured(item: Derived) -> LensRow:
     kind = numbers.kind_of(item, "distance")
     shown["distance"] = numbers.value_text(converted(q["distance"], DISTANCE_UNIT), kind)
     return LensRow(
-        "none (as measured)", *(shown[k] for k in _KEYS), where_text(found), measured=True
+        _("none (as measured)"), *(shown[k] for k in _KEYS), where_text(found), measured=True
     )
 
 
@@ -111,35 +122,54 @@ _KEYS = ("distance", "redshift", "heavier_mass", "lighter_mass", "remnant_mass")
 
 def conclusion(cases: tuple[LensedCase, ...]) -> str:
     """The plain conclusion: the smallest listed magnification that puts both bodies below the
-    gap, and what the one before it would leave; or that none of them does."""
+    gap, and what the one before it would leave; or that none of them does (in the language
+    in use)."""
     places = [{b: where(c.mass_bands[b]) for b in BODIES} for c in cases]
     first = next((i for i, p in enumerate(places) if set(p.values()) == {"below"}), None)
     if first is None:
         last, p = cases[-1], places[-1]
-        left = [BODY_PROSE[b] for b in BODIES if p[b] != "below"]
-        return (
-            f"Even magnified {_times(last)}, {' and '.join(left)} would probably not lie "
-            "below the pair-instability gap."
-        )
-    said = (
-        f"Magnified {_times(cases[first])}, both bodies would probably lie below the "
-        "pair-instability gap."
-    )
+        left = [b for b in BODIES if p[b] != "below"]
+        if len(left) == 2:
+            text = _(
+                "Even magnified {times}, the heavier body and the lighter body would probably "
+                "not lie below the pair-instability gap."
+            )
+        elif left == ["heavier"]:
+            text = _(
+                "Even magnified {times}, the heavier body would probably not lie below the "
+                "pair-instability gap."
+            )
+        else:
+            text = _(
+                "Even magnified {times}, the lighter body would probably not lie below the "
+                "pair-instability gap."
+            )
+        return text.format(times=_times(last))
+    said = _(
+        "Magnified {times}, both bodies would probably lie below the pair-instability gap."
+    ).format(times=_times(cases[first]))
     if first == 0:
         return said
     before, p = cases[first - 1], places[first - 1]
-    left = [BODY_PROSE[b] for b in BODIES if p[b] != "below"]
-    who = "neither would yet" if len(left) == 2 else f"{left[0]} would not yet"
-    return f"{said} Magnified {_times(before)}, {who}."
+    left = [b for b in BODIES if p[b] != "below"]
+    if len(left) == 2:
+        then = _("Magnified {times}, neither would yet.")
+    elif left == ["heavier"]:
+        then = _("Magnified {times}, the heavier body would not yet.")
+    else:
+        then = _("Magnified {times}, the lighter body would not yet.")
+    return f"{said} {then.format(times=_times(before))}"
 
 
 def _times(case: LensedCase) -> str:
-    return f"{magnification_text(case.magnification)} times"
+    # TRANSLATORS: a magnification: "25 times" (magnified 25 times).
+    return _("{mu} times").format(mu=magnification_text(case.magnification))
 
 
 def magnification_text(mu: float) -> str:
-    """A magnification as the editors or the catalogue gave it (an exact input number)."""
-    return f"{mu:g}"
+    """A magnification as the editors or the catalogue gave it (an exact input number), with
+    the decimal sign of the language in use."""
+    return exact(mu)
 
 
 def lens_panel(
@@ -154,7 +184,7 @@ def lens_panel(
         e.value.to_value("solMass")
         for e in (edges.pair_instability_lower, edges.pair_instability_upper)
     )
-    gap = f"{low:g}–{high:g} {unit_text('solMass')}"
+    gap = f"{exact(low)}–{exact(high)} {unit_text('solMass')}"
     rows = (_measured(item), *(_row(item, c) for c in found.cases))
     notes = tuple(c.text for c in caveats if c.code in LENSING_NOTES)
     has_remnant = any(r.remnant for r in rows)

@@ -3,7 +3,10 @@
 :func:`event_sound` runs in a build worker (from :mod:`factsheet.render.assets`): it synthesises
 the chirp with :func:`factsheet.figures.audio.chirp_wav` and, when the whole sound lies below
 what small speakers play (:func:`factsheet.figures.audio.speaker_shift`), a copy shifted up by
-whole octaves. Every number in the words is printed as the sheet's table prints it (the median
+whole octaves. It runs once for every language (the sound has no words), so its words are kept
+messages (:class:`factsheet.i18n.Text`) with their numbers formatted when shown: the page of
+each language shows them in its own words and conventions, while their ``str`` value stays the
+English wording. Every number in the words is printed as the sheet's table prints it (the median
 of :func:`~factsheet.render.contexts.display_summary`, rounded by its interval); the chirp's own
 factors are ours and exact. :func:`band_note` is the one wording of "only merger and ringdown
 are in band", for the sound and for the frequency figure alike.
@@ -15,13 +18,29 @@ import math
 from dataclasses import replace
 
 import astropy.units as u
+from babel import Locale
+from babel.numbers import get_decimal_symbol
 
 from factsheet import labels
+from factsheet.i18n import Later, Text, current
 from factsheet.model import Audio, Derived, Summary
 from factsheet.notation import format_median, format_value, unit_text
 from factsheet.render.contexts import display_summary
 
-OCTAVES = ("", "one", "two", "three", "four", "five", "six", "seven", "eight", "nine", "ten")
+#: A shift by whole octaves, in words (index: the number of octaves).
+OCTAVES = (
+    "",
+    Text("one octave"),
+    Text("two octaves"),
+    Text("three octaves"),
+    Text("four octaves"),
+    Text("five octaves"),
+    Text("six octaves"),
+    Text("seven octaves"),
+    Text("eight octaves"),
+    Text("nine octaves"),
+    Text("ten octaves"),
+)
 
 
 def event_sound(item: Derived) -> tuple[Audio, dict[str, bytes]]:
@@ -54,84 +73,163 @@ def event_sound(item: Derived) -> tuple[Audio, dict[str, bytes]]:
     return audio, files
 
 
-def band_note(item: Derived) -> str | None:
+def band_note(item: Derived) -> Text | None:
     """One sentence when the inspiral ends (at the ISCO frequency, median) below the catalogue's
-    band edge: only the merger and the ringdown are then in the detectors' band."""
+    band edge: only the merger and the ringdown are then in the detectors' band. A kept message
+    (a ``str`` whose value is the English wording; shown in the language in use)."""
     isco = item.quantities.get("isco_frequency")
     edge = item.settings.low_frequency.to_value(u.Hz)
     if isco is None or isco.median >= edge:
         return None
-    return (
+    return Text(
         "Only the merger and the ringdown are in the detectors' band: the inspiral ends at "
-        f"{shown(item, 'isco_frequency')} ({labels.QUANTITIES['isco_frequency'].in_prose}), "
-        f"below the band edge at {exact(edge, 'Hz')}."
+        "{frequency} ({meaning}), below the band edge at {edge}.",
+        frequency=shown(item, "isco_frequency"),
+        meaning=Later(in_prose, "isco_frequency"),
+        edge=Later(exact, edge, "Hz"),
     )
 
 
-def describe(item: Derived, chirp) -> str:
+def describe(item: Derived, chirp) -> Text:
     """How the chirp was made from the observed track, after the band note when there is one."""
-    edge = exact(item.settings.low_frequency.to_value(u.Hz), "Hz")
-    text = _pitch_words(chirp.pitch_factor, chirp.ceiling_hz)
-    if chirp.time_factor > 1:
-        text += f"{' and' if chirp.pitch_factor != 1 else ','} time compressed"
-        text += f" {exact(chirp.time_factor)}× to fit in {exact(chirp.max_seconds, 's')}"
-    else:
-        text += ", played in real time" if chirp.pitch_factor != 1 else " and in real time"
+    edge = Later(exact, item.settings.low_frequency.to_value(u.Hz), "Hz")
+    how = _how_words(chirp)
     note = band_note(item)
     if not chirp.has_ringdown:
-        text += f"; the inspiral rises from {edge} to {shown(item, 'isco_frequency')} (observed)"
-        return text + " and the sound then fades: no ringdown tone is given for this event."
-    if note:
-        text += f"; the sound sweeps up from {edge} into the final tone, the ringdown at"
-    else:
-        text += f"; the inspiral rises from {edge} to {shown(item, 'isco_frequency')} at merger"
-        text += " and the final tone is the ringdown at"
-    text += f" {shown(item, 'ringdown_frequency')} (observed frequencies)"
+        what = Text(
+            "the inspiral rises from {edge} to {merger} (observed) and the sound then fades: no "
+            "ringdown tone is given for this event",
+            edge=edge,
+            merger=shown(item, "isco_frequency"),
+        )
+        return Text("{how}; {what}.", how=how, what=what)
+    numbers = {"edge": edge, "ringdown": shown(item, "ringdown_frequency")}
     if chirp.lengthened:
-        text += f", its {shown(item, 'ringdown_damping_time')} damping time lengthened to"
-        text += f" {format_value(chirp.damping_s, 's', 2)} so it can be heard"
-    return f"{note} {text}." if note else text + "."
+        numbers["damping"] = shown(item, "ringdown_damping_time")
+        numbers["played"] = Later(format_value, chirp.damping_s, "s", 2)
+    if note and chirp.lengthened:
+        what = Text(
+            "the sound sweeps up from {edge} into the final tone, the ringdown at {ringdown} "
+            "(observed frequencies), its {damping} damping time lengthened to {played} so it "
+            "can be heard",
+            **numbers,
+        )
+    elif note:
+        what = Text(
+            "the sound sweeps up from {edge} into the final tone, the ringdown at {ringdown} "
+            "(observed frequencies)",
+            **numbers,
+        )
+    elif chirp.lengthened:
+        what = Text(
+            "the inspiral rises from {edge} to {merger} at merger and the final tone is the "
+            "ringdown at {ringdown} (observed frequencies), its {damping} damping time "
+            "lengthened to {played} so it can be heard",
+            merger=shown(item, "isco_frequency"),
+            **numbers,
+        )
+    else:
+        what = Text(
+            "the inspiral rises from {edge} to {merger} at merger and the final tone is the "
+            "ringdown at {ringdown} (observed frequencies)",
+            merger=shown(item, "isco_frequency"),
+            **numbers,
+        )
+    if note:
+        # TRANSLATORS: the sound's description: the band note, then how the sound was made
+        # ({how}) and what it plays ({what}).
+        return Text("{note} {how}; {what}.", note=note, how=how, what=what)
+    # TRANSLATORS: the sound's description: how the sound was made, then what it plays.
+    return Text("{how}; {what}.", how=how, what=what)
 
 
-def shifted_words(item: Derived, factor: float) -> str:
+def _how_words(chirp) -> Text:
+    """The start of the description: the chirp's own pitch factor and why, and its pace."""
+    pitch, compressed = chirp.pitch_factor, chirp.time_factor > 1
+    pace = {
+        "factor": Later(exact, chirp.time_factor),
+        "length": Later(exact, chirp.max_seconds, "s"),
+    }
+    if pitch == 1:
+        if compressed:
+            return Text(
+                "Played at the observed frequencies, time compressed {factor}× to fit in {length}",
+                **pace,
+            )
+        return Text("Played at the observed frequencies and in real time")
+    interval = _interval(max(pitch, 1 / pitch))
+    if pitch > 1 and compressed:
+        return Text(
+            "Frequencies raised {interval} so the chirp is audible and time compressed "
+            "{factor}× to fit in {length}",
+            interval=interval,
+            **pace,
+        )
+    if pitch > 1:
+        return Text(
+            "Frequencies raised {interval} so the chirp is audible, played in real time",
+            interval=interval,
+        )
+    ceiling = Later(exact, chirp.ceiling_hz, "Hz")
+    if compressed:
+        return Text(
+            "Frequencies lowered {interval} to keep the top of the chirp below {ceiling} and "
+            "time compressed {factor}× to fit in {length}",
+            interval=interval,
+            ceiling=ceiling,
+            **pace,
+        )
+    return Text(
+        "Frequencies lowered {interval} to keep the top of the chirp below {ceiling}, played "
+        "in real time",
+        interval=interval,
+        ceiling=ceiling,
+    )
+
+
+def shifted_words(item: Derived, factor: float) -> Text:
     """What the shifted copy is: by how much, why, and where its final tone lands."""
     from factsheet.figures.audio import SMALL_SPEAKER_FLOOR
 
     key = "ringdown_frequency" if "ringdown_frequency" in item.quantities else "isco_frequency"
-    floor = exact(SMALL_SPEAKER_FLOOR.to_value(u.Hz), "Hz")
-    played = shown(item, key, factor)
-    return (
-        f"The same sound shifted up {_interval(factor)} so that small speakers can play it: they "
-        f"play little below about {floor}, and all of the sound lies below that. Its final "
-        f"tone sounds at {played} instead of {shown(item, key)}."
+    return Text(
+        "The same sound shifted up {interval} so that small speakers can play it: they play "
+        "little below about {floor}, and all of the sound lies below that. Its final tone "
+        "sounds at {played} instead of {observed}.",
+        interval=_interval(factor),
+        floor=Later(exact, SMALL_SPEAKER_FLOOR.to_value(u.Hz), "Hz"),
+        played=shown(item, key, factor),
+        observed=shown(item, key),
     )
 
 
-def shown(item: Derived, key: str, factor: float = 1.0) -> str:
-    """A quantity's median as the sheet's table prints it (times ``factor``, rounded alike)."""
+def shown(item: Derived, key: str, factor: float = 1.0) -> Later:
+    """A quantity's median as the sheet's table prints it (times ``factor``, rounded alike),
+    formatted when shown."""
     s: Summary = display_summary(item.quantities[key], item.settings.energy_units)
-    return format_median(s.median * factor, s.low * factor, s.high * factor, s.unit)
+    return Later(format_median, s.median * factor, s.low * factor, s.high * factor, s.unit)
+
+
+def in_prose(key: str) -> str:
+    """A quantity's name in prose, in the language in use."""
+    return str(labels.QUANTITIES[key].in_prose)
 
 
 def exact(value: float, unit: str = "") -> str:
-    """A setting or one of our own factors, exactly as given (``20 Hz``, ``29``)."""
-    return f"{value:g} {unit_text(unit)}".strip()
+    """A setting or one of our own factors, exactly as given (``20 Hz``, ``29``), with the
+    decimal sign of the language in use (and no grouping of thousands: ``4000 Hz``)."""
+    text = f"{value:g}".replace(".", get_decimal_symbol(Locale.parse(current())))
+    return f"{text} {unit_text(unit)}".strip()
 
 
-def _interval(factor: float) -> str:
-    """``three octaves (×8)`` for a power of two, else ``×3``."""
+def _interval(factor: float) -> Later:
+    """``three octaves (×8)`` for a power of two, else ``×3``, formatted when shown."""
+    return Later(interval_text, factor)
+
+
+def interval_text(factor: float) -> str:
+    """``three octaves (×8)`` for a power of two, else ``×3``, in the language in use."""
     octaves = round(math.log2(factor))
     if 2.0**octaves == factor and 0 < abs(octaves) < len(OCTAVES):
-        name = f"{OCTAVES[abs(octaves)]} octave{'s' if abs(octaves) > 1 else ''}"
-        return f"{name} (×{exact(factor)})"
+        return f"{OCTAVES[abs(octaves)]} (×{exact(factor)})"
     return f"×{exact(factor)}"
-
-
-def _pitch_words(pitch: float, ceiling: float) -> str:
-    """The start of the sentence: the chirp's own pitch factor and why."""
-    if pitch == 1:
-        return "Played at the observed frequencies"
-    text = f"Frequencies {'raised' if pitch > 1 else 'lowered'} {_interval(max(pitch, 1 / pitch))}"
-    if pitch > 1:
-        return text + " so the chirp is audible"
-    return text + f" to keep the top of the chirp below {exact(ceiling, 'Hz')}"

@@ -11,6 +11,7 @@ from astropy.time import Time
 
 from factsheet.build import build_time, select_events
 from factsheet.derive import derive_event
+from factsheet.i18n import use_language
 from factsheet.load import load_catalogue
 from factsheet.load.values import parse_interval
 from factsheet.model import Body, Estimate
@@ -189,6 +190,21 @@ def test_entry_ids_are_stable_across_builds(derived, monkeypatch):
         for e, d in zip(load_catalogue(folder).events, derived, strict=True)
     ]
     assert [entry_id(e) for e in change_entries(rebuilt)] == first
+
+
+def test_a_feed_in_another_language_keeps_its_structure(derived):
+    # One feed per language: the words change; the elements, ids, dates and links do not.
+    def shape(root):
+        return [
+            (el.tag, el.get("href"), el.text if el.tag.endswith(("id", "updated")) else None)
+            for el in root.iter()
+        ]
+
+    english = parse(atom_feed(change_entries(derived), derived[0].settings))
+    with use_language("es"):
+        feed = atom_feed(change_entries(derived), derived[0].settings)
+    spanish = parse(feed)
+    assert shape(spanish) == shape(english)
 
 
 def test_hostile_text_is_escaped(derived):

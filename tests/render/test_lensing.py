@@ -12,6 +12,7 @@ from factsheet.api import derive
 from factsheet.cache import bundle_from_json, bundle_to_json
 from factsheet.figures import style
 from factsheet.figures.lensing import LensColumn, LensMass, lensed_masses
+from factsheet.i18n import use_language
 from factsheet.model import Audio, EventBundle, LensedCase, Settings, Summary
 from factsheet.render import lensing
 from factsheet.render.event_json import event_json
@@ -49,6 +50,13 @@ def test_where_a_body_probably_lies():
     assert lensing.where(_bands(0.2, 0.7)) == "in"
     assert lensing.where(_bands(0.0, 0.3)) == "above"
     assert lensing.where(_bands(0.4, 0.4)) == "edge"
+
+
+def test_magnifications_follow_the_readers_decimal_sign():
+    # exactly as given, with the language's decimal sign (Spanish: a comma, CLDR through Babel)
+    assert lensing.magnification_text(1.5) == "1.5" and lensing.magnification_text(25.0) == "25"
+    with use_language("es"):
+        assert lensing.magnification_text(1.5) == "1,5"
 
 
 def test_conclusion_names_the_smallest_magnification_that_clears_the_gap():

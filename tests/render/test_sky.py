@@ -3,6 +3,7 @@
 import astropy.units as u
 import pytest
 
+from factsheet.i18n import use_language
 from factsheet.render.sky import position_text
 
 
@@ -18,3 +19,11 @@ from factsheet.render.sky import position_text
 def test_positions_are_written_in_hours_and_degrees(ra, dec, text):
     # 15 degrees of right ascension are one hour (the definition of the hour angle)
     assert position_text(ra * u.deg, dec * u.deg) == text
+
+
+def test_positions_follow_the_readers_decimal_sign():
+    # Spanish writes a decimal comma (CLDR's locale data, through Babel); the minutes keep their
+    # two digits and the declination its sign, whatever the words of the catalogue.
+    with use_language("es"):
+        text = position_text(47.3 * u.deg, -21.6 * u.deg)
+    assert "3h 09,2m" in text and "−21,6°" in text

@@ -5,6 +5,7 @@ sheet's table prints them, the band note of heavy pairs)."""
 from __future__ import annotations
 
 import io
+import pickle
 import re
 import wave
 
@@ -12,6 +13,7 @@ import numpy as np
 import pytest
 
 from factsheet.derive import derive_event
+from factsheet.i18n import use_language
 from factsheet.load import load_catalogue
 from factsheet.notation import format_median
 from factsheet.render.contexts import display_summary
@@ -142,3 +144,19 @@ def test_pair_without_ringdown_fades_and_is_not_shifted(demo):
 def test_same_event_same_bytes(demo):
     item, _, files = demo["MER34-006"]
     assert event_sound(item)[1] == files
+
+
+def test_words_are_kept_for_the_readers_language(demo):
+    # The sound is made once for every language: its words are kept messages whose value is
+    # the English wording (the exports and the tests above read it) and which are shown, with
+    # their numbers, in the language of the page; they survive a pickle round trip intact.
+    _, audio, _ = demo["MER34-008"]
+    assert "time compressed 9.1× to fit in 6 s" in audio.description
+    back = pickle.loads(pickle.dumps(audio))
+    assert back == audio and str(back.description) == str(audio.description)
+    with use_language("es"):
+        shown = str(back.description)
+    # Spanish writes a decimal comma (CLDR's locale data, through Babel).
+    assert "9,1×" in shown and "9.1×" not in shown
+    note = band_note(demo["MER34-006"][0])
+    assert isinstance(note, str) and f"{note}" == str.__str__(note)  # English where no language
