@@ -18,7 +18,7 @@ import re
 import uuid
 import xml.etree.ElementTree as ET
 
-from factsheet.i18n import _
+from factsheet.i18n import _, current
 from factsheet.model import Settings
 from factsheet.render.history import ADDED, REVISED, ChangeEntry
 
@@ -28,9 +28,12 @@ EMPTY_FEED_DATE = "1970-01-01T00:00:00Z"  # a fixed date for a feed with no entr
 _NOT_XML = re.compile("[^\t\n\r\x20-\ud7ff\ue000-\ufffd\U00010000-\U0010ffff]")
 
 
-def entry_id(entry: ChangeEntry) -> str:
-    """A stable Atom id: a name-based UUID (RFC 4122 version 5) of what identifies the entry."""
+def entry_id(entry: ChangeEntry, language: str = "") -> str:
+    """A stable Atom id: a name-based UUID (RFC 4122 version 5) of what identifies the entry
+    (and its language, in the feed of a language other than the site's first)."""
     name = f"{entry.event_id}|{entry.timestamp}|{entry.kind}|{entry.origin}"
+    if language:
+        name += f"|{language}"
     return f"urn:uuid:{uuid.uuid5(NAMESPACE, name)}"
 
 
@@ -85,8 +88,13 @@ def atom_feed(entries: list[ChangeEntry], settings: Settings, base_url: str | No
     feed's own place at the site root.
     """
     base = settings.base_url if base_url is None else base_url
-    feed = ET.Element("feed", {"xmlns": ATOM})
-    _add(feed, "id", f"urn:uuid:{uuid.uuid5(NAMESPACE, 'feed|' + settings.title)}")
+    language = current()
+    feed = ET.Element("feed", {"xmlns": ATOM, "xml:lang": language})
+    # one feed per language: the first language's id is the one it always had
+    name = "feed|" + str.__str__(settings.title)
+    if language != settings.languages[0]:
+        name += f"|{language}"
+    _add(feed, "id", f"urn:uuid:{uuid.uuid5(NAMESPACE, name)}")
     _add(feed, "title", settings.title)
     _add(
         feed,
@@ -108,7 +116,7 @@ def atom_feed(entries: list[ChangeEntry], settings: Settings, base_url: str | No
     _add(feed, "generator", "factsheet")
     for entry in entries:
         item = _add(feed, "entry")
-        _add(item, "id", entry_id(entry))
+        _add(item, "id", entry_id(entry, "" if language == settings.languages[0] else language))
         _add(item, "title", entry_title(entry), type="text")
         _add(item, "updated", entry.timestamp)
         _add(item, "link", rel="alternate", type="text/html", href=_site_link(base, entry.page))

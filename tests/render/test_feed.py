@@ -193,18 +193,35 @@ def test_entry_ids_are_stable_across_builds(derived, monkeypatch):
 
 
 def test_a_feed_in_another_language_keeps_its_structure(derived):
-    # One feed per language: the words change; the elements, ids, dates and links do not.
+    # One feed per language: the words change; the elements, dates and links do not, and the
+    # second language's feed and entries have ids of their own (Atom ids are unique).
     def shape(root):
         return [
-            (el.tag, el.get("href"), el.text if el.tag.endswith(("id", "updated")) else None)
+            (el.tag, el.get("href"), el.text if el.tag.endswith("updated") else None)
             for el in root.iter()
         ]
 
-    english = parse(atom_feed(change_entries(derived), derived[0].settings))
+    def ids(root):
+        return [el.text for el in root.iter() if el.tag.endswith("id")]
+
+    settings = replace(derived[0].settings, languages=("en", "es"))
+    english = parse(atom_feed(change_entries(derived), settings))
     with use_language("es"):
-        feed = atom_feed(change_entries(derived), derived[0].settings)
+        feed = atom_feed(change_entries(derived), settings)
     spanish = parse(feed)
     assert shape(spanish) == shape(english)
+    assert not set(ids(spanish)) & set(ids(english))
+    assert english.get("{http://www.w3.org/XML/1998/namespace}lang") == "en"
+    assert spanish.get("{http://www.w3.org/XML/1998/namespace}lang") == "es"
+    assert ids(english)[0] == atom_id_of_first_language(settings)
+
+
+def atom_id_of_first_language(settings) -> str:
+    import uuid
+
+    from factsheet.render.feed import NAMESPACE
+
+    return f"urn:uuid:{uuid.uuid5(NAMESPACE, 'feed|' + str.__str__(settings.title))}"
 
 
 def test_hostile_text_is_escaped(derived):
