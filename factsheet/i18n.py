@@ -44,8 +44,10 @@ LOCALE_DIR = Path(__file__).parent / "locale"
 _language: ContextVar[str] = ContextVar("factsheet_language", default=SOURCE)
 
 # CLDR's minimumGroupingDigits: Spanish writes 1234 but 12 345 (from memory of CLDR's data;
-# Babel does not apply it when formatting with a pattern). Default 1.
-_MIN_GROUPING = {"es": 2}
+# Babel does not apply it when formatting with a pattern). Default 1. English is ours, not
+# CLDR's (1): the pages have always written 1200 and 90000 ungrouped, and the notation module
+# factors out a power of ten from 10⁵ on, so English numbers stay ungrouped.
+_MIN_GROUPING = {"es": 2, "en": 3}
 # How a date is written in prose (a CLDR pattern); other languages take Babel's long format.
 _DATE_PATTERN = {"en": "d MMMM y", "es": "d 'de' MMMM 'de' y"}
 

@@ -4,6 +4,10 @@ Rounding follows the Particle Data Group's rule (Review of Particle Physics, "In
 rounding"): take the three leading digits of the uncertainty (the smaller side of an asymmetric
 interval); 100–354 keeps two significant digits, 355–949 one, and 950–999 rounds up to 1000
 and keeps two. The value is rounded to the same decimal place.
+
+Numbers are written in the language in use (:func:`factsheet.i18n.decimal_text`: a decimal
+comma in Spanish, the language's grouping of thousands); the ``× 10ⁿ`` notation, the signs of
+an interval and the symbols of units are the same in every language.
 """
 
 from __future__ import annotations
@@ -13,6 +17,8 @@ import math
 from decimal import ROUND_HALF_UP, Decimal
 
 import astropy.units as u
+
+from factsheet.i18n import N_, _, decimal_text, ngettext
 
 SUPERSCRIPT = str.maketrans("-0123456789", "⁻⁰¹²³⁴⁵⁶⁷⁸⁹")
 UNIT_TEXT = {"": "", "solMass": "M⊙"}
@@ -36,7 +42,7 @@ def unit_text(unit: str | u.UnitBase) -> str:
     return _unit_text(unit if isinstance(unit, str) else unit.to_string())
 
 
-@functools.cache
+@functools.cache  # unit symbols are the same in every language: safe to keep
 def _unit_text(key: str) -> str:
     if key in UNIT_TEXT:
         return UNIT_TEXT[key]
@@ -52,8 +58,8 @@ def _round(x: float, place: int) -> float:
 
 
 def _fmt(x: float, place: int) -> str:
-    rounded = _round(x, place) + 0.0  # + 0.0 turns a rounded -0.0 into 0.0: never print "−0"
-    return f"{rounded:.{max(0, -place)}f}".replace("-", "−")
+    """``x`` rounded at ``place``, in the language's digits (never "−0")."""
+    return decimal_text(_round(x, place), max(0, -place))
 
 
 def _scale(median: float, low: float, high: float) -> int:
@@ -72,7 +78,7 @@ def _interval_parts(median: float, low: float, high: float) -> tuple[int, int, t
     is raised so that a mantissa never reads "10.0 × 10ⁿ".
     """
     power = _scale(median, low, high)
-    for _ in range(2):
+    for _attempt in range(2):
         m, lo, hi = (x / 10**power for x in (median, low, high))
         errs = [e for e in (hi - m, m - lo) if e > 0]
         place = decimal_place(min(errs)) if errs else _significant_place(m, 4)
@@ -189,8 +195,12 @@ def format_value(value: float, unit: str = "", digits: int = 2) -> str:
 
 
 def percent(level: float) -> str:
-    """A credible level (or another fraction) as people write it: ``90 %``, ``68.3 %``."""
-    return f"{100 * level:.3g} %"  # a no-break space keeps "90 %" on one line
+    """A credible level (or another fraction) as people write it: ``90 %``, ``68.3 %``
+    (``68,3 %`` in Spanish), to three significant digits."""
+    text = f"{100 * level:.3g}"
+    if math.isfinite(level) and "e" not in text:
+        text = decimal_text(float(text), len(text.partition(".")[2]))
+    return f"{text} %"  # a no-break space keeps "90 %" on one line, in every language
 
 
 def _significant_place(x: float, digits: int) -> int:
@@ -200,23 +210,51 @@ def _significant_place(x: float, digits: int) -> int:
 
 
 def how_often(per_year: float) -> str:
-    """A rate in plain words: "about twice a year", "about once in 80 years"."""
+    """A rate in plain words: "about twice a year", "about once in 80 years" (a whole phrase
+    per case, so each language words it its own way)."""
     if per_year <= 0:
-        return "never"
+        return _("never")
     if per_year < 0.75:
-        return f"about once in {_plain(1 / per_year)} years"
+        years = _rounded(1 / per_year)
+        phrase = ngettext("about once in {n} year", "about once in {n} years", years)
+        return phrase.format(n=_plain(years))
     for unit, size in (("day", 365.25), ("month", 12.0), ("year", 1.0)):
         count = per_year / size
         if count >= 0.75 or unit == "year":
             break
     if count < 1.5:
-        return f"about once a {unit}"
+        return _(_ONCE[unit])
     if count < 2.5:
-        return f"about twice a {unit}"
-    return f"about {_plain(count)} times a {unit}"
+        return _(_TWICE[unit])
+    count = _rounded(count)  # at least 2.5, but a language may have more than one plural form
+    if unit == "day":
+        phrase = ngettext("about {n} time a day", "about {n} times a day", count)
+    elif unit == "month":
+        phrase = ngettext("about {n} time a month", "about {n} times a month", count)
+    else:
+        phrase = ngettext("about {n} time a year", "about {n} times a year", count)
+    return phrase.format(n=_plain(count))
+
+
+_ONCE = {
+    "day": N_("about once a day"),
+    "month": N_("about once a month"),
+    "year": N_("about once a year"),
+}
+_TWICE = {
+    "day": N_("about twice a day"),
+    "month": N_("about twice a month"),
+    "year": N_("about twice a year"),
+}
+
+
+def _rounded(x: float) -> float:
+    """``x`` to two significant figures, as :func:`_plain` writes it (for the plural rule)."""
+    return _round(x, _significant_place(x, 2))
 
 
 def _plain(x: float) -> str:
-    """Two significant figures without a trailing ".0" (2.0 → "2", 2.5 → "2.5")."""
+    """Two significant figures without a trailing zero decimal (2.0 → "2", 2.5 → "2.5")."""
     text = format_value(x)
-    return text.removesuffix(".0")
+    zero = decimal_text(0.0, 1)[1:]  # ".0" in the language's digits
+    return text.removesuffix(zero)

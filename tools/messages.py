@@ -9,9 +9,10 @@
 ``update`` keeps every translation whose message is still used and drops the rest; messages
 new to a language are left empty for its translator (``check`` lists them). The same steps
 with Babel's command line: ``pybabel extract -F babel.cfg -k N_ -k Text -k Plural:1,2
--k pgettext:1c,2 -o factsheet/locale/factsheet.pot .``, ``pybabel update -D factsheet
--i factsheet/locale/factsheet.pot -d factsheet/locale``, ``pybabel compile -D factsheet
--d factsheet/locale``.
+-k pgettext:1c,2 -k count_words:2,3 -o factsheet/locale/factsheet.pot .``, ``pybabel update
+-D factsheet -i factsheet/locale/factsheet.pot -d factsheet/locale``, ``pybabel compile -D
+factsheet -d factsheet/locale`` (the labels of the packaged reference data,
+``factsheet/data/*.yaml``, are read by :func:`extract_data_labels` of this script only).
 """
 
 from __future__ import annotations
@@ -21,6 +22,7 @@ import io
 import sys
 from pathlib import Path
 
+import yaml
 from babel.messages.catalog import Catalog
 from babel.messages.extract import extract_from_dir
 from babel.messages.mofile import write_mo
@@ -37,8 +39,35 @@ KEYWORDS = {
     "N_": None,
     "Text": None,
     "Plural": (1, 2),
+    "count_words": (2, 3),
 }
-METHODS = [("factsheet/**.py", "python"), ("templates/**.html", "jinja2")]
+
+
+def extract_data_labels(fileobj, keywords, comment_tags, options):
+    """Babel extraction method for the packaged reference data (``factsheet/data/*.yaml``):
+    every ``label`` of a mapping is a message (load/reference.py shows it translated)."""
+    root = yaml.compose(fileobj.read().decode(options.get("encoding", "utf-8")))
+    yield from _labels(root, "")
+
+
+def _labels(node, where: str):
+    if isinstance(node, yaml.MappingNode):
+        for key, value in node.value:
+            name = f"{where}.{key.value}" if where else str(key.value)
+            if key.value == "label" and isinstance(value, yaml.ScalarNode) and value.value:
+                yield value.start_mark.line + 1, None, value.value, [f"reference data: {where}"]
+            else:
+                yield from _labels(value, name)
+    elif isinstance(node, yaml.SequenceNode):
+        for index, item in enumerate(node.value):
+            yield from _labels(item, f"{where}[{index}]")
+
+
+METHODS = [
+    ("factsheet/**.py", "python"),
+    ("templates/**.html", "jinja2"),
+    ("factsheet/data/*.yaml", extract_data_labels),
+]
 OPTIONS = {"templates/**.html": {"trim_blocks": "true", "lstrip_blocks": "true"}}
 # Spanish plural forms as GNU gettext writes them (one, other); CLDR's separate form for
 # whole millions is not used by our messages.

@@ -1,6 +1,9 @@
 """Packaged reference data: mass-band edges, counterpart time scales and comparison objects.
 
-Their names for readers come from :mod:`factsheet.labels`; the records are in
+Their names for readers come from :mod:`factsheet.labels`, except the comparisons' labels,
+which are in their data file: the packaged ones are kept messages (:class:`~factsheet.i18n.Text`,
+extracted for the catalogues by ``tools/messages.py``), shown in the reader's language; a label
+set in ``catalogue.yaml`` is the editors' own and shown as written. The records are in
 :mod:`factsheet.model`.
 
 The data live in ``factsheet/data/*.yaml``, each value with its unit and source, and are read
@@ -34,6 +37,7 @@ import astropy.units as u
 import yaml
 
 from factsheet.errors import InputError, Problem
+from factsheet.i18n import Text
 from factsheet.labels import EDGES
 from factsheet.load.scalars import MAX_LINE_TEXT, MAX_MARKDOWN
 from factsheet.model import Comparison, Edge, MassBands, Reference, Settings, WindowSpec
@@ -151,6 +155,8 @@ def _comparison(key: str, entry: dict[str, Any], where: str) -> Comparison:
 def _comparisons(overrides: dict[str, Any]) -> tuple[Comparison, ...]:
     """Packaged comparisons with the overrides applied."""
     data = _read("comparisons.yaml")
+    for entry in data.values():
+        entry["label"] = Text(entry["label"])  # ours: translated where it is shown
     for key, entry in overrides.items():
         where = f"comparisons.{key}"
         if entry is None:
