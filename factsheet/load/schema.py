@@ -226,8 +226,13 @@ BODY_KEYS: dict[str, Key] = {
 #: A history entry needs a date and a label, and an estimate, a status, or both.
 HISTORY_KEYS: dict[str, Key] = {
     "date": Key("time", "when this estimate or change of status was issued", True, "2034-04-12"),
-    "label": Key("text", "short name of the step", True, example="Rapid estimate"),
-    "note": Key("markdown", "what this step was"),
+    "label": Key(
+        "editorial_text",
+        "short name of the step: one text, or one per language",
+        True,
+        example="Rapid estimate",
+    ),
+    "note": Key("editorial_markdown", "what this step was: one text, or one per language"),
     "estimate": Key("estimate", "the values of this estimate"),
     "status": Key(
         "choice",
@@ -267,7 +272,9 @@ CANDIDATE_KEYS: dict[str, Key] = {
         canonical_unit="deg",
     ),
     "time": Key("time", "when the transient was seen, UTC", True, example="2034-04-25T03:00"),
-    "note": Key("markdown", "what was reported (Markdown)"),
+    "note": Key(
+        "editorial_markdown", "what was reported (Markdown): one text, or one per language"
+    ),
 }
 
 HOST_KEYS: dict[str, Key] = {
