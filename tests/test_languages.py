@@ -151,6 +151,7 @@ class Words(HTMLParser):
 
     SKIP = frozenset({"script", "style", "cite", "code", "pre"})
     VOID = frozenset({"img", "br", "meta", "link", "input", "source", "hr", "wbr"})
+    READ = frozenset({"description", "og:title", "og:description", "og:image:alt"})
 
     def __init__(self, language: str):
         super().__init__()
@@ -166,9 +167,13 @@ class Words(HTMLParser):
         if tag not in self.VOID:
             self.stack.append((tag, a.get("lang")))
         if not self._hidden() and a.get("lang") in (None, self.language):
-            for name in ("alt", "title", "aria-label", "content"):
-                if a.get(name) and not (tag == "meta" and a.get("property", "").endswith("url")):
+            for name in ("alt", "title", "aria-label", "placeholder"):
+                if a.get(name):
                     self.words.append(a[name])
+            if tag == "meta" and (a.get("name") or a.get("property")) in self.READ:
+                self.words.append(a.get("content", ""))
+            if any(k.startswith("data-ui-") for k in a):  # the index script's words
+                self.words.extend(v for k, v in a.items() if k.startswith("data-ui-") and v)
 
     def handle_endtag(self, tag):
         while self.stack:
