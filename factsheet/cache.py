@@ -57,10 +57,15 @@ MAX_ENTRY_BYTES = 4_000_000  # an entry's JSON is a few kilobytes; anything far 
 
 @cache
 def code_fingerprint() -> str:
-    """A hash of the package's code and data files (the templates only shape the pages)."""
+    """A hash of the package's code, data files and compiled message catalogues (the
+    templates only shape the pages)."""
     digest = hashlib.sha256(f"{__version__}|{FORMAT}".encode())
     for path in sorted(PACKAGE.rglob("*")):
-        if path.is_file() and path.suffix in {".py", ".yaml"} and "__pycache__" not in path.parts:
+        if (
+            path.is_file()
+            and path.suffix in {".py", ".yaml", ".mo"}
+            and "__pycache__" not in path.parts
+        ):
             digest.update(path.relative_to(PACKAGE).as_posix().encode())
             digest.update(path.read_bytes())
     return digest.hexdigest()

@@ -16,7 +16,7 @@ import numpy as np
 from factsheet import labels
 from factsheet.derive import spin_effects
 from factsheet.derive.caveats import general, listed, share
-from factsheet.i18n import Later, Text
+from factsheet.i18n import Later, Text, gettext
 from factsheet.model import DETECTOR, SOURCE, Caveat
 from factsheet.physics import inspiral, luminosity, remnant, ringdown
 from factsheet.physics.registry import METHODS, fraction_outside
@@ -192,7 +192,7 @@ def _calibration_caveats(s: dict[str, u.Quantity], spin: np.ndarray, out: Comput
                 Text(
                     "{fit}: {share} of the samples lie outside the range the fit was calibrated "
                     "on ({parameters}); its numbers there are extrapolated.",
-                    fit=METHODS[method_id].title,
+                    fit=Later(gettext, METHODS[method_id].title),  # the methods page's words
                     share=Later(share, worst),
                     parameters=Later(listed, names),
                 ),
