@@ -4,6 +4,11 @@ The headline tells the truth about the status before anything else: a retracted 
 of the signal in the past conditional, a candidate conditionally. Each body is named by the
 mass band it most probably lies in, not by the source class alone, and every number is rounded
 to the digits its interval supports (:func:`factsheet.notation.format_about`).
+
+Each sentence is one message of the catalogue in each of its variants (confirmed, candidate,
+retracted; with or without an optional clause), its numbers and names in placeholders, so that
+a language orders and inflects the whole sentence its own way. These functions run while the
+reader's language is in use and return text in that language.
 """
 
 from __future__ import annotations
@@ -42,6 +47,12 @@ def likely_band(item: Derived, subject: str) -> str:
     """The mass band a subject most probably lies in."""
     probs = item.mass_bands.get(subject, {})
     return max(probs, key=probs.get) if probs else "stellar_black_hole"
+
+
+def _percent_of(number: str) -> str:
+    """A number already written, as a percentage ("45 %", a no-break space before the sign):
+    the sign stays out of the messages, where gettext tools would take it for a format."""
+    return f"{number}\u00a0%"
 
 
 def _capital(text: str) -> str:
@@ -126,19 +137,19 @@ def _remnant(item: Derived, conditional: bool = False) -> list[str]:
         if conditional:
             line = _(
                 "They would have left a single black hole of about {mass} solar masses, spinning "
-                "at about {spin}\u00a0% of the maximum a black hole can have, and would have "
+                "at about {spin} of the maximum a black hole can have, and would have "
                 "radiated about {radiated} solar masses of energy as gravitational waves."
             )
         else:
             line = _(
                 "They left a single black hole of about {mass} solar masses, spinning at about "
-                "{spin}\u00a0% of the maximum a black hole can have, and radiated about "
+                "{spin} of the maximum a black hole can have, and radiated about "
                 "{radiated} solar masses of energy as gravitational waves."
             )
         text.append(
             line.format(
                 mass=median_text(item, "remnant_mass"),
-                spin=median_text(item, "remnant_spin", 100).lstrip("−"),
+                spin=_percent_of(median_text(item, "remnant_spin", 100).lstrip("−")),
                 radiated=median_text(item, "radiated_mass"),
             )
         )
@@ -261,15 +272,19 @@ def detection(item: Derived, large_sky: bool = False, rate_in_box: bool = False)
         share = format_value(100 * area / WHOLE_SKY_DEG2, "", 1)
         if large_sky and not retracted:
             line = _(
-                "The 90\u00a0% credible sky region covers {area} square degrees, about "
-                "{share}\u00a0% of the sky: a large area to search for a counterpart."
+                "The {level} credible sky region covers {area} square degrees, about "
+                "{share} of the sky: a large area to search for a counterpart."
             )
         else:
             line = _(
-                "The 90\u00a0% credible sky region covers {area} square degrees, about "
-                "{share}\u00a0% of the sky."
+                "The {level} credible sky region covers {area} square degrees, about "
+                "{share} of the sky."
             )
-        text.append(line.format(area=format_value(area, "", 2), share=share))
+        text.append(
+            line.format(
+                level=percent(0.9), area=format_value(area, "", 2), share=_percent_of(share)
+            )
+        )
     text.append(class_sentence(item))
     return text
 

@@ -289,10 +289,10 @@ def band_table(item: Derived, notes: list[tuple[Note, Caveat]]) -> BandTable | N
 
 def made(item: Derived, placed: dict[str, list[Caveat]]) -> tuple[str, ...]:
     """The routine notes, folded into one short paragraph below the numbers."""
-    level = localize_number(f"{round(100 * item.credible_level, 3):g}")
+    level = f"{localize_number(f'{round(100 * item.credible_level, 3):g}')}\u00a0%"
     text = [
         _(STANDING),
-        _("Each value is a median with the bounds of its {level}\u00a0% credible interval.").format(
+        _("Each value is a median with the bounds of its {level} credible interval.").format(
             level=level
         ),
         *(c.text for c in placed["routine"]),
