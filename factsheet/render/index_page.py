@@ -13,6 +13,7 @@ from dataclasses import dataclass
 import astropy.units as u
 
 from factsheet import labels
+from factsheet.i18n import _, decimal_text, ngettext
 from factsheet.model import Derived, SiteFigure
 from factsheet.notation import format_value
 from factsheet.render.contexts import page_of
@@ -51,7 +52,7 @@ class IndexRow:
         if self.visibility == "internal":
             return labels.INTERNAL_ONLY
         if self.embargo_until:
-            return f"{labels.EMBARGOED_UNTIL} {self.embargo_until} UTC"
+            return _("embargoed until {time} UTC").format(time=self.embargo_until)
         return ""
 
 
@@ -67,18 +68,38 @@ class IndexCount:
     @property
     def text(self) -> str:
         """``This catalogue holds 13 fact sheets.`` (internal builds name what is withheld)."""
-        total = f"{self.sheets} fact sheet{'' if self.sheets == 1 else 's'}"
-        parts = []
-        if self.internal:
-            parts.append(f"{self.internal} {labels.INTERNAL_ONLY}")
-        if self.embargoed:
-            parts.append(f"{self.embargoed} with an embargo date")
-        if not parts:
-            return f"This catalogue holds {total}."
-        return (
-            f"This catalogue holds {total}, {' and '.join(parts)}: a public build leaves out "
-            "internal sheets, and embargoed ones until their embargo ends."
-        )
+        n = decimal_text(self.sheets, 0)
+        if not (self.internal or self.embargoed):
+            return ngettext(
+                "This catalogue holds {n} fact sheet.",
+                "This catalogue holds {n} fact sheets.",
+                self.sheets,
+            ).format(n=n)
+        words = {
+            "total": ngettext("{n} fact sheet", "{n} fact sheets", self.sheets).format(n=n),
+            "internal": ngettext("{n} internal only", "{n} internal only", self.internal).format(
+                n=decimal_text(self.internal, 0)
+            ),
+            "embargoed": ngettext(
+                "{n} with an embargo date", "{n} with an embargo date", self.embargoed
+            ).format(n=decimal_text(self.embargoed, 0)),
+        }
+        if self.internal and self.embargoed:
+            text = _(
+                "This catalogue holds {total}, {internal} and {embargoed}: a public build leaves "
+                "out internal sheets, and embargoed ones until their embargo ends."
+            )
+        elif self.internal:
+            text = _(
+                "This catalogue holds {total}, {internal}: a public build leaves out internal "
+                "sheets, and embargoed ones until their embargo ends."
+            )
+        else:
+            text = _(
+                "This catalogue holds {total}, {embargoed}: a public build leaves out internal "
+                "sheets, and embargoed ones until their embargo ends."
+            )
+        return text.format(**words)
 
 
 @dataclass(frozen=True)

@@ -10,6 +10,7 @@ are in the unit a reader expects (:func:`~factsheet.render.contexts.display_summ
 from __future__ import annotations
 
 from factsheet.derive.event import input_name, measured_names
+from factsheet.i18n import _
 from factsheet.model import Derived, Summary
 from factsheet.notation import (
     format_given,
@@ -32,7 +33,8 @@ def value_text(s: Summary, kind: str = "derived") -> str:
     text = format_interval(s.median, s.low, s.high, s.unit)
     at_zero = s.low == 0 or 0 <= s.low < 1e-9 * s.high
     if at_zero and s.high > 0 and format_median(s.median, s.low, s.high).strip("0.") == "":
-        return f"below {format_value(s.high, s.unit, 2)}"
+        # TRANSLATORS: a value whose median rounds to zero, given as its upper bound
+        return _("below {value}").format(value=format_value(s.high, s.unit, 2))
     return text
 
 

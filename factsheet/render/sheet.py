@@ -22,6 +22,7 @@ from dataclasses import dataclass
 
 from factsheet import __version__, labels
 from factsheet.derive.event import measured_names
+from factsheet.i18n import N_, _, localize_number
 from factsheet.model import Audio, Caveat, Derived, Edge, Event, FigureInfo, Summary
 from factsheet.notation import (
     format_like_interval,
@@ -59,7 +60,7 @@ ROUTINE = (
 WINDOW_NOTES = ("counterpart-windows-planning-aid", "windows-beyond-calendar")
 REMNANT_NOTES = ("neutron-star-remnant", "neutron-star-disrupted", "neutron-star-plunges")
 IN_PROSE = ("large-sky-area", "retracted")  # said by the detection sentence or the opening
-STANDING = (
+STANDING = N_(
     "These numbers are derived from published fits applied to the summary given, not from a "
     "full re-analysis of the data."
 )
@@ -203,7 +204,7 @@ def spread_text(s: Summary) -> str:
     if not s.fit_spread or s.fit_spread < SPREAD_MATTERS * smaller:
         return ""
     shown = format_like_interval(s.fit_spread, s.median, s.low, s.high, s.unit)
-    return f"± {shown} systematic (fits and model)" if shown else ""
+    return _("± {spread} systematic (fits and model)").format(spread=shown) if shown else ""
 
 
 def numbered(caveats: list[Caveat]) -> list[tuple[Note, Caveat]]:
@@ -288,10 +289,12 @@ def band_table(item: Derived, notes: list[tuple[Note, Caveat]]) -> BandTable | N
 
 def made(item: Derived, placed: dict[str, list[Caveat]]) -> tuple[str, ...]:
     """The routine notes, folded into one short paragraph below the numbers."""
-    level = round(100 * item.credible_level, 3)
+    level = f"{localize_number(f'{round(100 * item.credible_level, 3):g}')}\u00a0%"
     text = [
-        STANDING,
-        f"Each value is a median with the bounds of its {level:g} % credible interval.",
+        _(STANDING),
+        _("Each value is a median with the bounds of its {level} credible interval.").format(
+            level=level
+        ),
         *(c.text for c in placed["routine"]),
     ]
     return tuple(text)
@@ -307,29 +310,59 @@ def earlier_merger(item: Derived) -> tuple[str, ...]:
     mass = f"{format_value(g.mass.low, '', 2)}–{format_value(g.mass.high, 'solMass', 2)}"
     spin = f"{format_value(g.spin.low, '', 2)}–{format_value(g.spin.high, '', 2)}"
     text = [
-        f"Stars are not expected to leave black holes in the pair-instability gap, but a merger "
-        f"can. A merger of two black holes below the gap (each of {MIN_MASS:g}–{edge:g} solar "
-        f"masses, with small spins in random directions) leaves a remnant of {mass} spinning "
-        f"at {spin} ({percent(g.mass.level)} ranges, from the fits used above)."
+        _(
+            "Stars are not expected to leave black holes in the pair-instability gap, but a "
+            "merger can. A merger of two black holes below the gap (each of {low}–{high} solar "
+            "masses, with small spins in random directions) leaves a remnant of {mass} spinning "
+            "at {spin} ({level} ranges, from the fits used above)."
+        ).format(
+            low=localize_number(f"{MIN_MASS:g}"),
+            high=localize_number(f"{edge:g}"),
+            mass=mass,
+            spin=spin,
+            level=percent(g.mass.level),
+        )
     ]
     for found in item.second_generation:
-        body = f"The {found.subject} body's mass"
-        line = f"{body} lies in that range for {_share(found.mass_inside)} of its samples"
-        if found.spin_inside is not None:
-            along = (
-                f"{format_value(found.spin_along.low, '', 2)} to "
-                f"{format_value(found.spin_along.high, '', 2)}"
-            )
-            line += (
-                f"; its spin along the orbit lies in the range such a remnant would show "
-                f"({along}, its direction random) for {_share(found.spin_inside)}"
+        heavier = found.subject == "heavier"
+        if found.spin_inside is None:
+            if heavier:
+                line = _(
+                    "The heavier body's mass lies in that range for {mass_share} of its "
+                    "samples; its spin was not given, so it cannot be compared."
+                )
+            else:
+                line = _(
+                    "The lighter body's mass lies in that range for {mass_share} of its "
+                    "samples; its spin was not given, so it cannot be compared."
+                )
+            text.append(line.format(mass_share=_share(found.mass_inside)))
+            continue
+        if heavier:
+            line = _(
+                "The heavier body's mass lies in that range for {mass_share} of its samples; "
+                "its spin along the orbit lies in the range such a remnant would show ({low} to "
+                "{high}, its direction random) for {spin_share}."
             )
         else:
-            line += "; its spin was not given, so it cannot be compared"
-        text.append(line + ".")
+            line = _(
+                "The lighter body's mass lies in that range for {mass_share} of its samples; "
+                "its spin along the orbit lies in the range such a remnant would show ({low} to "
+                "{high}, its direction random) for {spin_share}."
+            )
+        text.append(
+            line.format(
+                mass_share=_share(found.mass_inside),
+                low=format_value(found.spin_along.low, "", 2),
+                high=format_value(found.spin_along.high, "", 2),
+                spin_share=_share(found.spin_inside),
+            )
+        )
     text.append(
-        "This is a reasoning aid, not a verdict: the first-generation masses and spins are "
-        "assumptions, and a body's mass and spin can fit this picture without coming from it."
+        _(
+            "This is a reasoning aid, not a verdict: the first-generation masses and spins are "
+            "assumptions, and a body's mass and spin can fit this picture without coming from it."
+        )
     )
     return tuple(text)
 
@@ -355,10 +388,9 @@ def opening(event: Event) -> tuple[str, ...]:
         return ()
     change = next((h for h in reversed(event.history) if h.status == "retracted"), None)
     if change is None:
-        return ("Retracted: this candidate is no longer considered a real signal.",)
-    line = (
-        f"Retracted on {change.date.utc.isot[:10]}: this candidate is no longer considered a "
-        "real signal."
+        return (_("Retracted: this candidate is no longer considered a real signal."),)
+    line = _("Retracted on {date}: this candidate is no longer considered a real signal.").format(
+        date=change.date.utc.isot[:10]
     )
     return (line, change.note) if change.note else (line,)
 
@@ -430,5 +462,5 @@ def estimate_date(event: Event) -> str:
     none, the merger's day, said as such."""
     dated = [h.date for h in event.history if h.estimate is not None]
     if dated:
-        return f"estimate of {dated[-1].utc.isot[:10]} or later"
-    return f"current estimate, undated (merger {event.time.utc.isot[:10]})"
+        return _("estimate of {date} or later").format(date=dated[-1].utc.isot[:10])
+    return _("current estimate, undated (merger {date})").format(date=event.time.utc.isot[:10])

@@ -2,6 +2,9 @@
 
 from __future__ import annotations
 
+import gettext
+import re
+
 import astropy.units as u
 import yaml
 from astropy.time import Time
@@ -9,8 +12,9 @@ from helpers import VALID_EVENT
 from hypothesis import given
 from hypothesis import strategies as st
 
+from factsheet import i18n
 from factsheet.api import derive
-from factsheet.model import Caveat
+from factsheet.model import Caveat, Summary
 from factsheet.render import prose, sheet
 from factsheet.render.windows import window_times
 
@@ -158,3 +162,74 @@ def test_durations_in_words():
     assert prose.duration_words(3 * 86400) == "about 3 days"
     assert prose.duration_words(2.2e9) == "about 70 years"
     assert prose.duration_words(1.0) == "about 1 second"
+
+
+class _Loud(gettext.NullTranslations):
+    """A stand-in catalogue that writes every message in capitals (placeholders kept): words
+    that reach the page without going through the catalogue stay in lower case."""
+
+    @staticmethod
+    def _loud(message: str) -> str:
+        return re.sub(r"[^{}]+(?=\{|$)", lambda m: m.group().upper(), message)
+
+    def gettext(self, message):
+        return self._loud(message)
+
+    def ngettext(self, singular, plural, n):
+        return self._loud(singular if n == 1 else plural)
+
+
+def _no_english_left(text: str) -> bool:
+    return not re.search(r"[a-z]", text)
+
+
+def test_the_sheets_own_sentences_are_whole_messages(monkeypatch):
+    """Each sentence the sheet writes (headline, detection, opening, how the numbers were made,
+    the estimate's date, the index count) is one message of the catalogue with its numbers in
+    placeholders, not English pieces glued together (languages differ in word order)."""
+    from factsheet.render.index_page import IndexCount
+
+    monkeypatch.setattr(i18n, "translations", lambda language: _Loud())
+    confirmed = derive(event())
+    candidate = derive(event(status="candidate"))
+    retracted = derive(
+        event(
+            status="retracted",
+            history=[
+                {
+                    "label": "Withdrawn",
+                    "date": "2034-04-20",
+                    "status": "retracted",
+                    "note": "Noise.",
+                }
+            ],
+        )
+    )
+    gap = derive(
+        event(
+            estimate__heavier__mass="8.9 +1.7 -1.3 Msun",
+            estimate__lighter__mass="3.1 +0.4 -0.4 Msun",
+        )
+    )
+    with i18n.use_language("es"):
+        sentences = [
+            *prose.headline(confirmed)[:2],
+            *prose.headline(candidate)[:2],
+            *prose.headline(retracted),
+            prose.headline(gap)[0],
+            *prose.detection(confirmed)[:1],
+            *prose.detection(retracted)[:1],
+            *prose.detection(confirmed, large_sky=True)[2:3],
+            sheet.opening(retracted.event)[0],
+            sheet.made(confirmed, sheet.place(confirmed.caveats))[1],
+            sheet.estimate_date(confirmed.event),
+            sheet.estimate_date(retracted.event),
+            sheet.value_text(Summary(0.0, 0.0, 0.5, "", 0.9)),
+            IndexCount(13, 0, 0).text,
+            IndexCount(3, 1, 1).text,
+            prose.duration_words(3 * 86400),
+        ]
+    assert all(_no_english_left(s) for s in sentences), [
+        s for s in sentences if not _no_english_left(s)
+    ]
+    assert any("IF IT IS REAL" in s for s in sentences)  # the stand-in catalogue was used
