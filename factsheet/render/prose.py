@@ -16,7 +16,7 @@ from __future__ import annotations
 import astropy.units as u
 
 from factsheet import labels
-from factsheet.i18n import _, decimal_text, localize_number, ngettext
+from factsheet.i18n import _, date_text, decimal_text, localize_number, ngettext
 from factsheet.load.schema import WHOLE_SKY_DEG2
 from factsheet.model import Derived, Summary
 from factsheet.notation import (
@@ -107,7 +107,7 @@ def when(item: Derived) -> str:
 
 def headline(item: Derived) -> list[str]:
     """Two or three plain sentences from the numbers, for the top of a sheet."""
-    status, date = item.event.status, item.event.time.utc.isot[:10]
+    status, date = item.event.status, date_text(item.event.time.utc.datetime)
     words = {"bodies": _bodies(item), "when": when(item), "date": date}
     if status == "retracted":
         return [

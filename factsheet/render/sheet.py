@@ -22,7 +22,7 @@ from dataclasses import dataclass
 
 from factsheet import __version__, labels
 from factsheet.derive.event import measured_names
-from factsheet.i18n import N_, _, localize_number
+from factsheet.i18n import N_, _, date_text, localize_number
 from factsheet.model import Audio, Caveat, Derived, Edge, Event, FigureInfo, Summary
 from factsheet.notation import (
     format_like_interval,
@@ -390,7 +390,7 @@ def opening(event: Event) -> tuple[str, ...]:
     if change is None:
         return (_("Retracted: this candidate is no longer considered a real signal."),)
     line = _("Retracted on {date}: this candidate is no longer considered a real signal.").format(
-        date=change.date.utc.isot[:10]
+        date=date_text(change.date.utc.datetime)
     )
     return (line, change.note) if change.note else (line,)
 
@@ -462,5 +462,7 @@ def estimate_date(event: Event) -> str:
     none, the merger's day, said as such."""
     dated = [h.date for h in event.history if h.estimate is not None]
     if dated:
-        return _("estimate of {date} or later").format(date=dated[-1].utc.isot[:10])
-    return _("current estimate, undated (merger {date})").format(date=event.time.utc.isot[:10])
+        return _("estimate of {date} or later").format(date=date_text(dated[-1].utc.datetime))
+    return _("current estimate, undated (merger {date})").format(
+        date=date_text(event.time.utc.datetime)
+    )

@@ -180,6 +180,8 @@ class _Loud(gettext.NullTranslations):
 
 
 def _no_english_left(text: str) -> bool:
+    # dates in prose are Babel's (month names from the locale data, not our messages)
+    text = re.sub(r"\d{1,2} de [a-z]+ de \d{4}", "", text)
     return not re.search(r"[a-z]", text)
 
 
