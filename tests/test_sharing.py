@@ -53,7 +53,7 @@ def test_a_sheet_says_how_to_cite_it_and_under_which_licence(site):
     page = (site / "events" / "TEST-1.html").read_text(encoding="utf-8")
     cite = page[page.index('id="cite-heading"') :]
     assert "https://example.org/sheets/events/TEST-1.html" in cite
-    assert "current estimate, undated (merger 2034-04-12)" in cite  # no dated estimate
+    assert "current estimate, undated (merger 12 April 2034)" in cite  # no dated estimate
     assert "<em>Example catalogue</em>" in cite
     footer = page[page.index("<footer") :]
     assert "CC BY 4.0" in footer
