@@ -329,6 +329,11 @@ def date_text(day: dt.date | dt.datetime) -> str:
     return _babel_date(day, _DATE_PATTERN.get(language, "long"), locale=Locale.parse(language))
 
 
+def language_in_words(language: str) -> str:
+    """A language's name in the language in use, as written inside a sentence (``inglés``)."""
+    return Locale.parse(language).get_display_name(current()) or language
+
+
 def language_name(language: str) -> str:
     """A language's name in that language, capitalised for a menu: ``English``, ``Español``."""
     name = Locale.parse(language).get_display_name(language) or language

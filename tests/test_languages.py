@@ -188,7 +188,7 @@ class Words(HTMLParser):
 def english_left(page: Path, language: str, allowed: tuple[str, ...]) -> list[str]:
     words = Words(language)
     words.feed(page.read_text(encoding="utf-8"))
-    text = " ".join(w for w in words.words if w.strip())
+    text = re.sub(r"\{\w+\}", " ", " ".join(w for w in words.words if w.strip()))  # {shown}
     for phrase in allowed:
         text = text.replace(phrase, " ")
     return [text[max(0, m.start() - 40) : m.end() + 40] for m in ENGLISH.finditer(text)]

@@ -15,6 +15,13 @@ RETRACTED_REASON = Text(
 )
 BEYOND_CALENDAR_REASON = Text("Every window would end after the year 9999, so none is given.")
 
+#: Why a black-hole pair in vacuum gets no window (physics.counterparts.VACUUM_REASON, which
+#: is kept free of our language machinery), in the reader's language.
+VACUUM_REASON = Text(
+    "Two black holes merging in empty space leave no matter to heat, so no electromagnetic "
+    "counterpart is expected and no window is given."
+)
+
 
 def windows(
     event: Event,
@@ -44,8 +51,8 @@ def windows(
             level,
         )
         return tuple(found), _none_left(found), _window_notes(2 - len(found))
-    empty, reason = counterparts.vacuum_windows()
-    return tuple(empty), reason, []
+    empty, _reason = counterparts.vacuum_windows()
+    return tuple(empty), VACUUM_REASON, []
 
 
 def _none_left(found: list[Window]) -> str:

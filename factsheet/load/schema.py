@@ -377,9 +377,14 @@ CATALOGUE_KEYS: dict[str, Key] = {
         "limits", "guards on input size: max_file_bytes, max_depth, max_aliases, max_sample_rows"
     ),
     "licence": Key(
-        "text", "licence of the pages and exports, shown in the footer", example="CC BY 4.0"
+        "editorial_text",
+        "licence of the pages and exports, shown in the footer: one text, or one per language",
+        example="CC BY 4.0",
     ),
-    "citation": Key("markdown", "how to cite the catalogue (Markdown), shown on every sheet"),
+    "citation": Key(
+        "editorial_markdown",
+        "how to cite the catalogue (Markdown), shown on every sheet: one text, or one per language",
+    ),
     "languages": Key(
         "languages",
         "languages of the site, each one factsheet ships; the first at the site's root",

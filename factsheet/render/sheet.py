@@ -22,7 +22,16 @@ from dataclasses import dataclass
 
 from factsheet import __version__, labels
 from factsheet.derive.event import measured_names
-from factsheet.i18n import N_, _, date_text, localize_number
+from factsheet.i18n import (
+    N_,
+    Editorial,
+    _,
+    current,
+    date_text,
+    language_in_words,
+    localize_number,
+    ngettext,
+)
 from factsheet.model import Audio, Caveat, Derived, Edge, Event, FigureInfo, Summary
 from factsheet.notation import (
     format_like_interval,
@@ -164,6 +173,8 @@ class EventPage:
     samples_path: str  # the published copy of the input's samples file, or ""
     estimate_date: str  # the date the sheet's estimate is known by (see estimate_date())
     version: str  # the factsheet version that made the sheet
+    # says that some of the editors' texts are shown in their original language, or ""
+    original_note: str = ""
 
 
 def place(caveats: Iterable[Caveat]) -> dict[str, list[Caveat]]:
@@ -445,7 +456,37 @@ def event_page(
         samples_path=samples_path(event),
         estimate_date=estimate_date(event),
         version=__version__,
+        original_note=original_note(event, item.settings.languages[0]),
     )
+
+
+def original_note(event: Event, first: str) -> str:
+    """A sentence in the reader's language when some of the editors' texts of the sheet (its
+    title, summary, caveats, history, candidates' notes) have no version in it and are shown in
+    their original language; "" otherwise."""
+    texts = [
+        event.title,
+        event.summary,
+        *event.caveats,
+        *(t for step in event.history for t in (step.label, step.note)),
+        *(c.note for c in event.counterpart_candidates),
+    ]
+    shown = sorted(
+        {
+            next(iter(t.versions)) or first
+            for t in texts
+            if isinstance(t, Editorial) and t.missing_in(current(), first)
+        }
+    )
+    if not shown:
+        return ""
+    return ngettext(
+        "Some of the editors' texts on this sheet have no version in this language and are "
+        "shown in their original language ({languages}).",
+        "Some of the editors' texts on this sheet have no version in this language and are "
+        "shown in their original languages ({languages}).",
+        len(shown),
+    ).format(languages=", ".join(language_in_words(x) for x in shown))
 
 
 def _rate_in_box(item: Derived, placed: dict[str, list[Caveat]]) -> bool:

@@ -167,7 +167,11 @@ def _meta(settings: Settings) -> dict:
         "cosmology": settings.cosmology,
         "low_frequency": f"{settings.low_frequency.to_value(u.Hz):g} Hz",
         "note": NOTE,
-    } | {key: text for key in ("licence", "citation") if (text := getattr(settings, key))}
+    } | {
+        key: str.__str__(text)
+        for key in ("licence", "citation")
+        if (text := getattr(settings, key))
+    }
 
 
 def write_ecsv(table: Table) -> bytes:

@@ -121,3 +121,12 @@ def test_windows_left_out_are_counted_in_words():
 def test_magnifications_beyond_the_table_are_listed():
     note = lensing.beyond_caveat([2000.0, 5000.0])
     assert note.text.startswith("Magnified 2000, 5000 times, the source would lie beyond")
+
+
+def test_the_vacuum_reason_is_the_physics_wording_as_a_message():
+    from factsheet.derive.windows import VACUUM_REASON
+    from factsheet.physics.counterparts import VACUUM_REASON as PHYSICS_WORDING
+
+    assert str.__str__(VACUUM_REASON) == PHYSICS_WORDING
+    with use_language("es"):
+        assert str(VACUUM_REASON) != PHYSICS_WORDING
