@@ -95,6 +95,18 @@ def placed_url(context: jinja2.runtime.Context, target: str) -> str:
     return posixpath.relpath(target, here)
 
 
+def in_language_of_page(function):
+    """A filter whose words or digits depend on the language in use: marked as reading the
+    context so that Jinja does not fold it on a constant at compile time, in whichever
+    language happened to be in use then."""
+
+    @jinja2.pass_context
+    def filter_(context: jinja2.runtime.Context, *args, **kwargs):
+        return function(*args, **kwargs)
+
+    return filter_
+
+
 def make_environment() -> jinja2.Environment:
     env = jinja2.Environment(
         loader=jinja2.FileSystemLoader(templates_dir()),
@@ -107,16 +119,21 @@ def make_environment() -> jinja2.Environment:
     env.filters.update(
         url=url_filter,
         placed_url=placed_url,
-        in_language=i18n.localized,
         editorial=editorial_html,
         original_language=original_language,
-        language_name=i18n.language_name,
         markdown=markdown_filter,
-        unit=unit_text,
-        interval=lambda s: format_interval(s.median, s.low, s.high, s.unit),
-        value=format_value,
-        percent=percent,
-        label=lambda key: QUANTITIES[key].short,
+        **{
+            name: in_language_of_page(function)
+            for name, function in {
+                "in_language": i18n.localized,
+                "language_name": i18n.language_name,
+                "unit": unit_text,
+                "interval": lambda s: format_interval(s.median, s.low, s.high, s.unit),
+                "value": format_value,
+                "percent": percent,
+                "label": lambda key: i18n.localized(QUANTITIES[key].short),
+            }.items()
+        },
     )
     # {{ _("...") }}, {{ ngettext(...) }} and {% trans %} in the language in use (newstyle:
     # parameters are escaped and a literal per cent sign is written %%)
