@@ -84,3 +84,19 @@ def test_spanish_plural_rule():
         assert i18n.translations("es").plural(1) == 0
         assert i18n.translations("es").plural(2) == 1
         assert i18n.translations("es").plural(0) == 1
+
+
+def test_the_method_registry_texts_are_extracted_as_python_joins_them():
+    """Every registered method's title, range of validity and accuracy is a message (the
+    registry imports nothing of the interface; the methods page translates them)."""
+    import io
+
+    from factsheet.physics.registry import METHODS
+
+    source = b'Method(id="x", title="two " "pieces", formula="f", validity=name, accuracy="")\n'
+    found = list(messages.extract_registry(io.BytesIO(source), {}, [], {}))
+    assert [text for _, _, text, _ in found] == ["two pieces"]
+    ids = {m.id for m in messages.template() if m.id}
+    for method in METHODS.values():
+        assert {method.title, method.validity, method.accuracy} <= ids, method.id
+    assert "not stated" in ids

@@ -11,12 +11,14 @@ new to a language are left empty for its translator (``check`` lists them). The 
 with Babel's command line: ``pybabel extract -F babel.cfg -k N_ -k Text -k Plural:1,2
 -k pgettext:1c,2 -k count_words:2,3 -o factsheet/locale/factsheet.pot .``, ``pybabel update
 -D factsheet -i factsheet/locale/factsheet.pot -d factsheet/locale``, ``pybabel compile -D
-factsheet -d factsheet/locale`` (the labels of the packaged reference data,
-``factsheet/data/*.yaml``, are read by :func:`extract_data_labels` of this script only).
+factsheet -d factsheet/locale`` (the texts of the packaged reference data,
+``factsheet/data/*.yaml``, and those of the physics method registry, ``factsheet/physics/*.py``,
+are read by :func:`extract_reference_data` and :func:`extract_registry` of this script only).
 """
 
 from __future__ import annotations
 
+import ast
 import datetime
 import io
 import sys
@@ -47,26 +49,89 @@ def extract_data_labels(fileobj, keywords, comment_tags, options):
     """Babel extraction method for the packaged reference data (``factsheet/data/*.yaml``):
     every ``label`` of a mapping is a message (load/reference.py shows it translated)."""
     root = yaml.compose(fileobj.read().decode(options.get("encoding", "utf-8")))
-    yield from _labels(root, "")
+    yield from _texts(root, "", ("label",))
 
 
-def _labels(node, where: str):
+#: The texts of the packaged reference data the methods page shows besides the labels: the
+#: sources and spreads of the mass-band edges and comparisons, the bases of the counterpart
+#: time scales (render/methods_page.py translates them; the citations in them stay as written).
+DATA_TEXTS = ("source", "spread", "basis")
+
+
+def extract_reference_data(fileobj, keywords, comment_tags, options):
+    """Babel extraction method for the packaged reference data: the labels (as
+    :func:`extract_data_labels`) and the texts of :data:`DATA_TEXTS`, in file order."""
+    root = yaml.compose(fileobj.read().decode(options.get("encoding", "utf-8")))
+    yield from _texts(root, "", ("label", *DATA_TEXTS))
+
+
+def _texts(node, where: str, names: tuple[str, ...]):
     if isinstance(node, yaml.MappingNode):
         for key, value in node.value:
             name = f"{where}.{key.value}" if where else str(key.value)
-            if key.value == "label" and isinstance(value, yaml.ScalarNode) and value.value:
-                yield value.start_mark.line + 1, None, value.value, [f"reference data: {where}"]
+            if key.value in names and isinstance(value, yaml.ScalarNode) and value.value:
+                comment = f"reference data: {where}"
+                if key.value != "label":
+                    comment += f" ({key.value})"
+                yield value.start_mark.line + 1, None, value.value, [comment]
             else:
-                yield from _labels(value, name)
+                yield from _texts(value, name, names)
     elif isinstance(node, yaml.SequenceNode):
         for index, item in enumerate(node.value):
-            yield from _labels(item, f"{where}[{index}]")
+            yield from _texts(item, f"{where}[{index}]", names)
+
+
+#: The texts of a registry record the methods page shows (render/methods_page.py translates
+#: them); formulas and citations are shown as written.
+REGISTRY_TEXTS = ("title", "validity", "accuracy")
+
+
+def extract_registry(fileobj, keywords, comment_tags, options):
+    """Babel extraction method for the physics modules (``factsheet/physics/*.py``), which
+    import nothing of the interface: the string constants given as ``title``, ``validity`` or
+    ``accuracy`` to a ``Method(...)`` record, and the defaults of those fields in the class
+    itself ("not stated"). Implicitly concatenated constants are one string, as Python reads
+    them."""
+    tree = ast.parse(fileobj.read().decode(options.get("encoding", "utf-8")))
+    for node in ast.walk(tree):
+        if isinstance(node, ast.Call) and _called(node.func) == "Method":
+            ident = next(
+                (k.value.value for k in node.keywords if k.arg == "id" and _text(k.value)), "?"
+            )
+            for keyword in node.keywords:
+                if keyword.arg in REGISTRY_TEXTS and _text(keyword.value):
+                    text = keyword.value.value
+                    yield keyword.value.lineno, None, text, [f"method {ident}: {keyword.arg}"]
+        elif isinstance(node, ast.ClassDef) and node.name == "Method":
+            for item in node.body:
+                if (
+                    isinstance(item, ast.AnnAssign)
+                    and isinstance(item.target, ast.Name)
+                    and item.target.id in REGISTRY_TEXTS
+                    and item.value is not None
+                    and _text(item.value)
+                ):
+                    comment = f"method: {item.target.id} when a method gives none"
+                    yield item.value.lineno, None, item.value.value, [comment]
+
+
+def _called(func: ast.expr) -> str | None:
+    if isinstance(func, ast.Name):
+        return func.id
+    if isinstance(func, ast.Attribute):
+        return func.attr
+    return None
+
+
+def _text(node: ast.expr) -> bool:
+    return isinstance(node, ast.Constant) and isinstance(node.value, str) and bool(node.value)
 
 
 METHODS = [
+    ("factsheet/physics/*.py", extract_registry),  # before the rest of the package: first wins
     ("factsheet/**.py", "python"),
     ("templates/**.html", "jinja2"),
-    ("factsheet/data/*.yaml", extract_data_labels),
+    ("factsheet/data/*.yaml", extract_reference_data),
 ]
 OPTIONS = {"templates/**.html": {"trim_blocks": "true", "lstrip_blocks": "true"}}
 # Spanish plural forms as GNU gettext writes them (one, other); CLDR's separate form for

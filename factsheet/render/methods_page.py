@@ -7,11 +7,18 @@ links to their abstracts, rest-frame delays in the units people use ("60 days to
 sources only: how a value was obtained (the ``provenance`` notes of the registry and the data
 files) stays with the maintainers. The words are in the language in use (the context is built
 inside ``factsheet.i18n.use_language``); formulas and references stay as they are written.
+
+The registry (:mod:`factsheet.physics`, which imports nothing of the interface) and the packaged
+reference data keep their texts in English; they are translated here, each English text being its
+own message: a method's title, range of validity and accuracy, and the sources, spreads and bases
+of the reference data (``tools/messages.py`` extracts them from the registry's source and the
+data files). A text given in ``catalogue.yaml`` is not in the catalogues and is shown as written.
 """
 
 from __future__ import annotations
 
 import re
+import unicodedata
 from dataclasses import dataclass
 
 from markupsafe import Markup, escape
@@ -31,6 +38,7 @@ _SCRIPT = re.compile(r"([\^_])\{([^{}]*)\}")
 class MethodEntry:
     method: Method
     events: tuple[str, ...]
+    title: str  # in the language in use
     citation: Markup  # the source, with its arXiv id as a link
     formula: Markup  # Unicode, with <sup> and <sub>
     validity: Markup
@@ -75,12 +83,12 @@ def methods_page(derived: list[Derived], reference: Reference) -> MethodsPage:
         ids = {m for summary in item.quantities.values() for m in summary.methods}
         for method_id in ids | set(item.other_methods):
             used.setdefault(method_id, set()).add(item.event.id)
-    entries = tuple(
-        method_entry(m, tuple(sorted(used.get(m.id, ()))))
-        for m in sorted(METHODS.values(), key=lambda m: (not used.get(m.id), m.title))
+    entries = sorted(
+        (method_entry(m, tuple(sorted(used.get(m.id, ())))) for m in METHODS.values()),
+        key=lambda e: (not e.events, _collation(e.title), e.title),
     )
     scales = tuple(
-        WindowScale(labels.WINDOWS[w.key].name, w, delay_range(w), linked(w.basis))
+        WindowScale(labels.WINDOWS[w.key].name, w, delay_range(w), linked(translated(w.basis)))
         for w in reference.windows
     )
     levels = tuple(sorted({d.settings.credible_level for d in derived}))
@@ -88,8 +96,8 @@ def methods_page(derived: list[Derived], reference: Reference) -> MethodsPage:
         SourcedValue(
             e.label,
             _value(e.value.to("solMass")),
-            linked(e.source),
-            linked(e.spread),
+            linked(translated(e.source)),
+            linked(translated(e.spread)),
             e.overridden,
         )
         for e in reference.mass_bands.edges()
@@ -98,13 +106,25 @@ def methods_page(derived: list[Derived], reference: Reference) -> MethodsPage:
         SourcedValue(
             c.label,
             _value(c.value),
-            linked(c.source),
+            linked(translated(c.source)),
             Markup(""),
             c.overridden,
         )
         for c in reference.comparisons
     )
-    return MethodsPage(entries, reference, scales, levels, edges, comparisons)
+    return MethodsPage(tuple(entries), reference, scales, levels, edges, comparisons)
+
+
+def translated(text: str) -> str:
+    """A text of the registry or the reference data in the language in use (the English text is
+    the message); an empty text stays empty."""
+    return _(text) if text else text
+
+
+def _collation(title: str) -> str:
+    """A title as the page orders it: letters without their accents ("Órbita" among the O's)."""
+    decomposed = unicodedata.normalize("NFD", title.casefold())
+    return "".join(c for c in decomposed if not unicodedata.combining(c))
 
 
 def _value(q) -> str:
@@ -121,10 +141,11 @@ def method_entry(method: Method, events: tuple[str, ...]) -> MethodEntry:
     return MethodEntry(
         method,
         events,
+        translated(method.title),
         linked(citation),
         scripts(method.formula),
-        scripts(method.validity),
-        scripts(method.accuracy),
+        scripts(translated(method.validity)),
+        scripts(translated(method.accuracy)),
     )
 
 
