@@ -206,7 +206,7 @@ def test_no_english_is_left_on_the_spanish_demo(demo_site):
     assert "es" in settings.languages
     allowed = (
         str.__str__(settings.title),  # the catalogue's own title, as its editors gave it
-        "Statistical Review of World Energy",  # a cited report's title, in a sources cell
+        "Energy Institute, Statistical Review of World Energy",  # a cited report, in a sources cell
     )
     pages = sorted((demo_site / "es").rglob("*.html"))
     assert len(pages) > 10
