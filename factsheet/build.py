@@ -73,6 +73,15 @@ def build_time() -> Time:
     return Time(int(epoch), format="unix")
 
 
+def available_cores() -> int:
+    """The cores this process may run on (its CPU affinity where the system has one, which a
+    container or ``taskset`` narrows), the default number of build workers."""
+    try:
+        return max(1, len(os.sched_getaffinity(0)))
+    except AttributeError:  # no affinity on this system
+        return os.cpu_count() or 1
+
+
 def select_events(catalogue: Catalogue, audience: str, now: Time) -> tuple[list[Event], int, int]:
     """The events an audience may see, and how many were withheld as internal or embargoed."""
     if audience == "internal":
@@ -135,7 +144,7 @@ def _build_locked(events, settings, out, audience, force, jobs, progress: Progre
     """The part of a build that writes: bundles, pages, the swap; the output's lock is held."""
     cache = Cache(out)
     with Staging(out, force) as staging:
-        bundles, made = make_bundles(events, settings, cache, jobs or os.cpu_count() or 1, progress)
+        bundles, made = make_bundles(events, settings, cache, jobs or available_cores(), progress)
         for i, bundle in enumerate(bundles):
             try:
                 cache.copy_files(bundle.key, staging.write)

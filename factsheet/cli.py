@@ -75,7 +75,7 @@ def make_parser() -> argparse.ArgumentParser:
         "--jobs",
         type=_positive,
         default=None,
-        help="worker processes (default: the number of CPUs)",
+        help="worker processes (default: the cores this process may run on)",
     )
     b.add_argument(
         "--force",

@@ -73,3 +73,8 @@ def test_keys_and_fingerprints_are_computed_once(catalogue, tmp_path, monkeypatc
     build(folder, tmp_path / "site", jobs=1)
     assert len(keys) == 2
     assert len(prints) == 1
+
+
+def test_workers_default_to_the_cores_the_process_may_use(monkeypatch):
+    monkeypatch.setattr(build_module.os, "sched_getaffinity", lambda pid: {0, 3, 5}, raising=False)
+    assert build_module.available_cores() == 3

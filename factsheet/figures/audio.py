@@ -33,6 +33,10 @@ from factsheet.physics.inspiral import frequency_at_time, time_to_merger
 
 FULL_SCALE = 0.8  # peak amplitude as a fraction of 16-bit full scale
 AUDIBLE_CEILING = 4 * u.kHz  # the top of the chirp is lowered below this (and below 0.4 rate)
+# The lowest standard sample rate whose 0.4 × rate (4410 Hz, safely below the Nyquist
+# frequency) stays above the audible ceiling: every tone the sound plays is kept, and the file
+# is half the size of one at 22 050 Hz.
+SAMPLE_RATE = 11025
 SMALL_SPEAKER_FLOOR = 150 * u.Hz  # small loudspeakers play little below this (common practice)
 MIN_RINGDOWN_DAMPING = 0.15 * u.s  # an audible ringdown decays no faster than this
 RINGDOWN_DAMPINGS = 4.0  # the ringdown segment lasts this many damping times (e^-4 ~ 2 %)
@@ -62,7 +66,7 @@ def chirp_wav(
     f_ringdown: u.Quantity | None,
     tau_ringdown: u.Quantity | None,
     *,
-    sample_rate: int = 22050,
+    sample_rate: int = SAMPLE_RATE,
     max_seconds: float = 6.0,
     pitch_factor: float | None = None,
 ) -> Chirp:
@@ -120,7 +124,7 @@ def chirp_wav(
 
 
 def speaker_shift(
-    f_low: u.Quantity, f_final: u.Quantity, played: float = 1.0, *, sample_rate: int = 22050
+    f_low: u.Quantity, f_final: u.Quantity, played: float = 1.0, *, sample_rate: int = SAMPLE_RATE
 ) -> float | None:
     """The factor (a power of two) of a copy small speakers can play, or None if none is needed.
 

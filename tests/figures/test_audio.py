@@ -13,7 +13,13 @@ import numpy as np
 import pytest
 from astropy.constants import G, c
 
-from factsheet.figures.audio import SMALL_SPEAKER_FLOOR, chirp_wav, speaker_shift
+from factsheet.figures.audio import (
+    AUDIBLE_CEILING,
+    SAMPLE_RATE,
+    SMALL_SPEAKER_FLOOR,
+    chirp_wav,
+    speaker_shift,
+)
 
 # Invented binaries in the detector frame. f_merger is the Schwarzschild ISCO frequency of the
 # detector-frame total mass; ringdown values are of the size the Berti, Cardoso & Will 2006 fits
@@ -88,7 +94,8 @@ def inspiral_seconds(case, chirp):
 def test_wav_is_16_bit_mono_pcm_within_limits(name):
     chirp = chirp_wav(**CASES[name])
     params, _ = read(chirp)
-    assert (params.nchannels, params.sampwidth, params.framerate) == (1, 2, 22050)
+    assert (params.nchannels, params.sampwidth, params.framerate) == (1, 2, SAMPLE_RATE)
+    assert AUDIBLE_CEILING.to_value(u.Hz) <= SAMPLE_RATE * 0.4  # the highest tone is kept
     assert params.nframes / params.framerate == pytest.approx(chirp.duration_s)
     assert 0.5 < chirp.duration_s <= 6.0
     assert len(chirp.wav) <= 300_000
@@ -106,7 +113,7 @@ def test_inspiral_follows_peters_f_of_tau(name):
     # astropy (CODATA 2018, IAU 2015). Played time t maps to tau = tau(f_low) - time_factor * t.
     case, chirp = CASES[name], chirp_wav(**CASES[name])
     _, x = read(chirp)
-    t = upward_zero_crossings(x, 22050)
+    t = upward_zero_crossings(x, SAMPLE_RATE)
     t = t[t < inspiral_seconds(case, chirp)]  # whole periods before the merger
     tau0 = peters_time(case["chirp_mass_detector"], case["f_low"].to_value(u.Hz))
     f = peters_frequency(case["chirp_mass_detector"], tau0 - chirp.time_factor * t)
@@ -122,7 +129,7 @@ def test_dominant_frequency_rises_through_the_inspiral(name):
     case, chirp = CASES[name], chirp_wav(**CASES[name])
     _, x = read(chirp)
     edges = np.linspace(0, inspiral_seconds(case, chirp), 6)
-    peaks = [peak_frequency(x, 22050, a, b) for a, b in itertools.pairwise(edges)]
+    peaks = [peak_frequency(x, SAMPLE_RATE, a, b) for a, b in itertools.pairwise(edges)]
     assert all(later >= 0.98 * earlier for earlier, later in itertools.pairwise(peaks))
     assert peaks[-1] > 1.2 * peaks[0]
 
@@ -133,14 +140,14 @@ def test_final_tone_is_the_shifted_ringdown_frequency(name):
     _, x = read(chirp)
     end = chirp.duration_s
     played = case["f_ringdown"].to_value(u.Hz) * chirp.pitch_factor
-    assert peak_frequency(x, 22050, end - 0.45, end - 0.05) == pytest.approx(played, rel=0.01)
+    assert peak_frequency(x, SAMPLE_RATE, end - 0.45, end - 0.05) == pytest.approx(played, rel=0.01)
 
 
 def test_millisecond_ringdown_is_lengthened_to_an_audible_decay():
     # rms over equal windows 0.1 s apart falls by exp(-0.1 s / 0.15 s) for the lengthened decay.
     chirp = chirp_wav(**BBH)
     _, x = read(chirp)
-    end, rate = chirp.duration_s, 22050
+    end, rate = chirp.duration_s, SAMPLE_RATE
     rms = [
         np.sqrt(np.mean(x[int(a * rate) : int((a + 0.1) * rate)] ** 2))
         for a in (end - 0.35, end - 0.45)
@@ -157,7 +164,7 @@ def test_no_clipping_and_no_click(name):
     assert np.abs(x).max() == pytest.approx(0.8, rel=0.02)
     # A sinusoid of amplitude A at f moves at most 2 pi f A / rate per sample; a click would not.
     f_top = max(case["f_merger"], case["f_ringdown"]).to_value(u.Hz) * chirp.pitch_factor
-    assert np.abs(np.diff(x)).max() <= 1.05 * 2 * np.pi * f_top / 22050 * 0.8
+    assert np.abs(np.diff(x)).max() <= 1.05 * 2 * np.pi * f_top / SAMPLE_RATE * 0.8
     assert abs(x[0]) < 1e-3 and abs(x[-1]) < 1e-3
 
 
@@ -173,7 +180,7 @@ def test_heavy_pair_plays_observed_frequencies_however_low():
     assert chirp.pitch_factor == 1.0
     _, x = read(chirp)
     end = chirp.duration_s
-    assert peak_frequency(x, 22050, end - 0.45, end - 0.05) == pytest.approx(52, rel=0.01)
+    assert peak_frequency(x, SAMPLE_RATE, end - 0.45, end - 0.05) == pytest.approx(52, rel=0.01)
 
 
 def test_neutron_star_pair_is_compressed_and_lowered_below_4_khz():
@@ -220,10 +227,10 @@ def test_shifted_copy_is_the_same_sound_with_every_frequency_times_the_factor(ca
     assert p1.nframes == p2.nframes and shifted.duration_s == plain.duration_s
     assert shifted.pitch_factor == factor and shifted.time_factor == plain.time_factor
     end = plain.duration_s
-    tone = [peak_frequency(x, 22050, end - 0.45, end - 0.05) for x in (x1, x2)]
+    tone = [peak_frequency(x, SAMPLE_RATE, end - 0.45, end - 0.05) for x in (x1, x2)]
     assert tone[1] == pytest.approx(factor * tone[0], rel=0.01)
     assert tone[0] == pytest.approx(case["f_ringdown"].to_value(u.Hz), rel=0.01)
-    crossings = [upward_zero_crossings(x, 22050).size for x in (x1, x2)]
+    crossings = [upward_zero_crossings(x, SAMPLE_RATE).size for x in (x1, x2)]
     assert crossings[1] == pytest.approx(factor * crossings[0], rel=0.02)
 
 
