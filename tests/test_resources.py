@@ -49,3 +49,4 @@ def test_wheel_ships_templates_and_demo(tmp_path):
     assert "factsheet/events_demo/catalogue.yaml" in names
     assert "factsheet/data/mass_bands.yaml" in names
     assert "factsheet/physics/_qnm_table.py" in names
+    assert "factsheet/locale/es/LC_MESSAGES/factsheet.mo" in names  # the compiled catalogue
