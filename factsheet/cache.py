@@ -353,7 +353,7 @@ def bundle_from_json(
         intermediate_mass=dict(data["intermediate_mass"]),
         disruption_probability=data["disruption_probability"],
         windows=tuple(_window(w) for w in data["windows"]),
-        no_window_reason=str(data["no_window_reason"]),
+        no_window_reason=_words(data["no_window_reason"]),
         comparisons=Comparisons(
             dict(data["energy"]),
             dict(data["luminosity"]),
@@ -370,6 +370,14 @@ def bundle_from_json(
         for language, infos in data["figures"].items()
     }
     return EventBundle(derived, figures, Audio(**data["audio"]), {}, data["figure_seconds"])
+
+
+def _words(value: Any) -> str:
+    """Words read back from an entry as they were stored: a kept message stays one (``str()``
+    would fix it in the language in use while loading)."""
+    if not isinstance(value, str):
+        raise TypeError(f"expected text, got {type(value).__name__}")
+    return value
 
 
 def _summary(v: dict[str, Any]) -> Summary:

@@ -212,3 +212,35 @@ def test_no_english_is_left_on_the_spanish_demo(demo_site):
     assert len(pages) > 10
     leaks = {p.relative_to(demo_site).as_posix(): english_left(p, "es", allowed) for p in pages}
     assert {k: v for k, v in leaks.items() if v} == {}
+
+
+def test_a_sheet_from_the_build_cache_reads_as_a_fresh_one_in_every_language():
+    """Every kept message survives the cache's JSON: the Spanish page of a bundle read back
+    from the cache is the page of the freshly made bundle."""
+    from factsheet.build import event_bundle
+    from factsheet.cache import bundle_from_json, bundle_to_json
+    from factsheet.i18n import use_language
+    from factsheet.load import load_catalogue
+    from factsheet.load.reference import reference_for
+    from factsheet.render import sheet
+    from factsheet.render.environment import make_environment
+    from factsheet.render.site import Renderer
+    from factsheet.resources import demo_dir
+
+    catalogue = load_catalogue(demo_dir())
+    settings, reference = catalogue.settings, reference_for(catalogue.settings)
+    env = make_environment()
+    for event in catalogue.events[:3]:
+        fresh = event_bundle(event, settings, reference)
+        stored = json.loads(json.dumps(bundle_to_json(fresh)))
+        again = bundle_from_json(stored, event, settings, reference)
+        for language in settings.languages:
+            pages = []
+            for bundle in (fresh, again):
+                with use_language(language):
+                    context = sheet.event_page(
+                        bundle.derived, None, None, bundle.figures[language], bundle.audio
+                    )
+                    renderer = Renderer(env, settings, "public", "", language)
+                    pages.append(renderer.page("event.html", "events/x.html", context))
+            assert pages[0] == pages[1], (event.id, language)
