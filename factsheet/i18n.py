@@ -118,9 +118,28 @@ def _plural_n(n: float) -> int:
 # --- words kept for later ---------------------------------------------------------------------
 
 
+class _Shown:
+    """Words shown in the language in use: ``str()``, ``format()`` and HTML escaping give
+    :meth:`localized`."""
+
+    __slots__ = ()
+
+    def localized(self) -> str:
+        raise NotImplementedError
+
+    def __str__(self) -> str:
+        return self.localized()
+
+    def __format__(self, spec: str) -> str:
+        return format(self.localized(), spec)
+
+    def __html__(self) -> str:
+        return str(escape(self.localized()))
+
+
 def _shown(value: Any) -> str:
     """A parameter of a message as shown in the language in use."""
-    if isinstance(value, Text | Later | Editorial):
+    if isinstance(value, _Shown):
         return value.localized()
     if isinstance(value, bool):
         return str(value)
@@ -129,7 +148,7 @@ def _shown(value: Any) -> str:
     return str(value)
 
 
-class Text(str):
+class Text(_Shown, str):
     """A message with its parameters, shown in the language in use each time it is shown.
 
     The ``str`` value is the English wording (what exports and comparisons see); ``str()``,
@@ -150,28 +169,13 @@ class Text(str):
 
     @classmethod
     def _make(cls, key: tuple, params: dict[str, Any]) -> Self:
-        english = _fill(_pick(_gettext.NullTranslations(), key), params, SOURCE)
-        self = super().__new__(cls, english)
+        self = str.__new__(cls, _wording(key, params, SOURCE))
         self._key, self._params = key, tuple(sorted(params.items()))
         return self
 
     def localized(self) -> str:
         """The wording in the language in use."""
-        language = current()
-        if language == SOURCE:
-            return _fill(
-                _pick(_gettext.NullTranslations(), self._key), dict(self._params), language
-            )
-        return _fill(_pick(translations(language), self._key), dict(self._params), language)
-
-    def __str__(self) -> str:
-        return self.localized()
-
-    def __format__(self, spec: str) -> str:
-        return format(self.localized(), spec)
-
-    def __html__(self) -> str:
-        return str(escape(self.localized()))
+        return _wording(self._key, dict(self._params), current())
 
     def __reduce__(self):
         return (_rebuild, (type(self), self._key, dict(self._params)))
@@ -193,24 +197,24 @@ def _rebuild(cls: type[Text], key: tuple, params: dict[str, Any]) -> Text:
     return cls._make(key, params)
 
 
-def _pick(catalogue: _gettext.NullTranslations, key: tuple) -> str | tuple[str, str]:
-    return catalogue.gettext(key[0]) if len(key) == 1 else (catalogue, key)  # type: ignore[return-value]
-
-
-def _fill(message: Any, params: dict[str, Any], language: str) -> str:
+def _wording(key: tuple, params: dict[str, Any], language: str) -> str:
+    """A message (``(message,)`` or ``(singular, plural)``, chosen by ``params["n"]``) in
+    ``language``, its parameters shown in that language too."""
+    catalogue = translations(language)
+    if len(key) == 1:
+        message = catalogue.gettext(key[0])
+    else:
+        message = catalogue.ngettext(key[0], key[1], _plural_n(params["n"]))
+    if not params:
+        return message
     token = _language.set(language)
     try:
-        if isinstance(message, tuple):  # (catalogue, (singular, plural)): choose by n
-            catalogue, (singular, plural) = message
-            message = catalogue.ngettext(singular, plural, _plural_n(params["n"]))
-        if not params:
-            return message
         return message.format(**{k: _shown(v) for k, v in params.items()})
     finally:
         _language.reset(token)
 
 
-class Later:
+class Later(_Shown):
     """A value formatted when shown, in the language in use: ``Later(format_value, 3.2, "km")``.
 
     ``function`` must be importable by name (a module-level function), so that the value can be
@@ -225,12 +229,6 @@ class Later:
     def localized(self) -> str:
         return self.function(*self.args)
 
-    def __str__(self) -> str:
-        return self.localized()
-
-    def __format__(self, spec: str) -> str:
-        return format(self.localized(), spec)
-
     def __eq__(self, other: object) -> bool:
         return isinstance(other, Later) and (self.function, self.args) == (
             other.function,
@@ -244,7 +242,7 @@ class Later:
         return (Later, (self.function, *self.args))
 
 
-class Editorial(str):
+class Editorial(_Shown, str):
     """An editor's text from the input (a title, a summary, a caveat, a note) with its versions
     by language, as given: ``summary: {en: ..., es: ...}`` or one plain text.
 
@@ -273,15 +271,6 @@ class Editorial(str):
             return False
         return not ("" in self.versions and language == first)
 
-    def __str__(self) -> str:
-        return self.localized()
-
-    def __format__(self, spec: str) -> str:
-        return format(self.localized(), spec)
-
-    def __html__(self) -> str:
-        return str(escape(self.localized()))
-
     def __reduce__(self):
         return (Editorial, (self.versions,))
 
@@ -291,7 +280,7 @@ class Editorial(str):
 
 def localized(value: Any) -> Any:
     """``value`` in the language in use when it is kept or editors' words, else as is."""
-    return value.localized() if isinstance(value, Text | Later | Editorial) else value
+    return value.localized() if isinstance(value, _Shown) else value
 
 
 # --- numbers and dates ------------------------------------------------------------------------
