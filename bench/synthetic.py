@@ -62,7 +62,7 @@ def event_text(i: int, rng: np.random.Generator) -> str:
     if i % 10 == 1:
         lines += [
             "history:",
-            '  - date: "2035-01-01"',
+            '  - date: "2036-01-01"',
             "    label: rapid estimate",
             "    estimate:",
             f"      heavier: {{mass: {_interval(m1 * 1.1, 0.3, 'Msun')}}}",

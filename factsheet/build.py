@@ -10,7 +10,6 @@ from __future__ import annotations
 
 import contextlib
 import ctypes
-import json
 import multiprocessing
 import os
 import signal
@@ -24,7 +23,8 @@ from pathlib import Path
 import numpy as np
 from astropy.time import Time
 
-from factsheet.cache import Cache, cached_files, content_key, event_key
+from factsheet import i18n
+from factsheet.cache import Cache, content_key, event_key
 from factsheet.derive import derive_event
 from factsheet.errors import BuildError, InputError, Problem
 from factsheet.i18n import use_language
@@ -141,28 +141,30 @@ def build(
 
 
 def _build_locked(events, settings, out, audience, force, jobs, progress: Progress):
-    """The part of a build that writes: bundles, pages, the swap; the output's lock is held."""
+    """The part of a build that writes: bundles, pages, the swap; the output's lock is held.
+
+    Files an unchanged entry of the cache recorded are linked from the site being replaced;
+    everything else is written afresh into the staging folder."""
     cache = Cache(out)
     with Staging(out, force) as staging:
-        bundles, made = make_bundles(events, settings, cache, jobs or available_cores(), progress)
-        for i, bundle in enumerate(bundles):
-            try:
-                cache.copy_files(bundle.key, staging.write)
-            except BuildError:  # its files changed since they were stored: make it again
-                bundles[i] = cache.store(
-                    bundle.key, event_bundle(events[i], settings, bundle.derived.reference)
-                )
-                made.append(bundles[i])
-                cache.copy_files(bundle.key, staging.write)
+        bundles, made = make_bundles(
+            events, settings, cache, jobs or available_cores(), progress, staging
+        )
         index = _index_figures(bundles, settings, cache)
 
-        def memo(parts: tuple, make) -> dict[str, bytes]:
-            return cached_files(cache, content_key("page", *parts), make)
+        def memo(parts: tuple, make) -> dict[str, bytes] | None:
+            key = content_key("page", *parts)
+            if cache.place(key, staging.link):
+                return None  # already in place
+            files = make()
+            cache.store_files(key, files)
+            return files
 
         site = StagedSite(staging, progress)
         render_site(bundles, settings, audience, index, site=site, memo=memo)
         progress.step(site.written, site.written, "pages and files written")
         staging.commit()
+        cache.stamp_site(staging.placed)
     cache.prune()
     return made, index, len(bundles)
 
@@ -187,12 +189,22 @@ class StagedSite(Site):
 
 
 def make_bundles(
-    events: list[Event], settings: Settings, cache: Cache, jobs: int, progress: Progress
+    events: list[Event],
+    settings: Settings,
+    cache: Cache,
+    jobs: int,
+    progress: Progress,
+    staging: Staging,
 ) -> tuple[list[EventBundle], list[EventBundle]]:
-    """Every event's bundle, from the cache or made afresh; also the freshly made ones."""
+    """Every event's bundle, from the cache or made afresh, its files placed in ``staging``;
+    also the freshly made ones. A cached bundle whose files the published site no longer
+    holds as recorded is made again."""
     keys = [event_key(e, settings) for e in events]
     reference = reference_for(settings)
     bundles = [cache.load(k, e, settings, reference) for k, e in zip(keys, events, strict=True)]
+    for i, bundle in enumerate(bundles):
+        if bundle is not None and not cache.place(bundle.key, staging.link):
+            bundles[i] = None
     todo = [i for i, b in enumerate(bundles) if b is None]
     made, failures = [], []
     for done, (i, result) in enumerate(_run(todo, events, settings, reference, jobs), 1):
@@ -206,6 +218,8 @@ def make_bundles(
                 )
             )
             continue
+        for name, data in result.files.items():
+            staging.write(name, data)
         bundles[i] = cache.store(keys[i], result)  # drops the file bytes from memory
         made.append(bundles[i])
         progress.step(done, len(todo), "events derived and drawn")
@@ -309,28 +323,28 @@ def _index_figures(
             for d in derived
         ],
     )
+    found = cache.files_and_notes(key)
+    if found is not None:
+        files, meta = found
+        try:
+            return {
+                str(lang): [SiteFigure(p, files[p], alt, cap) for p, alt, cap in rows]
+                for lang, rows in i18n.from_json(meta).items()
+            }
+        except (KeyError, TypeError, ValueError, AttributeError):
+            pass  # not what this build stores: draw them again
+    from factsheet.render import figures  # matplotlib loads only when drawing
+
+    files: dict[str, bytes] = {}
     stored: dict[str, list[SiteFigure]] = {}
-
-    def make() -> dict[str, bytes]:
-        from factsheet.render import figures  # matplotlib loads only when drawing
-
-        files: dict[str, bytes] = {}
-        for n, language in enumerate(settings.languages):
-            with use_language(language):
-                drawn = figures.index_figures(derived, edges)
-            for fig in drawn:
-                if n and files.get(fig.path) != fig.svg:
-                    fig = replace(fig, path=language_path(language, fig.path))
-                files[fig.path] = fig.svg
-                stored.setdefault(language, []).append(fig)
-        meta = {lang: [[f.path, f.alt, f.caption] for f in figs] for lang, figs in stored.items()}
-        return {**files, "index.json": json.dumps(meta).encode()}
-
-    files = cached_files(cache, key, make)
-    if stored:
-        return stored
-    meta = json.loads(files["index.json"])
-    return {
-        lang: [SiteFigure(p, files[p], alt, cap) for p, alt, cap in rows]
-        for lang, rows in meta.items()
-    }
+    for n, language in enumerate(settings.languages):
+        with use_language(language):
+            drawn = figures.index_figures(derived, edges)
+        for fig in drawn:
+            if n and files.get(fig.path) != fig.svg:
+                fig = replace(fig, path=language_path(language, fig.path))
+            files[fig.path] = fig.svg
+            stored.setdefault(language, []).append(fig)
+    meta = {lang: [[f.path, f.alt, f.caption] for f in figs] for lang, figs in stored.items()}
+    cache.store_files(key, files, i18n.to_json(meta))
+    return stored

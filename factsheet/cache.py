@@ -4,11 +4,17 @@ An event's key hashes its YAML file, samples file and sky map (the digests the l
 as it read them), the settings that change numbers and factsheet's own code and data (every
 ``.py`` and data file of the package), so a change in any of them re-derives exactly what
 depends on it.
-Entries live in a folder beside the output (``.factsheet-cache-<name>/``), one folder per key:
-``entry.json`` (what derive found, as plain JSON — nothing in the cache can run code) and the
-entry's files, whose size and SHA-256 the JSON records. An entry whose JSON or files do not
-check out is not used: its event is derived again. Files are copied out of the cache, never
-linked, so the published site and the cache share nothing. Safe to delete.
+Entries live in a folder beside the output (``.factsheet-cache-<name>/``), one folder per key,
+each holding one ``entry.json``: what derive found, as plain JSON (nothing in the cache can run
+code), and the size and SHA-256 of each file the entry placed in the site. The files themselves
+are kept only in the published site, never twice: a later build takes an unchanged entry's files
+from the site it replaces, as hard links into the new site (a copy where the file system has no
+links), after checking each against its record. ``site.json`` stamps every published file with
+its size, modification time and hash, so an untouched file is recognised from its metadata
+alone; a file whose metadata changed is hashed, and one that no longer matches (edited by hand,
+damaged, gone) makes its entry count as missing: its event is derived and drawn again. After
+the swap the replaced site is removed, so the published files have one name each again. Safe
+to delete.
 """
 
 from __future__ import annotations
@@ -17,6 +23,7 @@ import hashlib
 import json
 import os
 import shutil
+import stat
 import tempfile
 from collections.abc import Callable
 from dataclasses import asdict, replace
@@ -47,10 +54,11 @@ from factsheet.model import (
     Summary,
 )
 from factsheet.physics.counterparts import Window
-from factsheet.publish import regular_files
+from factsheet.publish import MARKER
 from factsheet.resources import PACKAGE
 
-FORMAT = "6"
+FORMAT = "7"
+STAMPS = "site.json"
 ENTRY = "entry.json"
 MAX_ENTRY_BYTES = 4_000_000  # an entry's JSON is a few kilobytes; anything far larger is not ours
 
@@ -92,23 +100,26 @@ def content_key(*parts: object) -> str:
 
 
 class Cache:
-    """Entries of JSON and checked files, one folder per key, beside the output."""
+    """Entries of JSON, one folder per key, beside the output; their files are in the site."""
 
     def __init__(self, out: Path):
-        self.root = Path(out).absolute().parent / f".factsheet-cache-{Path(out).name}"
+        out = Path(out)
+        self.root = out.absolute().parent / f".factsheet-cache-{out.name}"
         if self.root.exists() and (self.root.is_symlink() or not self.root.is_dir()):
             raise BuildError(
                 f"{self.root}: the build cache's place holds a file or a link; remove it "
                 "(the cache is safe to delete) or choose another output"
             )
-        self.used: set[str] = set()
+        self.site = out
+        self.used: set[str] = {STAMPS}
+        self._stamps: dict[str, list] | None = None
+        self._site_made: bool | None = None
 
     def load(
         self, key: str, event: Event, settings: Settings, reference: Reference
     ) -> EventBundle | None:
         """The bundle stored under ``key`` for ``event``, or None when there is none or its JSON
-        or its files' sizes do not check out. Its files stay on disk: :meth:`copy_files` places
-        them, checking their hashes as it reads them (each file is read once per build)."""
+        does not check out. Its files are placed by :meth:`place`."""
         entry = self._entry(key)
         if entry is None or entry.get("kind") != "event":
             return None
@@ -120,33 +131,70 @@ class Cache:
         return replace(bundle, key=key)
 
     def store(self, key: str, bundle: EventBundle) -> EventBundle:
-        """Write the bundle's files and JSON under ``key``; return it without file bytes."""
+        """Record the bundle's JSON and its files' sizes and hashes under ``key``; return it
+        without file bytes (the caller writes the files into the new site)."""
         self._write(key, bundle.files, {"kind": "event", "bundle": bundle_to_json(bundle)})
         return replace(bundle, files={}, key=key)
 
-    def copy_files(self, key: str, write: Callable[[str, bytes], None]) -> None:
-        """Pass each file of an entry to ``write`` (site path, bytes), checked against its
-        recorded size and hash as it is read."""
-        entry = self._entry(key, check_files=False)
+    def place(self, key: str, link: Callable[[Path, str, str], None]) -> bool:
+        """Place every file of the entry ``key`` from the published site into the new one with
+        ``link(source, site path, sha256)``; False (and nothing placed) when the entry is
+        missing or any of its files is gone or differs from its record."""
+        entry = self._entry(key)
         if entry is None:
-            raise BuildError(f"{self.root / key}: a cache entry vanished during the build")
-        for name, data in self._read_files(key, entry["files"]).items():
-            write(name, data)
+            return False
+        files = entry["files"]
+        sources = {name: self._published(name, record) for name, record in files.items()}
+        if not all(sources.values()):
+            return False
+        for name, source in sources.items():
+            link(source, name, files[name]["sha256"])
+        self.used.add(key)
+        return True
 
     def files(self, key: str) -> dict[str, bytes] | None:
-        """Every file of an entry of plain files (a memoised page), checked; None if none."""
-        entry = self._entry(key, check_files=False)
+        """The files of an entry of plain files (read from the published site, checked), or
+        None when the entry or any of its files is missing or differs from its record."""
+        found = self.files_and_notes(key)
+        return None if found is None else found[0]
+
+    def files_and_notes(self, key: str) -> tuple[dict[str, bytes], Any] | None:
+        """:meth:`files` and the notes (plain JSON) stored with them."""
+        entry = self._entry(key)
         if entry is None or entry.get("kind") != "files":
             return None
-        try:
-            found = self._read_files(key, entry["files"])
-        except BuildError:
-            return None
+        found = {}
+        for name, record in entry["files"].items():
+            source = self._published(name, record)
+            data = source.read_bytes() if source else b""
+            if not source or not _matches(data, record):
+                return None
+            found[name] = data
         self.used.add(key)
-        return found
+        return found, entry.get("notes")
 
-    def store_files(self, key: str, files: dict[str, bytes]) -> None:
-        self._write(key, files, {"kind": "files"})
+    def store_files(self, key: str, files: dict[str, bytes], notes: Any = None) -> None:
+        """Record files the build publishes (and, if given, notes about them as plain JSON)."""
+        self._write(key, files, {"kind": "files", "notes": notes})
+
+    def stamp_site(self, placed: dict[str, str]) -> None:
+        """After the swap: stamp each file of the new site (site path to SHA-256) with its
+        size and modification time, so the next build knows it unchanged from its metadata."""
+        stamps = {}
+        for name, sha in placed.items():
+            try:
+                st = os.lstat(self.site / name)
+            except OSError:
+                continue
+            stamps[name] = [st.st_size, st.st_mtime_ns, sha]
+        try:
+            self.root.mkdir(parents=True, exist_ok=True)
+            fd, temporary = tempfile.mkstemp(prefix=".new-", dir=self.root)
+            with os.fdopen(fd, "w", encoding="utf-8") as handle:
+                json.dump({"format": FORMAT, "files": stamps}, handle, separators=(",", ":"))
+            os.replace(temporary, self.root / STAMPS)
+        except OSError as exc:
+            raise BuildError(f"{self.root}: cannot write the build cache ({exc.strerror})") from exc
 
     def prune(self) -> None:
         """Remove entries this build did not use (and leftovers of interrupted writes)."""
@@ -159,10 +207,49 @@ class Cache:
                 else:
                     entry.unlink(missing_ok=True)
 
+    # -- the published files -------------------------------------------------------------------
+    @property
+    def stamps(self) -> dict[str, list]:
+        """The stamps of the published site's files: site path to [size, mtime, sha256]."""
+        if self._stamps is None:
+            self._stamps = {}
+            if self._lends():
+                try:
+                    data = json.loads((self.root / STAMPS).read_bytes())
+                    if data.get("format") == FORMAT and isinstance(data.get("files"), dict):
+                        self._stamps = data["files"]
+                except (OSError, ValueError, AttributeError):
+                    pass
+        return self._stamps
+
+    def _lends(self) -> bool:
+        """Whether the output is a site factsheet made (only such a site lends its files)."""
+        if self._site_made is None:
+            self._site_made = (self.site / MARKER).is_file() and not self.site.is_symlink()
+        return self._site_made
+
+    def _published(self, name: str, record: dict[str, Any]) -> Path | None:
+        """The published file at site path ``name`` when it is a plain file matching
+        ``record``: its size and modification time as stamped (metadata only), else its hash."""
+        if not self.stamps and not self._lends():
+            return None
+        path = self.site / name
+        try:
+            st = os.lstat(path)
+        except (OSError, ValueError):
+            return None
+        if not stat.S_ISREG(st.st_mode) or st.st_size != record["size"]:
+            return None
+        if self.stamps.get(name) == [st.st_size, st.st_mtime_ns, record["sha256"]]:
+            return path
+        try:
+            return path if _matches(path.read_bytes(), record) else None
+        except OSError:
+            return None
+
     # -- the entries on disk -------------------------------------------------------------------
-    def _entry(self, key: str, check_files: bool = True) -> dict[str, Any] | None:
-        """An entry's JSON if it reads back whole (and, if asked, its files have the recorded
-        sizes; their hashes are checked when they are read)."""
+    def _entry(self, key: str) -> dict[str, Any] | None:
+        """An entry's JSON if it reads back whole and its file records are well formed."""
         path = self.root / key / ENTRY
         try:
             if path.is_symlink() or path.stat().st_size > MAX_ENTRY_BYTES:
@@ -173,44 +260,17 @@ class Cache:
         if not isinstance(entry, dict) or entry.get("format") != FORMAT:
             return None
         files = entry.get("files")
-        if not isinstance(files, dict) or not all(_recorded(v) for v in files.values()):
-            return None
-        if check_files and not self._sizes_match(key, files):
+        if not isinstance(files, dict) or not all(
+            _recorded(v) and _safe_name(n) for n, v in files.items()
+        ):
             return None
         return entry
-
-    def _sizes_match(self, key: str, recorded: dict[str, Any]) -> bool:
-        base = self.root / key / "files"
-        try:
-            return all((base / n).stat().st_size == r["size"] for n, r in recorded.items())
-        except OSError:
-            return False
-
-    def _read_files(self, key: str, recorded: dict[str, Any]) -> dict[str, bytes]:
-        """The files of an entry, each checked against its recorded size and hash. Only plain
-        files inside the entry's folder are read: a link planted there is damage, not data."""
-        base = self.root / key / "files"
-        present = set(regular_files(base)) if base.is_dir() and not base.is_symlink() else set()
-        found = {}
-        for name, record in recorded.items():
-            try:
-                data = (base / name).read_bytes() if name in present else b""
-            except OSError:
-                data = b""
-            if len(data) != record["size"] or hashlib.sha256(data).hexdigest() != record["sha256"]:
-                raise BuildError(f"{self.root / key}: cache entry damaged ({name})")
-            found[name] = data
-        return found
 
     def _write(self, key: str, files: dict[str, bytes], entry: dict[str, Any]) -> None:
         """Write an entry into a fresh folder, then move it into place (atomic per entry)."""
         try:
             self.root.mkdir(parents=True, exist_ok=True)
             staging = Path(tempfile.mkdtemp(prefix=".new-", dir=self.root))
-            for name, content in files.items():
-                target = staging / "files" / name
-                target.parent.mkdir(parents=True, exist_ok=True)
-                target.write_bytes(content)
             recorded = {
                 name: {"size": len(data), "sha256": hashlib.sha256(data).hexdigest()}
                 for name, data in files.items()
@@ -236,14 +296,14 @@ def _recorded(record: object) -> bool:
     )
 
 
-def cached_files(cache_: Cache, key: str, make: Callable[[], dict[str, bytes]]) -> dict[str, bytes]:
-    """Files from the cache under ``key`` (checked), or made by ``make()`` and stored."""
-    found = cache_.files(key)
-    if found:
-        return found
-    files = make()
-    cache_.store_files(key, files)
-    return files
+def _safe_name(name: str) -> bool:
+    """A site path inside the site (an entry never names a file outside it)."""
+    parts = name.split("/")
+    return bool(name) and not name.startswith("/") and ".." not in parts and "" not in parts
+
+
+def _matches(data: bytes, record: dict[str, Any]) -> bool:
+    return len(data) == record["size"] and hashlib.sha256(data).hexdigest() == record["sha256"]
 
 
 # -- what derive found, as JSON and back ------------------------------------------------------

@@ -12,6 +12,7 @@ from __future__ import annotations
 
 import ctypes
 import errno
+import hashlib
 import os
 import posixpath
 import re
@@ -173,11 +174,33 @@ class Staging:
         self.folder = Path(
             tempfile.mkdtemp(prefix=f".factsheet-new-{self.out.name}-", dir=self.out.parent)
         )
+        self.placed: dict[str, str] = {}  # site path to SHA-256 of every file written or linked
+        self._made: set[Path] = {self.folder}
 
     def write(self, name: str, content: bytes) -> None:
-        target = self.folder / _safe_relative(name)
-        target.parent.mkdir(parents=True, exist_ok=True)
+        target = self._target(name)
+        target.unlink(missing_ok=True)  # never write through a link to the published site
         target.write_bytes(content)
+        self.placed[name] = hashlib.sha256(content).hexdigest()
+
+    def link(self, source: Path, name: str, sha256: str) -> None:
+        """Place the published file ``source`` (known to hash to ``sha256``) at ``name``: a
+        hard link, or a copy where the file system has none. The swap then removes the old
+        site, so the file keeps one name."""
+        target = self._target(name)
+        target.unlink(missing_ok=True)
+        try:
+            os.link(source, target)
+        except OSError:
+            shutil.copyfile(source, target)
+        self.placed[name] = sha256
+
+    def _target(self, name: str) -> Path:
+        target = self.folder / _safe_relative(name)
+        if target.parent not in self._made:
+            target.parent.mkdir(parents=True, exist_ok=True)
+            self._made.add(target.parent)
+        return target
 
     def commit(self) -> None:
         """Check that every page's links resolve, then swap the staged site in."""

@@ -164,50 +164,88 @@ def test_a_site_with_a_missing_linked_file_is_not_published(cat, tmp_path, monke
     out = tmp_path / "site"
     build(cat, out, jobs=1)
     before = tree(out)
-    write = Staging.write
+    write, link = Staging.write, Staging.link
 
     def lose_sounds(self, name, content):
         if not name.endswith(".wav"):
             write(self, name, content)
 
+    def lose_linked_sounds(self, source, name, sha256):
+        if not name.endswith(".wav"):
+            link(self, source, name, sha256)
+
     monkeypatch.setattr(Staging, "write", lose_sounds)
+    monkeypatch.setattr(Staging, "link", lose_linked_sounds)
     with pytest.raises(BuildError, match=r"incomplete .*TEST-1\.wav"):
         build(cat, out, jobs=1)
     assert tree(out) == before
     assert not list(tmp_path.glob(".factsheet-new-*"))
 
 
-# -- the cache: copied out, checked, never executed -------------------------------------------
+# -- the cache: JSON only, its files taken from the published site when they check out --------
 
 
 def _cache(tmp_path: Path) -> Path:
     return tmp_path / ".factsheet-cache-site"
 
 
-def test_the_site_shares_no_storage_with_the_cache(cat, tmp_path):
+def test_the_cache_holds_no_copy_of_the_site(cat, tmp_path):
+    out = tmp_path / "site"
+    build(cat, out, jobs=1)
+    assert {p.name for p in _cache(tmp_path).rglob("*") if p.is_file()} <= {
+        "entry.json",
+        "site.json",
+    }
+    build(cat, out, jobs=1)  # a rebuild links the files of the site it replaces ...
+    linked = [p for p in out.rglob("*") if p.is_file()]
+    assert all(p.stat().st_nlink == 1 for p in linked)  # ... which is then gone: one name each
+
+
+def test_a_hand_edited_published_file_is_made_again(cat, tmp_path):
     out = tmp_path / "site"
     build(cat, out, jobs=1)
     figure = out / "events" / "TEST-1-masses.svg"
     original = figure.read_bytes()
-    assert figure.stat().st_nlink == 1
     figure.write_bytes(b"<svg>edited by hand</svg>")  # an edit of the published file ...
-    build(cat, out, jobs=1)
-    assert figure.read_bytes() == original  # ... reaches neither the cache nor the next build
-    cached = [p for p in _cache(tmp_path).rglob("TEST-1-masses.svg")]
-    assert cached and all(p.read_bytes() == original for p in cached)
+    report = build(cat, out, jobs=1)
+    assert figure.read_bytes() == original  # ... is not carried into the next build
+    assert report.reused == 0
 
 
-def test_a_damaged_cache_entry_is_rebuilt_not_published(cat, tmp_path):
+@pytest.mark.parametrize("same_metadata", [False, True])
+def test_a_damaged_published_file_is_made_again(cat, tmp_path, same_metadata):
     out = tmp_path / "site"
     build(cat, out, jobs=1)
     good = tree(out)
-    for damaged in _cache(tmp_path).rglob("TEST-1-masses.svg"):
-        damaged.write_bytes(damaged.read_bytes().replace(b"<svg", b"<svg data-x='1'", 1))
-    for truncated in _cache(tmp_path).rglob("TEST-1.wav"):
-        truncated.write_bytes(truncated.read_bytes()[:100])
+    sound = out / "events" / "TEST-1.wav"
+    stamp = sound.stat()
+    data = bytearray(sound.read_bytes())
+    data[-1] ^= 0xFF  # same size
+    sound.write_bytes(bytes(data))
+    if not same_metadata:
+        (out / "events" / "TEST-1-masses.svg").write_bytes(b"<svg/>")
+    else:  # damage that keeps size and time is not seen from metadata (as documented)
+        os.utime(sound, ns=(stamp.st_atime_ns, stamp.st_mtime_ns))
     report = build(cat, out, jobs=1)
-    assert report.reused == 0  # the damaged entry was not used
-    assert tree(out) == good
+    if same_metadata:
+        assert report.reused == 1
+    else:
+        assert report.reused == 0  # the damaged entry was not used
+        assert tree(out) == good
+
+
+def test_a_build_never_writes_through_a_link_into_the_old_site(cat, tmp_path):
+    out = tmp_path / "site"
+    build(cat, out, jobs=1)
+    page = out / "events" / "TEST-1.html"
+    before = page.read_bytes()
+    staging = Staging(out)
+    try:
+        staging.link(page, "events/TEST-1.html", "x")
+        staging.write("events/TEST-1.html", b"new")
+        assert page.read_bytes() == before
+    finally:
+        staging.abort()
 
 
 def test_a_planted_entry_never_runs(cat, tmp_path):
@@ -240,7 +278,7 @@ def test_entries_record_each_files_size_and_hash(cat, tmp_path):
     for path in entries:
         entry = json.loads(path.read_text())
         for name, record in entry["files"].items():
-            data = (path.parent / "files" / name).read_bytes()
+            data = (tmp_path / "site" / name).read_bytes()
             assert record == {"size": len(data), "sha256": hashlib.sha256(data).hexdigest()}
 
 
@@ -315,23 +353,23 @@ def test_damage_of_the_same_size_is_caught_by_the_hash(cat, tmp_path):
     out = tmp_path / "site"
     build(cat, out, jobs=1)
     good = tree(out)
-    for damaged in _cache(tmp_path).rglob("TEST-1.wav"):
-        data = bytearray(damaged.read_bytes())
-        data[-1] ^= 0xFF  # one bit pattern changed, the size unchanged
-        damaged.write_bytes(bytes(data))
+    damaged = out / "events" / "TEST-1.wav"
+    data = bytearray(damaged.read_bytes())
+    data[-1] ^= 0xFF  # one bit pattern changed, the size unchanged (the time is not)
+    damaged.write_bytes(bytes(data))
     report = build(cat, out, jobs=1)
     assert report.reused == 0  # made again, not published as it was
     assert tree(out) == good
-    assert build(cat, out, jobs=1).reused == 1  # and the repaired entry is used next time
+    assert build(cat, out, jobs=1).reused == 1  # and the repaired site lends it next time
 
 
-def test_a_link_planted_in_the_cache_is_not_followed(cat, tmp_path):
+def test_a_link_planted_in_the_site_is_not_followed(cat, tmp_path):
     out = tmp_path / "site"
     build(cat, out, jobs=1)
-    for cached in _cache(tmp_path).rglob("TEST-1-masses.svg"):
-        elsewhere = tmp_path / "elsewhere.svg"
-        elsewhere.write_bytes(cached.read_bytes())  # even with the recorded bytes behind it
-        cached.unlink()
-        cached.symlink_to(elsewhere)
+    planted = out / "events" / "TEST-1-masses.svg"
+    elsewhere = tmp_path / "elsewhere.svg"
+    elsewhere.write_bytes(planted.read_bytes())  # even with the recorded bytes behind it
+    planted.unlink()
+    planted.symlink_to(elsewhere)
     assert build(cat, out, jobs=1).reused == 0
     assert not (out / "events" / "TEST-1-masses.svg").is_symlink()

@@ -27,8 +27,9 @@ from factsheet.render.index_page import index_page
 from factsheet.render.methods_page import methods_page
 from factsheet.resources import templates_dir
 
-# A memo: (key parts, make) -> files; the build passes one backed by its cache.
-Memo = Callable[[tuple, Callable[[], dict[str, bytes]]], dict[str, bytes]]
+# A memo: (key parts, make) -> the files ``make()`` gives, or None when the memo placed the
+# files of an earlier build itself; the build passes one backed by its cache.
+Memo = Callable[[tuple, Callable[[], dict[str, bytes]]], dict[str, bytes] | None]
 
 
 @dataclass
@@ -132,7 +133,8 @@ def render_site(
             keys = tuple(b.key for b in bundles)
             figures = tuple((f.path, f.alt) for f in shown)
             key = ("catalogue", keys, settings, audience, r.templates, figures, language)
-            for name, content in (memo(key, make) if memo and all(keys) else make()).items():
+            made = memo(key, make) if memo and all(keys) else make()
+            for name, content in (made or {}).items():  # None: the memo placed them
                 site.add(name, content)
     static = templates_dir() / "static"
     for path in sorted(p for p in static.rglob("*") if p.is_file()):
@@ -209,5 +211,6 @@ def render_event(
         r.language,
     )
     files = memo(key, make) if memo and bundle.key else make()
-    for name in names:
-        site.add(name, files[name])
+    if files is not None:  # None: the memo placed them
+        for name in names:
+            site.add(name, files[name])
