@@ -1,7 +1,8 @@
 """The build cache: per-event entries keyed by everything that shapes them.
 
-An event's key hashes its YAML file, samples file and sky map (the digests the load stage took
-as it read them), the settings that change numbers and factsheet's own code and data (every
+An event's key hashes its YAML file's content (all but the summary and internal notes, which
+only the pages show), its samples file and sky map (the digests the load stage took as it read
+them), the settings that change numbers and factsheet's own code and data (every
 ``.py`` and data file of the package), so a change in any of them re-derives exactly what
 depends on it.
 Entries live in a folder beside the output (``.factsheet-cache-<name>/``), one folder per key,
@@ -83,7 +84,7 @@ def event_key(event: Event, settings: Settings) -> str:
     """The cache key of one event: its inputs, the settings and the code."""
     digest = hashlib.sha256(code_fingerprint().encode())
     digest.update(settings.fingerprint().encode())
-    digest.update(event.source_digest.encode())
+    digest.update((event.content_digest or event.source_digest).encode())
     if event.samples is not None:
         digest.update(event.samples.digest.encode())
     if event.detection.sky_map is not None:

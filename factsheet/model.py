@@ -106,7 +106,7 @@ class Settings:
     languages: tuple[str, ...] = ("en",)
 
     def fingerprint(self) -> str:
-        """A stable text form of the settings that change derived numbers."""
+        """A stable text form of the settings that change derived numbers or event files."""
         return "|".join(
             str(x)
             for x in (
@@ -123,6 +123,8 @@ class Settings:
                 self.large_sky_area.to_value(u.deg**2),
                 self.what_if_lensed,
                 self.languages,  # a bundle holds each language's figures
+                sorted(getattr(self.title, "versions", {"": self.title}).items()),  # on the
+                # share card of every event
             )
         )
 
@@ -295,6 +297,10 @@ class Event:
     estimate: Estimate
     source: Path
     source_digest: str = ""  # SHA-256 of the file's bytes, as read by the load stage
+    # SHA-256 of what the file says apart from the editors' words no number, figure or sound
+    # uses (its summary and internal notes): the build cache's key, so such an edit redraws
+    # nothing
+    content_digest: str = ""
     line: int = 1
     status: str = "confirmed"
     frame: str = SOURCE

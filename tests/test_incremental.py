@@ -7,6 +7,7 @@ from pathlib import Path
 import pytest
 from helpers import VALID_EVENT, write_catalogue
 
+from factsheet import build as build_module
 from factsheet.build import build
 from factsheet.render import environment, site
 from factsheet.resources import templates_dir
@@ -65,6 +66,25 @@ def test_editing_one_event_rebuilds_only_it(cat, tmp_path):
     assert not any(k.startswith("events/A-1") for k in changed)
 
 
+@pytest.mark.parametrize("key", ["summary", "internal_notes"])
+def test_editing_page_only_words_redraws_nothing(cat, tmp_path, key, monkeypatch):
+    out = tmp_path / "site"
+    build(cat, out, jobs=1, audience="internal")
+    before = hashes(out)
+    text = event("B-2", "40 +5 -4 Msun") + f"{key}: Words written later,\n  over two lines.\n"
+    (cat / "b.yaml").write_text(text.replace("summary: A *test* event.\n", ""))
+    drawn = []
+    monkeypatch.setattr(build_module, "event_files", lambda *a: drawn.append(a) or 1 / 0)
+    report = build(cat, out, jobs=1, audience="internal")
+    assert report.reused == 3 and not drawn  # no figure and no sound made again
+    after = hashes(out)
+    changed = {k for k in before if before[k] != after.get(k)}
+    assert "events/B-2.html" in changed and "Words written later" in (
+        out / "events" / "B-2.html"
+    ).read_text()
+    assert not any(k.startswith("events/B-2-") or k.endswith(".wav") for k in changed)
+
+
 def test_editing_the_samples_file_rebuilds_its_event(cat, tmp_path):
     out = tmp_path / "site"
     build(cat, out, jobs=1)
@@ -78,9 +98,12 @@ def test_settings_change_rebuilds_everything(cat, tmp_path):
     build(cat, out, jobs=1)
     (cat / "catalogue.yaml").write_text("low_frequency: 15 Hz\n")
     assert build(cat, out, jobs=1).reused == 0
+    (cat / "catalogue.yaml").write_text("low_frequency: 15 Hz\ndescription: Words.\n")
+    report = build(cat, out, jobs=1)  # the description shapes pages only, not the numbers
+    assert report.reused == 3 and "Words." in (out / "index.html").read_text()
     (cat / "catalogue.yaml").write_text("low_frequency: 15 Hz\ntitle: Renamed\n")
-    report = build(cat, out, jobs=1)  # the title shapes pages only, not the numbers
-    assert report.reused == 3 and "Renamed" in (out / "index.html").read_text()
+    report = build(cat, out, jobs=1)  # every share card names the catalogue
+    assert report.reused == 0 and "Renamed" in (out / "index.html").read_text()
 
 
 def test_template_change_reaches_the_pages(cat, tmp_path, monkeypatch):

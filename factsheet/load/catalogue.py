@@ -8,6 +8,7 @@ catalogue is checked before :class:`~factsheet.errors.InputError` is raised with
 from __future__ import annotations
 
 import hashlib
+import json
 from math import inf
 from pathlib import Path
 
@@ -154,6 +155,7 @@ def load_event(
     event = Event(
         source=path,
         source_digest=hashlib.sha256(content).hexdigest(),
+        content_digest=content_digest(data),
         line=data.line_of("id") or 1,
         key_lines=_lines(data),
         **values,
@@ -161,6 +163,19 @@ def load_event(
     if warnings is not None:
         warnings.extend([*noticed, *consistency_warnings(event)])
     return event
+
+
+#: Top-level keys whose text only the pages show: editing them re-renders the event's pages
+#: but redraws no figure and no sound and derives nothing again.
+PAGE_ONLY_KEYS = ("summary", "internal_notes")
+
+
+def content_digest(data: LineMap) -> str:
+    """SHA-256 of an event file's content without its :data:`PAGE_ONLY_KEYS` (values as
+    read, in the file's order; not the lines, which such an edit shifts)."""
+    kept = {str(k): v for k, v in data.items() if k not in PAGE_ONLY_KEYS}
+    text = json.dumps(kept, default=repr, ensure_ascii=False, separators=(",", ":"))
+    return hashlib.sha256(text.encode("utf-8")).hexdigest()
 
 
 def _lines(data: LineMap, prefix: str = "") -> dict[str, int]:

@@ -130,10 +130,10 @@ def render_site(
             def make(r: Renderer = r, shown: tuple[SiteFigure, ...] = shown) -> dict[str, bytes]:
                 return catalogue_pages(r, derived, list(shown))
 
-            keys = tuple(b.key for b in bundles)
+            keys = tuple((b.key, b.derived.event.source_digest) for b in bundles)
             figures = tuple((f.path, f.alt) for f in shown)
             key = ("catalogue", keys, settings, audience, r.templates, figures, language)
-            made = memo(key, make) if memo and all(keys) else make()
+            made = memo(key, make) if memo and all(k for k, _ in keys) else make()
             for name, content in (made or {}).items():  # None: the memo placed them
                 site.add(name, content)
     static = templates_dir() / "static"
@@ -199,6 +199,7 @@ def render_event(
 
     key = (
         bundle.key,
+        item.event.source_digest,  # the page shows words the bundle's key leaves out
         previous and previous.event.id,
         following and following.event.id,
         r.audience,
