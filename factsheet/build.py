@@ -24,12 +24,14 @@ import numpy as np
 from astropy.time import Time
 
 from factsheet import i18n
-from factsheet.cache import Cache, content_key, event_key
+from factsheet.cache import Cache, code_fingerprint, content_key, event_key
 from factsheet.derive import derive_event
 from factsheet.errors import BuildError, InputError, Problem
 from factsheet.i18n import use_language
 from factsheet.load import load_catalogue
+from factsheet.load.catalogue import Memory, load_event
 from factsheet.load.reference import reference_for
+from factsheet.load.remembered import needs_reading
 from factsheet.model import (
     Catalogue,
     Derived,
@@ -112,7 +114,9 @@ def build(
     """
     start, out = clock.perf_counter(), Path(out)
     check_output(out, Path(catalogue_dir))
-    catalogue = load_catalogue(catalogue_dir)
+    cache = Cache(out)
+    memory = Memory(cache.read_records(), code_fingerprint())
+    catalogue = load_catalogue(catalogue_dir, memory)
     if strict and catalogue.warnings:
         raise InputError(problems=list(catalogue.warnings))
     events, internal, embargoed = select_events(catalogue, audience, build_time())
@@ -120,8 +124,9 @@ def build(
     try:
         with OutputLock(out):
             made, index, count = _build_locked(
-                events, catalogue.settings, out, audience, force, jobs, shown
+                events, catalogue, cache, out, audience, force, jobs, shown
             )
+            cache.write_records(memory.fresh)
     except OSError as exc:
         raise BuildError(_os_problem(exc, out)) from exc
     figure_seconds = sum(b.figure_seconds for b in made) + sum(
@@ -140,15 +145,15 @@ def build(
     )
 
 
-def _build_locked(events, settings, out, audience, force, jobs, progress: Progress):
+def _build_locked(events, catalogue, cache, out, audience, force, jobs, progress: Progress):
     """The part of a build that writes: bundles, pages, the swap; the output's lock is held.
 
     Files an unchanged entry of the cache recorded are linked from the site being replaced;
     everything else is written afresh into the staging folder."""
-    cache = Cache(out)
+    settings = catalogue.settings
     with Staging(out, force) as staging:
         bundles, made = make_bundles(
-            events, settings, cache, jobs or available_cores(), progress, staging
+            events, settings, cache, jobs or available_cores(), progress, staging, catalogue.root
         )
         index = _index_figures(bundles, settings, cache)
 
@@ -195,6 +200,7 @@ def make_bundles(
     jobs: int,
     progress: Progress,
     staging: Staging,
+    root: Path | None = None,
 ) -> tuple[list[EventBundle], list[EventBundle]]:
     """Every event's bundle, from the cache or made afresh, its files placed in ``staging``;
     also the freshly made ones. A cached bundle whose files the published site no longer
@@ -206,6 +212,9 @@ def make_bundles(
         if bundle is not None and not cache.place(bundle.key, staging.link):
             bundles[i] = None
     todo = [i for i, b in enumerate(bundles) if b is None]
+    for i in todo:  # an event remembered from the last build keeps no sample values
+        if needs_reading(events[i]):
+            events[i] = _read_again(events[i], settings, root)
     made, failures = [], []
     for done, (i, result) in enumerate(_run(todo, events, settings, reference, jobs), 1):
         if isinstance(result, BaseException):
@@ -226,6 +235,15 @@ def make_bundles(
     if failures:
         raise BuildError(problems=failures)
     return [b for b in bundles if b is not None], made
+
+
+def _read_again(event: Event, settings: Settings, root: Path | None) -> Event:
+    """An event read and checked afresh from its file (its samples file's values included)."""
+    problems: list[Problem] = []
+    fresh = load_event(event.source, root or event.source.parent, settings, problems)
+    if fresh is None:  # the file changed since it was found unchanged
+        raise InputError(problems=problems)
+    return fresh
 
 
 def event_bundle(event: Event, settings: Settings, reference: Reference) -> EventBundle:
@@ -329,7 +347,7 @@ def _index_figures(
         try:
             return {
                 str(lang): [SiteFigure(p, files[p], alt, cap) for p, alt, cap in rows]
-                for lang, rows in i18n.from_json(meta).items()
+                for lang, rows in meta.items()  # kept words read back with the entry
             }
         except (KeyError, TypeError, ValueError, AttributeError):
             pass  # not what this build stores: draw them again

@@ -60,6 +60,7 @@ from factsheet.resources import PACKAGE
 
 FORMAT = "7"
 STAMPS = "site.json"
+RECORDS = "read.json"  # the events read by the last build (factsheet.load.remembered)
 ENTRY = "entry.json"
 MAX_ENTRY_BYTES = 4_000_000  # an entry's JSON is a few kilobytes; anything far larger is not ours
 
@@ -112,7 +113,7 @@ class Cache:
                 "(the cache is safe to delete) or choose another output"
             )
         self.site = out
-        self.used: set[str] = {STAMPS}
+        self.used: set[str] = {STAMPS, RECORDS}
         self._stamps: dict[str, list] | None = None
         self._site_made: bool | None = None
 
@@ -141,7 +142,7 @@ class Cache:
         """Place every file of the entry ``key`` from the published site into the new one with
         ``link(source, site path, sha256)``; False (and nothing placed) when the entry is
         missing or any of its files is gone or differs from its record."""
-        entry = self._entry(key)
+        entry = self._entry(key, words=False)
         if entry is None:
             return False
         files = entry["files"]
@@ -188,12 +189,28 @@ class Cache:
             except OSError:
                 continue
             stamps[name] = [st.st_size, st.st_mtime_ns, sha]
+        self._replace(STAMPS, {"format": FORMAT, "files": stamps})
+
+    def read_records(self) -> dict[str, Any]:
+        """The records of the events the last build read, by file ({} when none or unreadable)."""
+        try:
+            data = json.loads((self.root / RECORDS).read_bytes())
+        except (OSError, ValueError):
+            return {}
+        ok = isinstance(data, dict) and data.get("format") == FORMAT
+        return data["files"] if ok and isinstance(data.get("files"), dict) else {}
+
+    def write_records(self, records: dict[str, Any]) -> None:
+        self._replace(RECORDS, {"format": FORMAT, "files": records})
+
+    def _replace(self, name: str, data: Any) -> None:
+        """Write one JSON file of the cache's root atomically."""
         try:
             self.root.mkdir(parents=True, exist_ok=True)
             fd, temporary = tempfile.mkstemp(prefix=".new-", dir=self.root)
-            with os.fdopen(fd, "w", encoding="utf-8") as handle:
-                json.dump({"format": FORMAT, "files": stamps}, handle, separators=(",", ":"))
-            os.replace(temporary, self.root / STAMPS)
+            with os.fdopen(fd, "wb") as handle:  # dumps: the C encoder (dump is Python's)
+                handle.write(json.dumps(data, separators=(",", ":")).encode("utf-8"))
+            os.replace(temporary, self.root / name)
         except OSError as exc:
             raise BuildError(f"{self.root}: cannot write the build cache ({exc.strerror})") from exc
 
@@ -249,14 +266,17 @@ class Cache:
             return None
 
     # -- the entries on disk -------------------------------------------------------------------
-    def _entry(self, key: str) -> dict[str, Any] | None:
-        """An entry's JSON if it reads back whole and its file records are well formed."""
+    def _entry(self, key: str, words: bool = True) -> dict[str, Any] | None:
+        """An entry's JSON if it reads back whole and its file records are well formed (with
+        ``words``, its kept words read back as such; without, left as JSON)."""
         path = self.root / key / ENTRY
         try:
             if path.is_symlink() or path.stat().st_size > MAX_ENTRY_BYTES:
                 return None
-            entry = json.loads(path.read_bytes())
-        except (OSError, ValueError):
+            # kept words are read back as the parser meets them (i18n.json_hook)
+            hook = i18n.json_hook if words else None
+            entry = json.loads(path.read_bytes(), object_hook=hook)
+        except (OSError, ValueError, TypeError, AttributeError):
             return None
         if not isinstance(entry, dict) or entry.get("format") != FORMAT:
             return None
@@ -395,7 +415,7 @@ def bundle_from_json(
 ) -> EventBundle:
     """A bundle from its JSON and the freshly loaded event it belongs to (same key, same
     content); raises KeyError, TypeError or ValueError when the JSON is not a bundle."""
-    data = i18n.from_json(data)  # kept words (caveats, the sound's description) translate again
+    # kept words (caveats, the sound's description) were read back with the entry's JSON
     quantities = {
         k: Summary(**{**v, "methods": tuple(v["methods"])}) for k, v in data["quantities"].items()
     }

@@ -385,6 +385,14 @@ def from_json(value: Any) -> Any:
     return {k: from_json(v) for k, v in value.items()}
 
 
+def json_hook(value: dict[str, Any]) -> Any:
+    """:func:`from_json` for one object, as ``json.loads(..., object_hook=json_hook)`` calls it
+    (innermost first, so its members are already read back): the C parser then does the walk."""
+    if _TEXT in value or _EDITORIAL in value or _LATER in value or _TUPLE in value:
+        return from_json(value)
+    return value
+
+
 def _function(name: str) -> Callable[..., str]:
     import importlib
     import types

@@ -195,6 +195,7 @@ def test_the_cache_holds_no_copy_of_the_site(cat, tmp_path):
     assert {p.name for p in _cache(tmp_path).rglob("*") if p.is_file()} <= {
         "entry.json",
         "site.json",
+        "read.json",
     }
     build(cat, out, jobs=1)  # a rebuild links the files of the site it replaces ...
     linked = [p for p in out.rglob("*") if p.is_file()]

@@ -79,9 +79,10 @@ def test_editing_page_only_words_redraws_nothing(cat, tmp_path, key, monkeypatch
     assert report.reused == 3 and not drawn  # no figure and no sound made again
     after = hashes(out)
     changed = {k for k in before if before[k] != after.get(k)}
-    assert "events/B-2.html" in changed and "Words written later" in (
-        out / "events" / "B-2.html"
-    ).read_text()
+    assert (
+        "events/B-2.html" in changed
+        and "Words written later" in (out / "events" / "B-2.html").read_text()
+    )
     assert not any(k.startswith("events/B-2-") or k.endswith(".wav") for k in changed)
 
 
@@ -127,3 +128,37 @@ def test_deleting_the_cache_gives_the_same_site(cat, tmp_path):
     shutil.rmtree(tmp_path / ".factsheet-cache-site")
     assert build(cat, out, jobs=1).reused == 0
     assert hashes(out) == before
+
+
+def test_a_rebuild_reads_only_the_files_that_changed(cat, tmp_path, monkeypatch):
+    import os
+    import time
+
+    from factsheet.load import catalogue as load_module
+
+    then = time.time() - 3600
+    for path in cat.iterdir():
+        os.utime(path, (then, then))
+    out = tmp_path / "site"
+    build(cat, out, jobs=1)
+    before = hashes(out)
+    read = []
+    load_event = load_module.load_event
+
+    def reading(path, *args, **kwargs):
+        read.append(path.name)
+        return load_event(path, *args, **kwargs)
+
+    monkeypatch.setattr(load_module, "load_event", reading)
+    monkeypatch.setattr(build_module, "load_event", reading)
+    assert build(cat, out, jobs=1).reused == 3 and read == []  # decided from metadata alone
+    assert hashes(out) == before
+    (cat / "b.yaml").write_text(event("B-2", "41 +5 -4 Msun"))
+    assert build(cat, out, jobs=1).reused == 2 and read == ["b.yaml"]
+    for entry in (tmp_path / ".factsheet-cache-site").iterdir():  # the entries gone, the
+        if entry.is_dir():  # record of the files read kept: each event is derived again ...
+            shutil.rmtree(entry)
+    read.clear()
+    assert build(cat, out, jobs=1).reused == 0
+    assert "c.yaml" in read  # ... and the one with samples read afresh for their values
+    assert "a.yaml" not in read

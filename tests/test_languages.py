@@ -16,6 +16,7 @@ import pytest
 from helpers import VALID_EVENT
 
 from factsheet import build as build_module
+from factsheet import i18n
 from factsheet.build import build
 
 pytestmark = pytest.mark.slow
@@ -232,7 +233,7 @@ def test_a_sheet_from_the_build_cache_reads_as_a_fresh_one_in_every_language():
     env = make_environment()
     for event in catalogue.events[:3]:
         fresh = event_bundle(event, settings, reference)
-        stored = json.loads(json.dumps(bundle_to_json(fresh)))
+        stored = json.loads(json.dumps(bundle_to_json(fresh)), object_hook=i18n.json_hook)
         again = bundle_from_json(stored, event, settings, reference)
         for language in settings.languages:
             pages = []

@@ -11,6 +11,7 @@ import hashlib
 import json
 from math import inf
 from pathlib import Path
+from typing import Any
 
 import astropy.units as u
 
@@ -20,14 +21,19 @@ from factsheet.load.checker import Checker
 from factsheet.load.consistency import consistency_warnings
 from factsheet.load.files import CATALOGUE_FILE, FileRefused, event_files, target_of
 from factsheet.load.reference import reference_for
+from factsheet.load.remembered import file_record, recall, stamp
 from factsheet.load.samples import check_samples
 from factsheet.load.schema import CATALOGUE_KEYS, EVENT_KEYS
 from factsheet.load.yaml_lines import LineMap, YamlProblem, read_limited, read_yaml
 from factsheet.model import Catalogue, Estimate, Event, Limits, Settings
 
 
-def load_catalogue(folder: str | Path) -> Catalogue:
-    """Read and validate a catalogue folder; raise :class:`InputError` listing every problem."""
+def load_catalogue(folder: str | Path, memory: Memory | None = None) -> Catalogue:
+    """Read and validate a catalogue folder; raise :class:`InputError` listing every problem.
+
+    With a ``memory`` (the build's), an event file whose size and time are those recorded by
+    the last build under the same settings and code gives its event from the record instead
+    of being read and checked again; ``memory.fresh`` then holds the records for next time."""
     root = Path(folder)
     try:
         is_folder = root.is_dir()
@@ -41,10 +47,12 @@ def load_catalogue(folder: str | Path) -> Catalogue:
     settings = load_settings(root / CATALOGUE_FILE, problems)
     warnings: list[Problem] = []
     skipped: list[tuple[Path, str]] = []
+    if memory is not None:
+        memory.begin(settings, root)
     events = [
         e
         for path in event_files(root, problems, skipped)
-        if (e := load_event(path, root, settings, problems, warnings))
+        if (e := _event(path, root, settings, problems, warnings, memory))
     ]
     _check_unique_ids(events, problems)
     if not events and not problems:
@@ -59,6 +67,46 @@ def load_catalogue(folder: str | Path) -> Catalogue:
         warnings=tuple(warnings),
         skipped=tuple(skipped),
     )
+
+
+class Memory:
+    """Records of the events a build read (:mod:`factsheet.load.remembered`), keyed by file,
+    valid for one fingerprint of the settings and the code."""
+
+    def __init__(self, records: dict[str, Any], fingerprint: str):
+        self.records = records
+        self.fingerprint = fingerprint  # the code's; the settings' is added by begin()
+        self.fresh: dict[str, Any] = {}
+        self.recalled = 0
+
+    def begin(self, settings: Settings, root: Path) -> None:
+        """Make the records valid only for these settings, this catalogue and this folder."""
+        where = f"{root.resolve()}|{Path.cwd()}"  # records name files as the build found them
+        self.fingerprint = f"{self.fingerprint}|{settings.fingerprint()}|{settings.limits}|{where}"
+
+
+def _event(path, root, settings, problems, warnings, memory: Memory | None) -> Event | None:
+    """One event: from the memory when its files are unchanged, else read and checked."""
+    name = str(path)
+    record = memory.records.get(name) if memory is not None else None
+    known = record is not None and record.get("fingerprint") == memory.fingerprint
+    if known and (found := recall(record)):
+        event, noticed = found
+        warnings.extend(noticed)
+        memory.recalled += 1
+        memory.fresh[name] = (
+            record
+            if record["files"][0][1] == stamp(path)
+            else {**(file_record(event, noticed) or {}), "fingerprint": memory.fingerprint}
+        )
+        return event
+    noticed: list[Problem] = []
+    event = load_event(path, root, settings, problems, noticed)
+    warnings.extend(noticed)
+    record = file_record(event, noticed) if memory is not None and event is not None else None
+    if record is not None:
+        memory.fresh[name] = {**record, "fingerprint": memory.fingerprint}
+    return event
 
 
 def _read_mapping(

@@ -219,9 +219,10 @@ def test_editorial_texts_survive_pickling(catalogue):
     assert [c.versions for c in back.caveats] == [c.versions for c in event.caveats]
 
 
-def test_the_cache_key_covers_every_version(tmp_path):
-    """An event whose Spanish summary alone changed is derived again: the key hashes the
-    file's bytes, and a memoised page's key the versions (repr), not just the original."""
+def test_the_page_key_covers_every_version(tmp_path):
+    """An event whose Spanish summary alone changed gets its pages again: their key hashes
+    the file's bytes (and a memoised page's key the versions), not just the original; its
+    numbers, figures and sound, which no summary shapes, keep theirs."""
 
     def key_of(spanish: str) -> tuple[str, str]:
         folder = tmp_path / f"cat{len(list(tmp_path.iterdir()))}"
@@ -231,11 +232,12 @@ def test_the_cache_key_covers_every_version(tmp_path):
         (folder / "ev.yaml").write_text(text, encoding="utf-8")
         cat = load_catalogue(folder)
         (event,) = cat.events
-        return event_key(event, cat.settings), content_key("page", event.summary)
+        keys = event_key(event, cat.settings), event.source_digest
+        return (*keys, content_key("page", event.summary))
 
     first, same, other = key_of("Uno."), key_of("Uno."), key_of("Otro.")
     assert first == same
-    assert first[0] != other[0] and first[1] != other[1]
+    assert first[0] == other[0] and first[1] != other[1] and first[2] != other[2]
 
 
 # -- the demo ----------------------------------------------------------------------------------

@@ -4,10 +4,12 @@ export, the build cache's round trip and the figure. Events are invented."""
 from __future__ import annotations
 
 import dataclasses
+import json
 
 import pytest
 from matplotlib.container import ErrorbarContainer
 
+from factsheet import i18n
 from factsheet.api import derive
 from factsheet.cache import bundle_from_json, bundle_to_json
 from factsheet.figures import style
@@ -131,7 +133,8 @@ def test_json_leaves_the_key_out_without_a_panel():
 
 def test_cache_round_trip_keeps_the_panel(heavy):
     bundle = EventBundle(dataclasses.replace(heavy, samples={}), {}, Audio("", "", 0.0))
-    back = bundle_from_json(bundle_to_json(bundle), heavy.event, heavy.settings, heavy.reference)
+    stored = json.loads(json.dumps(bundle_to_json(bundle)), object_hook=i18n.json_hook)
+    back = bundle_from_json(stored, heavy.event, heavy.settings, heavy.reference)
     assert back.derived.lensing == heavy.lensing
 
 
