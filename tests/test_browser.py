@@ -284,7 +284,10 @@ def test_paged_index_without_scripts_lists_the_first_rows_and_says_so(visit, pag
     note = v.page.locator("#catalogue-partial")
     assert note.is_visible()
     assert "the first 10 of the 25 fact sheets" in note.inner_text()
-    assert note.get_by_role("link", name="CSV", exact=True).get_attribute("href") == "data/catalogue.csv"
+    assert (
+        note.get_by_role("link", name="CSV", exact=True).get_attribute("href")
+        == "data/catalogue.csv"
+    )
 
 
 def test_paged_index_pages_through_every_row(visit, paged_root):
@@ -303,7 +306,7 @@ def test_paged_index_pages_through_every_row(visit, paged_root):
     top.get_by_role("button", name="Next").press("Enter")  # a real button: the keyboard works
     assert ids(v) == [f"INV-{i:03d}" for i in range(11, 21)]
     assert top.locator(".range").inner_text() == "Rows 11–20 of 25"
-    v.page.wait_for_function("location.hash === '#page=2'")
+    v.page.wait_for_function("() => location.hash === '#page=2'")
 
     bottom.get_by_role("button", name="Last").click()
     assert ids(v) == [f"INV-{i:03d}" for i in range(21, 26)]
@@ -411,7 +414,7 @@ def test_index_keeps_filter_and_sort_in_the_address(visit, root):
     v = visit(root + "index.html")
     v.page.get_by_label("Filter", exact=True).fill("MER34-006")
     v.page.locator("#catalogue thead th[data-key=heavier_mass]").get_by_role("button").click()
-    v.page.wait_for_function("location.hash.includes('sort=')")  # the address follows shortly
+    v.page.wait_for_function("() => location.hash.includes('sort=')")  # the address follows shortly
     shared = v.page.url
     assert urlsplit(shared).fragment == "q=MER34-006&sort=heavier_mass"
     w = visit(shared)  # the shared link restores the view, from file:// as over http
@@ -430,6 +433,6 @@ def test_index_says_when_nothing_matches_and_clears_the_filter(visit, root):
     assert " ".join(message.inner_text().split()) == "No event matches — clear the filter"
     message.get_by_role("button", name="clear the filter").click()
     assert v.page.evaluate(SHOWN) == v.page.locator("#catalogue tbody tr").count()
-    v.page.wait_for_function("location.hash === ''")  # the address follows shortly
+    v.page.wait_for_function("() => location.hash === ''")  # the address follows shortly
     assert not message.is_visible() and urlsplit(v.page.url).fragment == ""
     assert v.errors == []
