@@ -85,6 +85,10 @@ def write_catalogue(folder: Path, files: dict[str, str]) -> Path:
     return folder
 
 
+#: Markup in a title: the index shows it as text, from its HTML and from its script alike.
+HOSTILE_TITLE = " <b>&</b> <img src=x onerror=alert(1)>"
+
+
 def index_rows(n: int) -> tuple:
     """``n`` invented rows of the index table (``render.index_page.IndexRow``), made directly
     rather than by deriving events: every class and status, some numbers missing, masses that
@@ -98,7 +102,7 @@ def index_rows(n: int) -> tuple:
         rows.append(
             IndexRow(
                 id=f"INV-{i + 1:03d}",
-                title=f"Invented pair {i + 1}",
+                title=f"Invented pair {i + 1}" + (HOSTILE_TITLE if i == 2 else ""),
                 page=f"events/INV-{i + 1:03d}.html",
                 date=f"2036-{1 + i % 12:02d}-{1 + i % 28:02d}",
                 status=("confirmed", "confirmed", "candidate", "confirmed", "retracted")[i % 5],
