@@ -292,6 +292,14 @@ def _symbols(language: str) -> tuple[str, str, int]:
     return get_decimal_symbol(locale), get_group_symbol(locale), _MIN_GROUPING.get(language, 1)
 
 
+def grouping() -> tuple[str, int]:
+    """How the language in use groups the thousands of a whole number: the group symbol and the
+    fewest digits a grouped number has (6 in English, 5 in Spanish); for the index script,
+    which writes counts as :func:`decimal_text` does."""
+    _point, group, min_grouping = _symbols(current())
+    return group, 3 + min_grouping
+
+
 def decimal_text(value: float, places: int) -> str:
     """``value`` with ``places`` decimals (already rounded by the caller) in the language's
     digits: decimal symbol, grouping of thousands, and U+2212 for the minus sign."""

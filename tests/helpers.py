@@ -83,3 +83,41 @@ def write_catalogue(folder: Path, files: dict[str, str]) -> Path:
         path.parent.mkdir(parents=True, exist_ok=True)
         path.write_text(textwrap.dedent(text), encoding="utf-8")
     return folder
+
+
+#: Markup in a title: the index shows it as text, from its HTML and from its script alike.
+HOSTILE_TITLE = " <b>&</b> <img src=x onerror=alert(1)>"
+
+
+def index_rows(n: int) -> tuple:
+    """``n`` invented rows of the index table (``render.index_page.IndexRow``), made directly
+    rather than by deriving events: every class and status, some numbers missing, masses that
+    do not follow the designations' order (so a sort by mass reorders the rows)."""
+    from factsheet.render.index_page import Cell, IndexRow
+
+    rows = []
+    for i in range(n):
+        kind = ("BBH", "BNS", "NSBH")[i % 3]
+        heavy = 5.0 + (i * 37) % 61  # 5..65, scrambled against i
+        rows.append(
+            IndexRow(
+                id=f"INV-{i + 1:03d}",
+                title=f"Invented pair {i + 1}" + (HOSTILE_TITLE if i == 2 else ""),
+                page=f"events/INV-{i + 1:03d}.html",
+                date=f"2036-{1 + i % 12:02d}-{1 + i % 28:02d}",
+                status=("confirmed", "confirmed", "candidate", "confirmed", "retracted")[i % 5],
+                source_class=kind,
+                visibility="public",
+                embargo_until="",
+                band_flags=("neutron star",) if kind != "BBH" else (),
+                heavier_mass=Cell(f"{heavy:.1f} +2.0 −1.5 M⊙", heavy),
+                lighter_mass=Cell(f"{heavy / 2:.2f} +1.0 −0.8 M⊙", heavy / 2),
+                remnant_mass=Cell(f"{heavy * 1.4:.1f} +3 −3 M⊙", heavy * 1.4)
+                if kind == "BBH"
+                else None,
+                energy_radiated=None,
+                distance=Cell(f"{100 + 10 * i} +40 −30 Mpc", 100.0 + 10 * i),
+                sky=Cell(f"{20 + i} deg²", 20.0 + i) if i % 4 else None,
+            )
+        )
+    return tuple(rows)

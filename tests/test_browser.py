@@ -214,6 +214,149 @@ def test_index_readable_without_scripts(visit, http_root, site):
     assert rows.count() == len(list((site / "events").glob("*.html")))
     assert v.page.locator(".table-controls").count() == 0
     assert rows.first.locator("a").get_attribute("href").startswith("events/")
+    # a catalogue of a page or less: the whole table, no note about the rest, no pager
+    assert v.page.locator("#catalogue-partial").count() == 0
+
+
+# Each body row of the table as the reader gets it: its classes and data, and each cell's tag,
+# class, sort value (a number read as one) and contents.
+ROW_CELLS = """() => Array.from(document.querySelectorAll('#catalogue tbody tr')).map(tr => [
+  tr.className, tr.dataset.status, tr.dataset.class,
+  Array.from(tr.cells).map(c => [c.tagName, c.className,
+    c.dataset.sort === undefined ? null : (c.dataset.sort !== '' && isFinite(c.dataset.sort) ?
+      Number(c.dataset.sort) : c.dataset.sort),
+    c.innerHTML.replace(/\\s+/g, ' ').trim()])])"""
+
+
+@pytest.mark.parametrize("path", ["index.html", "es/index.html"])
+def test_index_rows_from_the_data_are_the_rows_of_the_page(visit, root, path):
+    """The script writes the rows from index-rows.js as the page's HTML writes them."""
+    plain = visit(root + path, scripts=False).page.evaluate(ROW_CELLS)
+    v = visit(root + path)
+    v.page.wait_for_selector(".table-controls")
+    assert v.page.evaluate(ROW_CELLS) == plain
+    assert len(plain) > 10 and v.errors == []
+
+
+# --- a catalogue larger than a page: invented rows, ten to a page ------------------------------
+
+PAGED_ROWS, PAGE = 25, 10
+
+
+@pytest.fixture(scope="module")
+def paged_root(tmp_path_factory) -> str:
+    """An index page of invented rows, as a build writes it, ten rows to a page."""
+    from helpers import index_rows
+
+    from factsheet.i18n import use_language
+    from factsheet.model import Settings
+    from factsheet.render.environment import make_environment
+    from factsheet.render.index_page import IndexCount, IndexPage
+    from factsheet.render.site import Renderer, index_files
+    from factsheet.resources import templates_dir
+
+    folder = tmp_path_factory.mktemp("paged")
+    settings = Settings(title="Invented catalogue")
+    with use_language("en"):
+        renderer = Renderer(make_environment(), settings, "public", "", "en")
+        page = IndexPage(
+            index_rows(PAGED_ROWS), "", (), IndexCount(PAGED_ROWS, 0, 0), page_size=PAGE
+        )
+        for name, content in index_files(renderer, page).items():
+            (folder / name).write_bytes(content)
+    shutil.copytree(templates_dir() / "static", folder / "static")
+    return folder.as_uri() + "/"
+
+
+def ids(v) -> list[str]:
+    return v.page.evaluate(ROW_IDS)
+
+
+def heavier(v) -> list[float]:
+    return v.page.eval_on_selector_all(
+        "#catalogue tbody tr td:nth-child(4)", "tds => tds.map(td => Number(td.dataset.sort))"
+    )
+
+
+def test_paged_index_without_scripts_lists_the_first_rows_and_says_so(visit, paged_root):
+    v = visit(paged_root + "index.html", scripts=False)
+    assert ids(v) == [f"INV-{i:03d}" for i in range(1, PAGE + 1)]
+    note = v.page.locator("#catalogue-partial")
+    assert note.is_visible()
+    assert "the first 10 of the 25 fact sheets" in note.inner_text()
+    assert (
+        note.get_by_role("link", name="CSV", exact=True).get_attribute("href")
+        == "data/catalogue.csv"
+    )
+
+
+def test_paged_index_pages_through_every_row(visit, paged_root):
+    from helpers import index_rows
+
+    v = visit(paged_root + "index.html")
+    top, bottom = v.page.locator(".table-pager-top"), v.page.locator(".table-pager-bottom")
+    assert not v.page.locator("#catalogue-partial").is_visible()  # every row is reachable here
+    assert v.page.evaluate(COUNT) == "25 of 25 events shown"
+    assert top.get_attribute("aria-label") == "Pages of the table"
+    assert top.locator(".range").inner_text() == "Rows 1–10 of 25"
+    assert top.locator(".range").get_attribute("aria-live") == "polite"
+    assert top.get_by_role("button", name="Previous").is_disabled()
+    assert ids(v) == [f"INV-{i:03d}" for i in range(1, 11)]
+    # markup in a title is text, written by the script as by the page's HTML
+    title = v.page.locator("#catalogue tbody tr").nth(2).locator("th .sub")
+    assert title.inner_text().endswith("<b>&</b> <img src=x onerror=alert(1)>")
+    assert v.page.locator("#catalogue tbody img:not(.sky-thumb), #catalogue tbody b").count() == 0
+
+    top.get_by_role("button", name="Next").press("Enter")  # a real button: the keyboard works
+    assert ids(v) == [f"INV-{i:03d}" for i in range(11, 21)]
+    assert top.locator(".range").inner_text() == "Rows 11–20 of 25"
+    v.page.wait_for_function("() => location.hash === '#page=2'")
+
+    bottom.get_by_role("button", name="Last").click()
+    assert ids(v) == [f"INV-{i:03d}" for i in range(21, 26)]
+    assert bottom.locator(".range").inner_text() == "Rows 21–25 of 25"
+    # the new rows start at the top: focus went to the pager above the table
+    focused = "document.activeElement.closest('.table-pager-top') !== null"
+    assert v.page.evaluate(focused)
+    assert top.get_by_role("button", name="Next").is_disabled()
+
+    # a sort runs over every row, not the page shown, and starts again at the first page
+    masses = sorted(r.heavier_mass.sort for r in index_rows(PAGED_ROWS))
+    button = v.page.locator("#catalogue thead th[data-key=heavier_mass]").get_by_role("button")
+    button.click()
+    assert heavier(v) == masses[:PAGE]
+    assert top.locator(".range").inner_text() == "Rows 1–10 of 25"
+    button.click()
+    assert heavier(v) == masses[::-1][:PAGE]
+    header = v.page.locator("#catalogue thead th[data-key=heavier_mass]")
+    assert header.get_attribute("aria-sort") == "descending"
+    v.page.locator("#catalogue thead th[data-key=id]").get_by_role("button").click()
+    v.page.locator("#catalogue thead th[data-key=id]").get_by_role("button").click()
+    assert ids(v)[:2] == ["INV-025", "INV-024"]
+
+    # a filter runs over every row too
+    v.page.get_by_label("Filter", exact=True).fill("inv-01")
+    assert sorted(ids(v)) == [f"INV-{i:03d}" for i in range(10, 20)]
+    assert v.page.evaluate(COUNT) == "10 of 25 events shown"
+    assert top.get_by_role("button", name="Next").is_disabled()
+    v.page.get_by_label("Filter", exact=True).fill("")
+    v.page.get_by_label("Status", exact=True).select_option("candidate")
+    candidates = [r.id for r in index_rows(PAGED_ROWS) if r.status == "candidate"]
+    assert sorted(ids(v)) == candidates
+    assert v.page.evaluate(COUNT) == f"{len(candidates)} of 25 events shown"
+    assert v.errors == []
+
+
+def test_paged_index_restores_its_page_from_the_address(visit, paged_root):
+    from helpers import index_rows
+
+    v = visit(paged_root + "index.html#sort=heavier_mass&order=desc&page=2")
+    masses = sorted((r.heavier_mass.sort for r in index_rows(PAGED_ROWS)), reverse=True)
+    assert heavier(v) == masses[PAGE : 2 * PAGE]
+    header = v.page.locator("#catalogue thead th[data-key=heavier_mass]")
+    assert header.get_attribute("aria-sort") == "descending"
+    assert v.page.locator(".table-pager-top .range").inner_text() == "Rows 11–20 of 25"
+    assert v.errors == []
 
 
 @pytest.mark.parametrize("path", SHEETS)
@@ -275,6 +418,7 @@ def test_index_keeps_filter_and_sort_in_the_address(visit, root):
     v = visit(root + "index.html")
     v.page.get_by_label("Filter", exact=True).fill("MER34-006")
     v.page.locator("#catalogue thead th[data-key=heavier_mass]").get_by_role("button").click()
+    v.page.wait_for_function("() => location.hash.includes('sort=')")  # the address follows shortly
     shared = v.page.url
     assert urlsplit(shared).fragment == "q=MER34-006&sort=heavier_mass"
     w = visit(shared)  # the shared link restores the view, from file:// as over http
@@ -293,5 +437,6 @@ def test_index_says_when_nothing_matches_and_clears_the_filter(visit, root):
     assert " ".join(message.inner_text().split()) == "No event matches — clear the filter"
     message.get_by_role("button", name="clear the filter").click()
     assert v.page.evaluate(SHOWN) == v.page.locator("#catalogue tbody tr").count()
+    v.page.wait_for_function("() => location.hash === ''")  # the address follows shortly
     assert not message.is_visible() and urlsplit(v.page.url).fragment == ""
     assert v.errors == []

@@ -57,12 +57,16 @@ def markdown_filter(context: jinja2.runtime.Context, text: str) -> Markup:
 def original_language(context: jinja2.runtime.Context, text: object) -> str:
     """The language of an editor's text when the page shows it in that original language for
     want of a version in the page's own (empty otherwise)."""
-    if not isinstance(text, i18n.Editorial):
-        return ""
     settings = context.get("settings")
     first = settings.languages[0] if settings is not None else i18n.SOURCE
-    language = context.get("language", first)
-    if not text.missing_in(language, first):
+    return shown_original(text, context.get("language", first), first)
+
+
+def shown_original(text: object, language: str, first: str) -> str:
+    """The ``original_language`` filter outside a template: the language of an editor's text
+    when a page in ``language`` (of a site whose first language is ``first``) shows it in that
+    original language, else ""."""
+    if not isinstance(text, i18n.Editorial) or not text.missing_in(language, first):
         return ""
     return next(iter(text.versions)) or first
 
@@ -81,10 +85,15 @@ def url_filter(context: jinja2.runtime.Context, target: str) -> str:
     """A link from the page being rendered to ``target`` (a path from the site root, as in the
     first language's site): a page or the feed of the page's own language, or a shared file
     (style, script, exports, sounds; figures carry their language's path already)."""
-    prefix = context.get("language_prefix", "")
+    return site_link(context["page_path"], context.get("language_prefix", ""), target)
+
+
+def site_link(page_path: str, prefix: str, target: str) -> str:
+    """The ``url`` filter outside a template: a link from the page ``page_path`` of the
+    language whose pages are under ``prefix`` to the site path ``target``."""
     if prefix and (target.endswith(".html") or target == "feed.xml"):
         target = prefix + target
-    return placed_url(context, target)
+    return posixpath.relpath(target, posixpath.dirname(page_path) or ".")
 
 
 @jinja2.pass_context

@@ -1,19 +1,26 @@
-"""The context of ``index.html``: one row per sheet, the count of sheets and the exports.
+"""The context of ``index.html``: one row per sheet, the count of sheets and the exports, and
+the index's rows as data (``index-rows.js``).
 
 The count comes from the events of the build, never from the catalogue's description; an
 internal build also says how many of its sheets a public build leaves out (internal only, or
 with an embargo date) and badges those rows. Rendering keeps no clock: a row is badged as
 embargoed whenever its event has an ``embargo_until``, with that date, as the sheet itself does.
+
+The page's HTML holds the first :data:`PAGE_SIZE` rows (the whole table of a small catalogue);
+every row is in ``index-rows.js`` beside the page, from which ``static/catalogue.js`` sorts,
+filters and pages the table (:func:`rows_script`).
 """
 
 from __future__ import annotations
 
-from dataclasses import dataclass
+import json
+from collections.abc import Callable, Mapping
+from dataclasses import dataclass, field
 
 import astropy.units as u
 
 from factsheet import labels
-from factsheet.i18n import _, decimal_text, ngettext
+from factsheet.i18n import _, decimal_text, grouping, localized, ngettext, pgettext
 from factsheet.model import Derived, SiteFigure
 from factsheet.notation import format_value
 from factsheet.render.contexts import page_of
@@ -21,6 +28,22 @@ from factsheet.render.numbers import quantity_text, shown
 
 #: The catalogue exports the index links to (site paths), with their format's name.
 EXPORTS = (("data/catalogue.csv", "CSV"), ("data/catalogue.ecsv", "ECSV"))
+
+#: Rows the index page holds in its HTML, and rows per page of the scripted table.
+PAGE_SIZE = 100
+
+#: The file beside each language's index page that holds every row of its table as data.
+ROWS_FILE = "index-rows.js"
+
+#: The global that ``index-rows.js`` assigns its one JSON value to (read by catalogue.js).
+ROWS_GLOBAL = "factsheetIndexRows"
+
+#: The fields of a row in ``index-rows.js``, in order (:func:`rows_data`).
+ROW_FIELDS = (
+    "id", "href", "status", "class", "date", "title", "title_lang", "withheld", "bands",
+    "heavier_mass", "lighter_mass", "remnant_mass", "energy_radiated", "distance", "sky",
+    "sky_thumbnail",
+)  # fmt: skip
 
 #: Bands the index flags for a body (and intermediate mass for any subject) when more likely
 #: than not.
@@ -111,6 +134,26 @@ class IndexPage:
     index_figures: tuple[SiteFigure, ...]
     count: IndexCount
     exports: tuple[tuple[str, str], ...] = EXPORTS  # (site path, format name)
+    page_size: int = PAGE_SIZE  # rows in the page's HTML, and per page of the scripted table
+    rows_file: str = ROWS_FILE  # every row as data, beside the page
+    # the rows the page's HTML holds: the first page_size in the catalogue's order
+    first_rows: tuple[IndexRow, ...] = field(init=False)
+    # when the HTML holds only some rows, what a reader without the script is told ("" else)
+    partial_note: str = field(init=False)
+
+    def __post_init__(self) -> None:
+        first = self.rows[: self.page_size]
+        object.__setattr__(self, "first_rows", first)
+        note = ""
+        if len(first) < len(self.rows):
+            note = ngettext(
+                "Without its script this page lists only the first {shown} of the {total} fact "
+                "sheet, in the catalogue's order.",
+                "Without its script this page lists only the first {shown} of the {total} fact "
+                "sheets, in the catalogue's order.",
+                len(self.rows),
+            ).format(shown=decimal_text(len(first), 0), total=decimal_text(len(self.rows), 0))
+        object.__setattr__(self, "partial_note", note)
 
 
 @dataclass(frozen=True)
@@ -188,3 +231,82 @@ def index_page(
     internal = sum(r.visibility == "internal" for r in rows)
     embargoed = sum(r.visibility != "internal" and bool(r.embargo_until) for r in rows)
     return IndexPage(rows, description, tuple(figures), IndexCount(len(rows), internal, embargoed))
+
+
+def rows_data(
+    page: IndexPage, link: Callable[[str], str], original: Callable[[object], str]
+) -> dict[str, object]:
+    """Every row of the index as the page's HTML writes it, as data for ``catalogue.js``, in
+    the language in use: texts as shown (numbers with the language's decimal sign), each
+    number with the value it sorts by, and the words the rows are made of.
+
+    ``link`` makes a site path relative to the index page (the ``url`` filter); ``original``
+    gives the language of a title shown in its original language for want of a version in the
+    page's (the ``original_language`` filter), or "". A row is a list of :data:`ROW_FIELDS`; a
+    number is ``[text, sort value]`` or null.
+    """
+
+    def number(found: Cell | None) -> list[object] | None:
+        return None if found is None else [str(found.text), float(found.sort)]
+
+    rows = []
+    for row in page.rows:
+        title_lang = original(row.title)
+        rows.append(
+            [
+                row.id,
+                link(row.page),
+                row.status,
+                row.source_class,
+                row.date,
+                str.__str__(row.title) if title_lang else str(localized(row.title)),
+                title_lang,
+                str(row.withheld),
+                ", ".join(str(flag) for flag in row.band_flags),
+                number(row.heavier_mass),
+                number(row.lighter_mass),
+                number(row.remnant_mass),
+                number(row.energy_radiated),
+                number(row.distance),
+                number(row.sky),
+                link(row.sky_thumbnail) if row.sky_thumbnail else "",
+            ]
+        )
+    group, min_digits = grouping()
+    return {
+        "format": 1,
+        "page_size": page.page_size,
+        "digits": {"group": group, "min_digits": min_digits},
+        "words": row_words(),
+        "fields": list(ROW_FIELDS),
+        "rows": rows,
+    }
+
+
+def row_words() -> dict[str, object]:
+    """The words the table's rows are made of, in the language in use (the same messages as
+    the rows of ``index.html``); ``{event}`` and ``{area}`` are filled in by the script."""
+    return {
+        "status": {
+            status: pgettext("event status", status)
+            for status in ("confirmed", "candidate", "retracted")
+        },
+        "classes": {code: str(name) for code, name in labels.CLASS_NAMES.items()},
+        "not_computed": _("not computed for this pair"),
+        "not_given": _("not given"),
+        "sky_alt": _("Sky map of %(event)s: its 90 %% region covers %(area)s")
+        % {"event": "{event}", "area": "{area}"},
+    }
+
+
+def rows_script(data: Mapping[str, object]) -> bytes:
+    """``index-rows.js``: one JSON value assigned to a global, read by ``catalogue.js``.
+
+    A script rather than a ``.json`` file because a page opened from ``file://`` may not fetch
+    a file (and the pages' content policy allows no fetch at all), while a ``<script src>`` of
+    the site's own loads from disk as over http. Keys in a fixed order, no floats formatted by
+    the locale: two builds write the same bytes.
+    """
+    text = json.dumps(data, ensure_ascii=False, separators=(",", ":"), allow_nan=False)
+    head = "// factsheet: every row of the index table, as data for static/catalogue.js.\n"
+    return f"{head}window.{ROWS_GLOBAL} = {text};\n".encode()

@@ -20,10 +20,15 @@ from factsheet.load.reference import reference_for
 from factsheet.model import Derived, EventBundle, Settings, SiteFigure
 from factsheet.render import contexts, history, sheet, tables
 from factsheet.render.contexts import Alternate, SiteContext, variables
-from factsheet.render.environment import make_environment, templates_fingerprint
+from factsheet.render.environment import (
+    make_environment,
+    shown_original,
+    site_link,
+    templates_fingerprint,
+)
 from factsheet.render.event_json import event_json
 from factsheet.render.feed import atom_feed
-from factsheet.render.index_page import index_page
+from factsheet.render.index_page import IndexPage, index_page, rows_data, rows_script
 from factsheet.render.methods_page import methods_page
 from factsheet.resources import templates_dir
 
@@ -151,7 +156,7 @@ def catalogue_pages(
     prefix = r.prefix
     base = r.settings.base_url and r.settings.base_url + prefix
     pages = {
-        prefix + "index.html": r.page("index.html", "index.html", index),
+        **index_files(r, index),
         prefix + "methods.html": r.page(
             "methods.html",
             "methods.html",
@@ -168,6 +173,21 @@ def catalogue_pages(
             pages["data/catalogue.ecsv"] = tables.write_ecsv(table)
             pages["data/catalogue.csv"] = tables.write_csv(table)
     return pages
+
+
+def index_files(r: Renderer, index: IndexPage) -> dict[str, bytes]:
+    """The index page of the renderer's language and, beside it, every row of its table as
+    data (``index-rows.js``, read by the page's script), by site path."""
+    prefix, first = r.prefix, r.settings.languages[0]
+    data = rows_data(
+        index,
+        lambda target: site_link(prefix + "index.html", prefix, target),
+        lambda text: shown_original(text, r.language, first),
+    )
+    return {
+        prefix + "index.html": r.page("index.html", "index.html", index),
+        prefix + index.rows_file: rows_script(data),
+    }
 
 
 def render_event(

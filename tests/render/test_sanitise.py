@@ -36,7 +36,7 @@ MARKDOWN = "Kept *markdown* words"
 URL_ATTRIBUTES = {"href", "src", "action", "formaction", "xlink:href", "poster", "data"}
 BAD_SCHEMES = ("javascript:", "vbscript:", "data:text/html")
 BANNED_TAGS = {"iframe", "frame", "object", "embed", "style", "base", "form"}
-OUR_SCRIPT = "static/catalogue.js"
+OUR_SCRIPTS = ("static/catalogue.js", "index-rows.js")  # the index's script and its rows
 
 
 def hostile_event() -> dict:
@@ -119,7 +119,7 @@ def test_no_script_but_ours(site):
         text = path.read_text(encoding="utf-8")
         tags = parse(path)
         scripts = [attrs for tag, attrs in tags.tags if tag == "script"]
-        assert all(a.get("src", "").endswith(OUR_SCRIPT) for a in scripts), path
+        assert all(a.get("src", "").endswith(OUR_SCRIPTS) for a in scripts), path
         assert tags.script_text.strip() == "", path
         assert text.count("<script") == len(scripts), path
 
@@ -176,6 +176,19 @@ def test_plain_text_survives_escaped(site):
     assert "&lt;img src=x onerror=alert(1)&gt;" in page
     network = "A1, &lt;script&gt;alert(1)&lt;/script&gt; and &lt;img src=x onerror=alert(1)&gt;"
     assert network in page
+
+
+def test_index_rows_carry_text_as_data(site):
+    """index-rows.js is one JSON value assigned to a global: a hostile title is a string in it
+    (the page's script escapes it when it writes the row)."""
+    text = (site / "index-rows.js").read_text(encoding="utf-8")
+    comment, statement, end = text.split("\n")
+    assert comment.startswith("// ") and end == ""
+    prefix = "window.factsheetIndexRows = "
+    assert statement.startswith(prefix) and statement.endswith(";")
+    data = json.loads(statement.removeprefix(prefix).removesuffix(";"))
+    titles = [row[data["fields"].index("title")] for row in data["rows"]]
+    assert titles == [hostile_event()["title"]]
 
 
 def test_json_carries_text_as_data(site):
