@@ -6,6 +6,7 @@ a comment at the top; the contributor guide has the same list.
 
 from __future__ import annotations
 
+import functools
 from dataclasses import dataclass, fields, replace
 
 import astropy.units as u
@@ -65,18 +66,37 @@ def page_of(event_id: str) -> str:
 def display_summary(summary: Summary, energy_units: str = "SI") -> Summary:
     """A summary in the unit a reader expects: milliseconds for short times, and energies and
     powers in the catalogue's ``energy_units`` (J and W, or erg and erg/s)."""
-    unit = u.Unit(summary.unit)
-    if unit == u.s and abs(summary.median) < 1:
+    if _is_seconds(summary.unit) and abs(summary.median) < 1:
         return converted(summary, "ms")
+    target = _energy_unit(summary.unit, energy_units)
+    return summary if target is None else converted(summary, target)
+
+
+# Unit comparisons are slow in astropy (each decomposes both units); a catalogue page asks the
+# same few questions thousands of times, so the answers are kept (they depend on the names only).
+@functools.cache
+def _is_seconds(unit: str) -> bool:
+    return u.Unit(unit) == u.s
+
+
+@functools.cache
+def _energy_unit(unit: str, energy_units: str) -> str | None:
+    """The unit of ``energy_units`` an energy or power in ``unit`` is shown in (None: as is)."""
+    found = u.Unit(unit)
     for target in ENERGY_UNITS[energy_units]:
-        if unit.is_equivalent(target) and unit != target:
-            return converted(summary, target.to_string())
-    return summary
+        if found.is_equivalent(target) and found != target:
+            return target.to_string()
+    return None
+
+
+@functools.cache
+def _factor(source: str, target: str) -> float:
+    return float(u.Unit(source).to(target))
 
 
 def converted(summary: Summary, unit: str) -> Summary:
     """The same summary in another unit of the same dimension."""
-    factor = u.Unit(summary.unit).to(unit)
+    factor = _factor(summary.unit, unit)
     spread = None if summary.fit_spread is None else summary.fit_spread * factor
     return replace(
         summary,
