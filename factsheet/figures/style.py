@@ -30,12 +30,14 @@ the dark text and mid-tone lines read the same whether the page around it is lig
 from __future__ import annotations
 
 import textwrap
-from collections.abc import Callable
+from collections.abc import Callable, Iterator
 from functools import wraps
 
 import astropy.units as u
 import matplotlib
+from matplotlib.artist import Artist
 from matplotlib.axes import Axes
+from matplotlib.axis import Axis
 from matplotlib.figure import Figure
 from matplotlib.text import Text
 from matplotlib.ticker import NullLocator, ScalarFormatter
@@ -131,10 +133,27 @@ def styled(draw: Callable) -> Callable:
 
 def plain_text(figure: Figure) -> None:
     """Mark every text already in ``figure`` as plain text (the rc settings cover texts made
-    later, such as tick labels made while drawing)."""
-    for text in figure.findobj(Text):
+    later, such as tick labels made while drawing: they copy ``usetex`` from the axis's first
+    tick, which is marked here)."""
+    for text in _texts(figure):
         text.set_parse_math(False)
         text.set_usetex(False)
+
+
+def _texts(artist: Artist) -> Iterator[Text]:
+    """Every text in ``artist`` and below it, without making ticks: ``findobj`` asks each axis
+    for its ticks, which creates one per tick location (most of the cost of a walk), while
+    ticks made later take their text settings from the rc settings and the first tick."""
+    if isinstance(artist, Text):
+        yield artist
+    if isinstance(artist, Axis):
+        made = vars(artist)  # the tick lists an axis has made so far (they are made lazily)
+        children = [artist.label, artist.offsetText]
+        children += [*made.get("majorTicks", ()), *made.get("minorTicks", ())]
+    else:
+        children = artist.get_children()
+    for child in children:
+        yield from _texts(child)
 
 
 def new_figure(width: float, height: float, margins: tuple[float, float, float, float]) -> Figure:

@@ -29,6 +29,15 @@ def to_svg(figure: Figure, close: bool = True) -> bytes:
             buffer, format="svg", facecolor=figure.get_facecolor(), metadata=_NO_METADATA
         )
     if close:
-        figure.clear()
+        release(figure)
     data = _DOCTYPE.sub(b"", buffer.getvalue(), count=1)
     return _METADATA.sub(b"", data, count=1)
+
+
+def release(figure: Figure) -> None:
+    """Empty ``figure``: its Axes taken out without resetting each first (what
+    ``Figure.clear`` does, at the cost of re-making every tick of an Axes that is thrown
+    away), then the figure's own artists."""
+    for ax in tuple(figure.axes):
+        figure.delaxes(ax)
+    figure.clear()
