@@ -3,7 +3,8 @@
 Drawn with the figures' palette and fonts: the status first when it is not "confirmed" (a
 retracted event says so across the top, before anything else), the title, the designation and
 date, and the two bodies and the remnant as discs whose areas follow their masses, each with its
-mass as the sheet prints it. Text only and a few patches on one axes, so it costs little.
+mass as the sheet prints it. Text only and a few patches on one axes, so it costs little. It is
+stored as an 8-bit palette PNG (:func:`palette_png`): about 15 kB instead of about 56 kB.
 """
 
 from __future__ import annotations
@@ -14,8 +15,11 @@ import textwrap
 from typing import NamedTuple
 
 import matplotlib
+import numpy as np
+from matplotlib.backends.backend_agg import FigureCanvasAgg
 from matplotlib.figure import Figure
 from matplotlib.patches import Circle, FancyArrowPatch, Rectangle
+from PIL import Image
 
 from factsheet.figures import style
 
@@ -115,13 +119,38 @@ def share_png(card: ShareCard) -> bytes:
         ax.text(0.04, below, str(card.subtitle), fontsize=22, va="top", color=style.INK)
         _discs(ax, card.bodies)
         ax.text(0.04, 0.015, str(card.footer), fontsize=16, color=style.MUTED, va="bottom")
-        buffer = io.BytesIO()
-        fig.savefig(
-            buffer,
-            format="png",
-            dpi=DPI,
-            facecolor=style.PANEL,
-            metadata={"Software": None},
-            pil_kwargs={"compress_level": 1},  # a third cheaper than the default; ~65 kB
+        canvas = FigureCanvasAgg(fig)
+        canvas.draw()
+        rgb = Image.frombuffer("RGBA", canvas.get_width_height(), canvas.buffer_rgba()).convert(
+            "RGB"
         )
+    return palette_png(rgb)
+
+
+#: The card's flat colours, kept exact in its palette (see :func:`palette_png`).
+FLAT = (style.PANEL, style.INK, style.MUTED, style.GRID, *style.ROLE.values(),
+        *STATUS_SHADE.values())  # fmt: skip
+PALETTE_COLOURS = 128
+SNAP = 4  # a palette entry this close (in each channel, of 255) to a flat colour becomes it
+
+
+def palette_png(rgb: Image.Image) -> bytes:
+    """The image as an 8-bit palette PNG: a flat graphic (a few colours and their antialiased
+    edges) keeps its look in 128 colours at about a quarter of the bytes of a true-colour PNG.
+
+    The palette is adaptive (Pillow's fast octree, no dithering: a deterministic function of
+    the pixels); an entry within :data:`SNAP` of one of the card's flat colours is set to that
+    colour, so the panel, the ink and the tints come out exact rather than averaged with their
+    edges. No text chunks: the bytes depend on the pixels alone."""
+    image = rgb.quantize(
+        PALETTE_COLOURS, method=Image.Quantize.FASTOCTREE, dither=Image.Dither.NONE
+    )
+    flat = np.array([[int(h[k : k + 2], 16) for k in (1, 3, 5)] for h in FLAT])
+    entries = np.array(image.getpalette() or [], dtype=int).reshape(-1, 3)
+    distance = np.abs(entries[:, None, :] - flat[None, :, :]).max(axis=2)
+    nearest = distance.argmin(axis=1)
+    snapped = np.where((distance.min(axis=1) <= SNAP)[:, None], flat[nearest], entries)
+    image.putpalette(snapped.astype(np.uint8).ravel().tolist())
+    buffer = io.BytesIO()
+    image.save(buffer, format="PNG", compress_level=6)  # 9 saves a tenth more at 5x the time
     return buffer.getvalue()

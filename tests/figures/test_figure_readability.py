@@ -8,6 +8,7 @@ demo catalogue (invented events) is built once; its figures are checked as files
 
 from __future__ import annotations
 
+import io
 import re
 import struct
 import xml.etree.ElementTree as ET
@@ -235,6 +236,20 @@ def test_share_image_is_a_1200_by_630_png_with_stable_bytes():
     assert png == share_png(card("retracted"))
     assert b"Software" not in png and b"matplotlib" not in png.lower()
     assert share_png(card(None)) != png
+
+
+def test_share_image_is_a_palette_png_that_keeps_the_card_colours_exact():
+    from PIL import Image
+
+    from factsheet.figures.share import PALETTE_COLOURS
+
+    png = share_png(card(None))
+    image = Image.open(io.BytesIO(png))
+    assert image.mode == "P" and len(image.getcolors()) <= PALETTE_COLOURS
+    rgb = image.convert("RGB")
+    panel = tuple(int(style.PANEL[k : k + 2], 16) for k in (1, 3, 5))
+    assert rgb.getpixel((5, 5)) == panel  # the panel's flat colour, not an average with edges
+    assert len(png) < 25_000  # a true-colour PNG of the same card takes about 56 kB
 
 
 # --- one quantity, one number ------------------------------------------------------------------
