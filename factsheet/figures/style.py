@@ -213,8 +213,11 @@ def row_names(ax: Axes, ys, names: list[str], bold: int | None = None) -> None:
         )
 
 
-def finish_axes(ax: Axes, grid_axis: str = "both") -> None:
-    """Our axes look: thin dark frame, outward ticks, major-only light grid below the data."""
+def axes_look(ax: Axes, grid_axis: str = "both") -> None:
+    """Our axes look: thin dark frame, outward ticks, major-only light grid below the data.
+
+    Called right after the Axes is made: an axis then has one tick of each kind, and every
+    tick it makes later is made with these settings, instead of each tick being set again."""
     ax.set_facecolor(AXES_FACE)
     for spine in ax.spines.values():
         spine.set_color(INK)
@@ -224,9 +227,19 @@ def finish_axes(ax: Axes, grid_axis: str = "both") -> None:
     if grid_axis:
         ax.grid(True, which="major", axis=grid_axis, color=GRID, linewidth=0.6)
     ax.set_axisbelow(True)
-    for axis in (ax.xaxis, ax.yaxis):  # matplotlib's own tick numbers, in the language's digits
+
+
+def local_numbers(ax: Axes) -> None:
+    """matplotlib's own tick numbers in the language's digits (once the scales are set)."""
+    for axis in (ax.xaxis, ax.yaxis):
         if type(axis.get_major_formatter()) is ScalarFormatter:
             axis.set_major_formatter(LocalFormatter())
+
+
+def finish_axes(ax: Axes, grid_axis: str = "both") -> None:
+    """:func:`axes_look` and :func:`local_numbers` at once, for an Axes already drawn on."""
+    axes_look(ax, grid_axis)
+    local_numbers(ax)
 
 
 def unit_label(name: str, unit: str | u.UnitBase) -> str:
