@@ -18,7 +18,8 @@ import matplotlib
 import numpy as np
 from matplotlib.backends.backend_agg import FigureCanvasAgg
 from matplotlib.figure import Figure
-from matplotlib.patches import Circle, FancyArrowPatch, Rectangle
+from matplotlib.patches import Circle, FancyArrowPatch, Patch, Rectangle
+from matplotlib.transforms import Affine2D
 from PIL import Image
 
 from factsheet.figures import style
@@ -92,14 +93,28 @@ def _status(ax, status: str, tone: str) -> None:
     )
 
 
+class _Surface:
+    """The card's drawing surface: the Figure itself, in card units (x from 0 to 1 across, y
+    from 0 to 0.525 up: one unit is the card's width both ways, so discs stay round). No Axes:
+    one would make ticks, spines and data limits that the card never shows."""
+
+    def __init__(self, fig: Figure) -> None:
+        self.fig = fig
+        self.transform = Affine2D().scale(1.0, SIZE_PX[0] / SIZE_PX[1]) + fig.transFigure
+
+    def add_patch(self, patch: Patch) -> None:
+        patch.set_transform(self.transform)
+        self.fig.add_artist(patch)
+
+    def text(self, x: float, y: float, s: str, **kwargs) -> None:
+        self.fig.text(x, y, s, transform=self.transform, **kwargs)
+
+
 def share_png(card: ShareCard) -> bytes:
     """The card as PNG bytes, identical for identical input (no software tag, fixed size)."""
     with matplotlib.rc_context(style.RC):
         fig = Figure(figsize=(SIZE_PX[0] / DPI, SIZE_PX[1] / DPI), dpi=DPI, facecolor=style.PANEL)
-        ax = fig.add_axes((0, 0, 1, 1))
-        ax.set_axis_off()
-        ax.set_xlim(0, 1)
-        ax.set_ylim(0, SIZE_PX[1] / SIZE_PX[0])
+        ax = _Surface(fig)
         top = 0.5
         if card.status:
             _status(ax, card.status, card.tone)
@@ -121,10 +136,8 @@ def share_png(card: ShareCard) -> bytes:
         ax.text(0.04, 0.015, str(card.footer), fontsize=16, color=style.MUTED, va="bottom")
         canvas = FigureCanvasAgg(fig)
         canvas.draw()
-        rgb = Image.frombuffer("RGBA", canvas.get_width_height(), canvas.buffer_rgba()).convert(
-            "RGB"
-        )
-    return palette_png(rgb)
+        rgba = Image.frombuffer("RGBA", canvas.get_width_height(), canvas.buffer_rgba())
+    return palette_png(rgba.convert("RGB"))
 
 
 #: The card's flat colours, kept exact in its palette (see :func:`palette_png`).
