@@ -96,11 +96,21 @@ REFERENCE = re.compile(r'(?:url\(#|xlink:href="#)([^)"]+)')
 
 def drawn_elements(svg: bytes) -> list[tuple]:
     """What a viewer draws, element by element in document order: tag, text, the attributes
-    other than ids and geometry, and the geometry's numbers (groups with nothing but an id, and
-    upright rotations, do nothing)."""
+    other than ids and geometry (a class taken as the style it stands for), and the geometry's
+    numbers (groups with nothing but an id, and upright rotations, do nothing)."""
+    root = ET.fromstring(svg)
+    sheet = "".join(node.text or "" for node in root.iter("{http://www.w3.org/2000/svg}style"))
+    rules = dict(re.findall(r"\.([\w-]+)\{([^}]*)\}", sheet))
     out = []
-    for node in ET.fromstring(svg).iter():
+    for node in root.iter():
         attrs = {k: v for k, v in node.attrib.items() if k != "id"}
+        if "class" in attrs:  # a style that elements share, written once in the style sheet
+            attrs["style"] = rules[attrs.pop("class")]
+        if "style" in attrs:
+            attrs["style"] = ";".join(part.strip() for part in attrs["style"].split(";"))
+            attrs["style"] = attrs["style"].replace(": ", ":")
+        if node.tag.endswith("}style"):
+            continue
         if attrs.get("transform", "").startswith("rotate(-0 "):
             del attrs["transform"]
         if node.tag.endswith("}g") and not attrs:

@@ -3,7 +3,7 @@
 Every text is written as plain text (no mathtext, no TeX), whatever characters it holds.
 
 What matplotlib writes is then made smaller without changing what a viewer draws
-(:func:`compact`): about 30 % fewer bytes.
+(:func:`compact`): about half the bytes.
 """
 
 from __future__ import annotations
@@ -49,8 +49,9 @@ def compact(svg: bytes) -> bytes:
     """matplotlib's SVG with the same drawing in fewer bytes: coordinates to :data:`PLACES`
     decimals (the root's size and viewBox too, so the panel still fills it), path data on one
     line, no ``id`` that nothing refers to (matplotlib names every group), no group left with
-    no attribute (it does nothing), no ``rotate(-0 …)`` on upright text and no indentation.
-    Clip paths and markers, which are referred to, keep their ids."""
+    no attribute (it does nothing), no ``rotate(-0 …)`` on upright text and no indentation,
+    and a style that many elements share written once as a class. Clip paths and markers,
+    which are referred to, keep their ids."""
     used = set(_REFERENCE.findall(svg))
     svg = _ID.sub(lambda m: m.group() if m.group(1) in used else b"", svg)
     svg = _NO_ROTATION.sub(b"", svg)
@@ -68,7 +69,37 @@ def compact(svg: bytes) -> bytes:
         elif tag == b"</g>" and dropped.pop():
             continue
         lines.append(tag)
-    return b"\n".join(lines) + b"\n"
+    return _style_classes(b"\n".join(lines) + b"\n")
+
+
+_STYLE = re.compile(rb' style="([^"]*)"')
+_SHEET = re.compile(rb'<style type="text/css">(.*?)</style>', re.S)
+
+
+def _style_classes(svg: bytes) -> bytes:
+    """Each style that two or more elements share written once, as a class rule in the style
+    sheet matplotlib already writes (classes ``s0``, ``s1``, … in order of first use), with its
+    whitespace after ``:`` and ``;`` dropped. A class rule outranks the sheet's ``*`` rule as the
+    inline style did, and nothing else styles these elements, so they are drawn the same."""
+    sheet = _SHEET.search(svg)
+    counts: dict[bytes, int] = {}
+    for style in _STYLE.findall(svg):
+        counts[style] = counts.get(style, 0) + 1
+    if sheet is None or b"class=" in svg:
+        return svg
+    names = {v: b"s%d" % k for k, v in enumerate(v for v, n in counts.items() if n > 1)}
+    rules = b"".join(b"." + name + b"{" + _tight(style) + b"}" for style, name in names.items())
+
+    def swap(match: re.Match) -> bytes:
+        name = names.get(match.group(1))
+        return b' class="' + name + b'"' if name else b' style="' + _tight(match.group(1)) + b'"'
+
+    head, body = svg[: sheet.end(1)], svg[sheet.end(1) :]
+    return head + rules + _STYLE.sub(swap, body)
+
+
+def _tight(style: bytes) -> bytes:
+    return style.replace(b": ", b":").replace(b"; ", b";")
 
 
 def _short_geometry(match: re.Match) -> bytes:

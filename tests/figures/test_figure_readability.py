@@ -50,12 +50,21 @@ def view_width(root: ET.Element) -> float:
     return float(root.get("viewBox").split()[2])
 
 
+def css(text: str) -> dict[str, str]:
+    pairs = (part.split(":", 1) for part in text.split(";") if ":" in part)
+    return {k.strip(): v.strip() for k, v in pairs}
+
+
 def text_styles(root: ET.Element) -> list[dict[str, str]]:
-    """The style of every ``<text>`` element, as a dict of CSS properties."""
+    """The style of every ``<text>`` element, as a dict of CSS properties: its class's rule in
+    the SVG's style sheet (a style that elements share is written once there), then its own
+    ``style`` attribute."""
+    sheet = "".join(node.text or "" for node in root.iter(f"{SVG}style"))
+    rules = {name: css(body) for name, body in re.findall(r"\.([\w-]+)\{([^}]*)\}", sheet)}
     styles = []
     for node in root.iter(f"{SVG}text"):
-        pairs = (part.split(":", 1) for part in node.get("style", "").split(";") if ":" in part)
-        styles.append({k.strip(): v.strip() for k, v in pairs})
+        found = dict(rules.get(node.get("class", ""), {}))
+        styles.append(found | css(node.get("style", "")))
     return styles
 
 
