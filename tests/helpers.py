@@ -2,7 +2,9 @@
 
 from __future__ import annotations
 
+import re
 import textwrap
+import xml.etree.ElementTree as ET
 from pathlib import Path
 
 VALID_EVENT = """\
@@ -121,3 +123,59 @@ def index_rows(n: int) -> tuple:
             )
         )
     return tuple(rows)
+
+
+# --- compact SVG: what a viewer draws is what matplotlib wrote ------------------------------
+
+NUMBER = re.compile(r"-?\d+(?:\.\d+)?")
+GEOMETRY = {"d", "x", "y", "width", "height", "viewBox", "transform"}
+REFERENCE = re.compile(r'(?:url\(#|xlink:href="#)([^)"]+)')
+
+
+def drawn_elements(svg: bytes) -> list[tuple]:
+    """What a viewer draws, element by element in document order: tag, text, the attributes
+    other than ids and geometry (a class taken as the style it stands for), and the geometry's
+    numbers (groups with nothing but an id, and upright rotations, do nothing)."""
+    root = ET.fromstring(svg)
+    sheet = "".join(node.text or "" for node in root.iter("{http://www.w3.org/2000/svg}style"))
+    rules = dict(re.findall(r"\.([\w-]+)\{([^}]*)\}", sheet))
+    out = []
+    for node in root.iter():
+        attrs = {k: v for k, v in node.attrib.items() if k != "id"}
+        if "class" in attrs:  # a style that elements share, written once in the style sheet
+            attrs["style"] = rules[attrs.pop("class")]
+        if "style" in attrs:
+            attrs["style"] = ";".join(part.strip() for part in attrs["style"].split(";"))
+            attrs["style"] = attrs["style"].replace(": ", ":")
+        if node.tag.endswith("}style"):
+            continue
+        if attrs.get("transform", "").startswith("rotate(-0 "):
+            del attrs["transform"]
+        if node.tag.endswith("}g") and not attrs:
+            continue
+        rest = {k: v for k, v in attrs.items() if k not in GEOMETRY}
+        shape = {k: list(map(float, NUMBER.findall(attrs[k]))) for k in attrs.keys() - rest.keys()}
+        out.append((node.tag, (node.text or "").strip(), rest, shape))
+    return out
+
+
+def check_compact(make_figure, monkeypatch) -> None:
+    """The compacted SVG of ``make_figure()`` draws the same elements, with the same texts and
+    styles, at coordinates within rounding of matplotlib's, and every reference resolves."""
+    import pytest
+
+    from factsheet.figures import svg as svg_module
+
+    compact = svg_module.compact
+    monkeypatch.setattr(svg_module, "compact", lambda data: data)  # what matplotlib wrote
+    raw = svg_module.to_svg(make_figure())
+    small = compact(raw)
+    assert len(small) < 0.8 * len(raw)
+    before, after = drawn_elements(raw), drawn_elements(small)
+    assert [e[:3] for e in after] == [e[:3] for e in before]
+    for (_tag, _text, _rest, shape), (_, _, _, kept) in zip(before, after, strict=True):
+        assert shape.keys() == kept.keys()
+        for key, numbers in shape.items():
+            assert kept[key] == pytest.approx(numbers, abs=0.0051), key
+    text = small.decode()
+    assert set(REFERENCE.findall(text)) <= set(re.findall(r' id="([^"]+)"', text))

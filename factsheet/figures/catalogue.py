@@ -183,6 +183,7 @@ def mass_plane(
     top = (bottom_in + side) / height
     fig = style.new_figure(width, height, (left, left + side / width, bottom, top))
     ax = fig.add_subplot()  # square axes: the diagonal at 45°
+    style.axes_look(ax)
     diagonal = _square_log_axes(ax, lo, hi, axis_names)
     band_handles = _shade_bands(ax, bands)
     _points(ax, m1, m2, statuses)
@@ -200,7 +201,7 @@ def mass_plane(
         columnspacing=0.8,
         borderaxespad=0.2,
     )
-    style.finish_axes(ax)
+    style.local_numbers(ax)
     return Drawing(fig, _plane_alt(m1, m2, statuses, edges) + _named_words(len(named), ids))
 
 
@@ -275,6 +276,7 @@ def distance_mass(events: list[DistanceItem], notable_ids: set[str] | None = Non
     m = _intervals(events, ("total_mass_median", "total_mass_low", "total_mass_high"), MSUN)
     fig = style.new_figure(style.WIDTH, 4.6, (0.19, 0.96, 0.8 / 4.6, 1 - 0.45 / 4.6))
     ax = fig.add_subplot()
+    style.axes_look(ax)
     ax.set_xscale("log")
     ax.set_yscale("log")
     statuses, ids = [e.status for e in events], [e.id for e in events]
@@ -297,7 +299,7 @@ def distance_mass(events: list[DistanceItem], notable_ids: set[str] | None = Non
         handlelength=1.2,
         columnspacing=1.0,
     )
-    style.finish_axes(ax)
+    style.local_numbers(ax)
     alt = _(
         "Luminosity distance against total mass for {events} ({statuses}): distances from "
         "{distance_low} to {distance_high}, total masses from {mass_low} to {mass_high}."

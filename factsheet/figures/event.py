@@ -63,6 +63,7 @@ def component_intervals(items: list[IntervalItem]) -> Drawing:
     height = 0.62 + row_in * len(items)
     fig = style.new_figure(style.WIDTH, height, (0.04, 0.96, 0.5 / height, 1 - 0.05 / height))
     ax = fig.add_subplot()
+    style.axes_look(ax, grid_axis="x")
     for y, item, role in zip(ys, items, _cycle(INTERVAL_COLOURS, len(items)), strict=True):
         err = [[item.median - item.low], [item.high - item.median]]
         colour = style.ROLE[role]
@@ -71,7 +72,7 @@ def component_intervals(items: list[IntervalItem]) -> Drawing:
     ax.set_ylim(-0.45, len(items) - 0.2)
     ax.set_xlim(0, max(item.high for item in items) * 1.08)
     ax.set_xlabel(style.unit_label(_quantity_name(unit), unit))
-    style.finish_axes(ax, grid_axis="x")
+    style.local_numbers(ax)
     parts = [f"{i.label} {_shown(i, unit)}" for i in items]
     levels = "/".join(dict.fromkeys(percent(i.level) for i in items))
     alt = _("Medians with {levels} credible intervals: {values}.")
@@ -107,6 +108,7 @@ def comparison_points(
     height = 0.62 + row_in * len(rows)
     fig = style.new_figure(style.WIDTH, height, (0.04, 0.96, 0.5 / height, 1 - 0.05 / height))
     ax = fig.add_subplot()
+    style.axes_look(ax, grid_axis="x")
     ax.set_xscale("log")
     for y, r in zip(ys, rows, strict=True):
         if r.own:
@@ -130,7 +132,7 @@ def comparison_points(
     set_log_ticks(ax.xaxis, lo, hi)
     ax.set_ylim(-0.45, len(rows) - 0.2)
     ax.set_xlabel(_("{name}, log scale").format(name=style.unit_label(title, unit)))
-    style.finish_axes(ax, grid_axis="x")
+    style.local_numbers(ax)
     listed = "; ".join(f"{r.name} {r.shown}" for r in rows)
     alt = _(
         "{quantity} on a logarithmic scale, largest first, the merger's with its {level} "

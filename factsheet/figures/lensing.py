@@ -43,6 +43,7 @@ def lensed_masses(columns: list[LensColumn], gap: tuple[float, float], gap_label
     height = 3.7
     fig = style.new_figure(style.WIDTH, height, (0.14, 0.97, 0.62 / height, 1 - 0.72 / height))
     ax = fig.add_subplot()
+    style.axes_look(ax, grid_axis="y")
     top = max(m.high for c in columns for m in c.masses) * 1.08
     gap_label = str(gap_label)  # the band's name in the language in use
     ax.axhspan(
@@ -71,7 +72,7 @@ def lensed_masses(columns: list[LensColumn], gap: tuple[float, float], gap_label
         bbox_to_anchor=(-0.16, 1.0), ncol=2, frameon=False, fontsize=style.FONT,
         handletextpad=0.4, columnspacing=1.2, borderaxespad=0.2,
     )  # fmt: skip
-    style.finish_axes(ax, grid_axis="y")
+    style.local_numbers(ax)
     return Drawing(fig, _alt(columns, gap_label))
 
 

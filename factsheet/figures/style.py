@@ -30,12 +30,14 @@ the dark text and mid-tone lines read the same whether the page around it is lig
 from __future__ import annotations
 
 import textwrap
-from collections.abc import Callable
+from collections.abc import Callable, Iterator
 from functools import wraps
 
 import astropy.units as u
 import matplotlib
+from matplotlib.artist import Artist
 from matplotlib.axes import Axes
+from matplotlib.axis import Axis
 from matplotlib.figure import Figure
 from matplotlib.text import Text
 from matplotlib.ticker import NullLocator, ScalarFormatter
@@ -131,10 +133,27 @@ def styled(draw: Callable) -> Callable:
 
 def plain_text(figure: Figure) -> None:
     """Mark every text already in ``figure`` as plain text (the rc settings cover texts made
-    later, such as tick labels made while drawing)."""
-    for text in figure.findobj(Text):
+    later, such as tick labels made while drawing: they copy ``usetex`` from the axis's first
+    tick, which is marked here)."""
+    for text in _texts(figure):
         text.set_parse_math(False)
         text.set_usetex(False)
+
+
+def _texts(artist: Artist) -> Iterator[Text]:
+    """Every text in ``artist`` and below it, without making ticks: ``findobj`` asks each axis
+    for its ticks, which creates one per tick location (most of the cost of a walk), while
+    ticks made later take their text settings from the rc settings and the first tick."""
+    if isinstance(artist, Text):
+        yield artist
+    if isinstance(artist, Axis):
+        made = vars(artist)  # the tick lists an axis has made so far (they are made lazily)
+        children = [artist.label, artist.offsetText]
+        children += [*made.get("majorTicks", ()), *made.get("minorTicks", ())]
+    else:
+        children = artist.get_children()
+    for child in children:
+        yield from _texts(child)
 
 
 def new_figure(width: float, height: float, margins: tuple[float, float, float, float]) -> Figure:
@@ -194,8 +213,11 @@ def row_names(ax: Axes, ys, names: list[str], bold: int | None = None) -> None:
         )
 
 
-def finish_axes(ax: Axes, grid_axis: str = "both") -> None:
-    """Our axes look: thin dark frame, outward ticks, major-only light grid below the data."""
+def axes_look(ax: Axes, grid_axis: str = "both") -> None:
+    """Our axes look: thin dark frame, outward ticks, major-only light grid below the data.
+
+    Called right after the Axes is made: an axis then has one tick of each kind, and every
+    tick it makes later is made with these settings, instead of each tick being set again."""
     ax.set_facecolor(AXES_FACE)
     for spine in ax.spines.values():
         spine.set_color(INK)
@@ -205,9 +227,19 @@ def finish_axes(ax: Axes, grid_axis: str = "both") -> None:
     if grid_axis:
         ax.grid(True, which="major", axis=grid_axis, color=GRID, linewidth=0.6)
     ax.set_axisbelow(True)
-    for axis in (ax.xaxis, ax.yaxis):  # matplotlib's own tick numbers, in the language's digits
+
+
+def local_numbers(ax: Axes) -> None:
+    """matplotlib's own tick numbers in the language's digits (once the scales are set)."""
+    for axis in (ax.xaxis, ax.yaxis):
         if type(axis.get_major_formatter()) is ScalarFormatter:
             axis.set_major_formatter(LocalFormatter())
+
+
+def finish_axes(ax: Axes, grid_axis: str = "both") -> None:
+    """:func:`axes_look` and :func:`local_numbers` at once, for an Axes already drawn on."""
+    axes_look(ax, grid_axis)
+    local_numbers(ax)
 
 
 def unit_label(name: str, unit: str | u.UnitBase) -> str:

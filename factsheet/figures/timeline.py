@@ -106,6 +106,7 @@ def window_timeline(windows: list[WindowItem], merger_utc: str) -> Drawing:
     height = 0.9 + row_in * len(windows)
     fig = style.new_figure(style.WIDTH, height, (0.04, 0.96, 0.75 / height, 1 - 0.05 / height))
     ax = fig.add_subplot()
+    style.axes_look(ax, grid_axis="x")
     left, right, log = _span(starts, ends)
     if log:
         ax.set_xscale("log")
@@ -119,7 +120,7 @@ def window_timeline(windows: list[WindowItem], merger_utc: str) -> Drawing:
     _window_axis(ax, left, right, merger_utc, log)
     ax.set_ylim(-0.45, len(windows) - 0.2)
     style.row_names(ax, ys, names)
-    style.finish_axes(ax, grid_axis="x")
+    style.local_numbers(ax)
     parts = [
         _("{window} ({band}) from {start} to {end}").format(
             window=w.name, band=WINDOW_BANDS[w.band], start=duration_words(s), end=duration_words(e)
@@ -190,6 +191,7 @@ def history(points: list[HistoryItem]) -> Drawing:
 
 
 def _history_panel(ax, name: str, items: list[HistoryItem], ys: dict, latest: tuple) -> None:
+    style.axes_look(ax, grid_axis="x")
     for p in items:
         key = (p.date_iso, p.label)
         colour = style.ROLE["primary"] if key == latest else style.MUTED
@@ -208,5 +210,5 @@ def _history_panel(ax, name: str, items: list[HistoryItem], ys: dict, latest: tu
     hi = max(p.high for p in items)
     pad = 0.15 * (hi - lo or abs(hi) or 1.0)
     ax.set_xlim(lo - pad, hi + pad)
-    style.finish_axes(ax, grid_axis="x")
+    style.local_numbers(ax)
     ax.xaxis.set_major_locator(MaxNLocator(5))

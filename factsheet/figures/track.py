@@ -172,6 +172,8 @@ def frequency_track(track: Track) -> Drawing:
     grid = fig.add_gridspec(1, 2 if ring else 1, width_ratios=[3, 1] if ring else [1], wspace=0.06)
     ax = fig.add_subplot(grid[0])
     axes = [ax, fig.add_subplot(grid[1], sharey=ax)] if ring else [ax]
+    for each in axes:
+        style.axes_look(each)
     ax.set_yscale("log")
     if len(t):
         track_name = _("frequency track")
@@ -188,7 +190,7 @@ def frequency_track(track: Track) -> Drawing:
         _note(ax, track, lo, hi)
     ax.set_ylabel(style.unit_label(FIGURE_NAMES["frequency"], "Hz"))
     for each in axes:
-        style.finish_axes(each)
+        style.local_numbers(each)
     return Drawing(fig, _track_alt(track, t))
 
 

@@ -8,6 +8,7 @@ demo catalogue (invented events) is built once; its figures are checked as files
 
 from __future__ import annotations
 
+import io
 import re
 import struct
 import xml.etree.ElementTree as ET
@@ -49,12 +50,21 @@ def view_width(root: ET.Element) -> float:
     return float(root.get("viewBox").split()[2])
 
 
+def css(text: str) -> dict[str, str]:
+    pairs = (part.split(":", 1) for part in text.split(";") if ":" in part)
+    return {k.strip(): v.strip() for k, v in pairs}
+
+
 def text_styles(root: ET.Element) -> list[dict[str, str]]:
-    """The style of every ``<text>`` element, as a dict of CSS properties."""
+    """The style of every ``<text>`` element, as a dict of CSS properties: its class's rule in
+    the SVG's style sheet (a style that elements share is written once there), then its own
+    ``style`` attribute."""
+    sheet = "".join(node.text or "" for node in root.iter(f"{SVG}style"))
+    rules = {name: css(body) for name, body in re.findall(r"\.([\w-]+)\{([^}]*)\}", sheet)}
     styles = []
     for node in root.iter(f"{SVG}text"):
-        pairs = (part.split(":", 1) for part in node.get("style", "").split(";") if ":" in part)
-        styles.append({k.strip(): v.strip() for k, v in pairs})
+        found = dict(rules.get(node.get("class", ""), {}))
+        styles.append(found | css(node.get("style", "")))
     return styles
 
 
@@ -235,6 +245,20 @@ def test_share_image_is_a_1200_by_630_png_with_stable_bytes():
     assert png == share_png(card("retracted"))
     assert b"Software" not in png and b"matplotlib" not in png.lower()
     assert share_png(card(None)) != png
+
+
+def test_share_image_is_a_palette_png_that_keeps_the_card_colours_exact():
+    from PIL import Image
+
+    from factsheet.figures.share import PALETTE_COLOURS
+
+    png = share_png(card(None))
+    image = Image.open(io.BytesIO(png))
+    assert image.mode == "P" and len(image.getcolors()) <= PALETTE_COLOURS
+    rgb = image.convert("RGB")
+    panel = tuple(int(style.PANEL[k : k + 2], 16) for k in (1, 3, 5))
+    assert rgb.getpixel((5, 5)) == panel  # the panel's flat colour, not an average with edges
+    assert len(png) < 25_000  # a true-colour PNG of the same card takes about 56 kB
 
 
 # --- one quantity, one number ------------------------------------------------------------------

@@ -20,6 +20,7 @@ import matplotlib.pyplot as plt
 import numpy as np
 import pytest
 from helpers import PLANE_EDGES as EDGES
+from helpers import check_compact
 from matplotlib.colors import to_hex
 from matplotlib.container import ErrorbarContainer
 from matplotlib.figure import Figure
@@ -366,6 +367,11 @@ def test_svg_is_clean_xml_without_links_scripts_or_dates(name):
     assert urls <= {"http://www.w3.org/2000/svg", "http://www.w3.org/1999/xlink"}
     assert "dc:date" not in text and "Matplotlib v" not in text
     assert dt.date.today().isoformat() not in text
+
+
+@pytest.mark.parametrize("name", list(ALL))
+def test_compact_svg_draws_what_matplotlib_wrote(name, monkeypatch):
+    check_compact(lambda: ALL[name]().figure, monkeypatch)
 
 
 @pytest.mark.parametrize("name", list(ALL))

@@ -26,6 +26,7 @@ from figures.test_figure_readability import (
     text_styles,
     view_width,
 )
+from helpers import check_compact
 from matplotlib.path import Path
 from matplotlib.projections.geo import MollweideAxes
 
@@ -137,6 +138,12 @@ def test_svg_parses_with_text_as_text_at_readable_sizes(skies, name):
     drawn = ["".join(node.itertext()) for node in root.iter(f"{SVG}text")]
     assert {"0h", "3h", "21h", "−60°", "0°", "60°"} <= set(drawn)
     assert "Flare $b$" in drawn and TEXTS.inner in drawn and TEXTS.outer in drawn
+
+
+@pytest.mark.parametrize("name", ["compact", "arc", "broad"])
+def test_compact_svg_draws_what_matplotlib_wrote(skies, name, monkeypatch):
+    ranked, grid = skies[name]
+    check_compact(lambda: draw(grid, ranked).figure, monkeypatch)
 
 
 def test_sky_colours_keep_their_contrast():
