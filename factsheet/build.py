@@ -25,7 +25,6 @@ from astropy.time import Time
 
 from factsheet import i18n
 from factsheet.cache import Cache, code_fingerprint, content_key, event_key
-from factsheet.derive import derive_event
 from factsheet.errors import BuildError, InputError, Problem
 from factsheet.i18n import use_language
 from factsheet.load import load_catalogue
@@ -248,6 +247,8 @@ def _read_again(event: Event, settings: Settings, root: Path | None) -> Event:
 
 def event_bundle(event: Event, settings: Settings, reference: Reference) -> EventBundle:
     """Derive one event and make its figures and chirp sound (the expensive part of a build)."""
+    from factsheet.derive import derive_event  # cosmology and scipy load only when deriving
+
     item = derive_event(event, settings, reference)
     figures, audio, files, seconds = event_files(item, settings.languages)
     return EventBundle(_summaries_only(item), figures, audio, files, seconds)

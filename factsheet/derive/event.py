@@ -10,7 +10,6 @@ from __future__ import annotations
 
 import astropy.units as u
 import numpy as np
-from astropy.cosmology import realizations
 
 from factsheet.derive import caveats as cv
 from factsheet.derive.classify import classify, mass_bands, remnant_allowed
@@ -127,6 +126,8 @@ def relabelled(event: Event) -> bool:
 def lookback(redshift: Summary, cosmology_name: str) -> Summary:
     """The time since the merger (lookback time) at the redshift's median and bounds: the
     lookback time grows with redshift, so the bounds of one are the bounds of the other."""
+    from astropy.cosmology import realizations  # loads scipy: only when deriving
+
     cosmo = getattr(realizations, cosmology_name)
     low, median, high = cosmo.lookback_time([redshift.low, redshift.median, redshift.high])
     return Summary(

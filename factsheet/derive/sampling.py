@@ -20,7 +20,6 @@ import math
 from collections.abc import Mapping
 
 import numpy as np
-from scipy.optimize import brentq
 from scipy.special import erf, ndtr, ndtri
 
 from factsheet.derive import masses
@@ -112,6 +111,8 @@ def _solve_scale(spread: float, room: float, level: float) -> float:
         return float(erf(spread / room * t / math.sqrt(2)) / erf(t / math.sqrt(2))) - level
 
     high = room * float(ndtri(0.5 + level / 2)) / spread  # the uncut scale's t: excess > 0
+    from scipy.optimize import brentq  # scipy.optimize loads only when a width is solved for
+
     return room / brentq(excess, 1e-9, high, xtol=1e-14, rtol=1e-13)
 
 

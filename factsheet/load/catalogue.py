@@ -87,26 +87,25 @@ class Memory:
 
 def _event(path, root, settings, problems, warnings, memory: Memory | None) -> Event | None:
     """One event: from the memory when its files are unchanged, else read and checked."""
+    if memory is None:
+        return load_event(path, root, settings, problems, warnings)
     name = str(path)
-    record = memory.records.get(name) if memory is not None else None
-    known = record is not None and record.get("fingerprint") == memory.fingerprint
-    if known and (found := recall(record)):
+    record = memory.records.get(name)
+    known = isinstance(record, dict) and record.get("fingerprint") == memory.fingerprint
+    if known and record is not None and (found := recall(record)):
         event, noticed = found
         warnings.extend(noticed)
         memory.recalled += 1
-        memory.fresh[name] = (
-            record
-            if record["files"][0][1] == stamp(path)
-            else {**(file_record(event, noticed) or {}), "fingerprint": memory.fingerprint}
-        )
+        if record["files"][0][1] != stamp(path):  # touched, same bytes: stamp it anew
+            record = {**(file_record(event, noticed) or {}), "fingerprint": memory.fingerprint}
+        memory.fresh[name] = record
         return event
-    noticed: list[Problem] = []
-    event = load_event(path, root, settings, problems, noticed)
-    warnings.extend(noticed)
-    record = file_record(event, noticed) if memory is not None and event is not None else None
-    if record is not None:
-        memory.fresh[name] = {**record, "fingerprint": memory.fingerprint}
-    return event
+    read: list[Problem] = []
+    fresh = load_event(path, root, settings, problems, read)
+    warnings.extend(read)
+    if fresh is not None and (made := file_record(fresh, read)) is not None:
+        memory.fresh[name] = {**made, "fingerprint": memory.fingerprint}
+    return fresh
 
 
 def _read_mapping(

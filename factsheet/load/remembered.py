@@ -171,10 +171,11 @@ def file_record(event: model.Event, warnings: list[Problem]) -> dict[str, Any] |
         files.append(event.samples.path)
     if event.detection.sky_map is not None:
         files.append(event.detection.sky_map.path)
-    stamps = [[str(p), stamp(p)] for p in files]
+    found = [stamp(p) for p in files]
     now = time.time_ns()
-    if any(s is None or now - s[1] < RECENT_NS for _, s in stamps):
+    if any(s is None or now - s[1] < RECENT_NS for s in found):
         return None
+    stamps = [[str(p), s] for p, s in zip(files, found, strict=True)]
     return {
         "files": stamps,
         "event": event_to_json(event),

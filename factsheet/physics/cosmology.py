@@ -13,8 +13,6 @@ from __future__ import annotations
 import astropy.units as u
 import numpy as np
 from astropy import constants as _constants
-from astropy import cosmology as _cosmology
-from scipy.interpolate import CubicSpline
 
 from ._checks import dimensionless, require
 from .registry import Method, register
@@ -46,6 +44,8 @@ class _Table:
     def __init__(self, cosmo) -> None:
         z = np.geomspace(Z_MIN, Z_MAX, N_GRID)
         d = cosmo.luminosity_distance(z).to_value(u.m)
+        from scipy.interpolate import CubicSpline  # scipy loads only when a table is made
+
         self.spline = CubicSpline(np.log(d), np.log(z))
         self.low, self.high = float(d[0]), float(d[-1])
         self.hubble = float((cosmo.H0 / _constants.c).to_value(1 / u.m))
@@ -56,6 +56,8 @@ _TABLES: dict[str, _Table] = {}
 
 def _resolve(cosmology):
     """An astropy cosmology from an instance or a realisation name such as ``"Planck18"``."""
+    from astropy import cosmology as _cosmology  # loads scipy: only when a distance is needed
+
     if isinstance(cosmology, str):
         return _cosmology.default_cosmology.validate(cosmology)
     if not isinstance(cosmology, _cosmology.Cosmology):
