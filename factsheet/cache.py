@@ -116,6 +116,7 @@ class Cache:
         self.used: set[str] = {STAMPS, RECORDS}
         self._stamps: dict[str, list] | None = None
         self._site_made: bool | None = None
+        self._files_of: dict[str, dict[str, Any]] = {}  # file records of the entries loaded
 
     def load(
         self, key: str, event: Event, settings: Settings, reference: Reference
@@ -130,6 +131,7 @@ class Cache:
         except (KeyError, TypeError, ValueError, AttributeError, IndexError):
             return None
         self.used.add(key)
+        self._files_of[key] = entry["files"]  # for place(): the entry is read once
         return replace(bundle, key=key)
 
     def store(self, key: str, bundle: EventBundle) -> EventBundle:
@@ -138,14 +140,16 @@ class Cache:
         self._write(key, bundle.files, {"kind": "event", "bundle": bundle_to_json(bundle)})
         return replace(bundle, files={}, key=key)
 
-    def place(self, key: str, link: Callable[[Path, str, str], None]) -> bool:
+    def place(self, key: str, link: Callable[[str, str, str], None]) -> bool:
         """Place every file of the entry ``key`` from the published site into the new one with
         ``link(source, site path, sha256)``; False (and nothing placed) when the entry is
         missing or any of its files is gone or differs from its record."""
-        entry = self._entry(key, words=False)
-        if entry is None:
-            return False
-        files = entry["files"]
+        files = self._files_of.pop(key, None)
+        if files is None:
+            entry = self._entry(key, words=False)
+            if entry is None:
+                return False
+            files = entry["files"]
         sources = {name: self._published(name, record) for name, record in files.items()}
         if not all(sources.values()):
             return False
@@ -168,7 +172,7 @@ class Cache:
         found = {}
         for name, record in entry["files"].items():
             source = self._published(name, record)
-            data = source.read_bytes() if source else b""
+            data = Path(source).read_bytes() if source else b""
             if not source or not _matches(data, record):
                 return None
             found[name] = data
@@ -246,12 +250,12 @@ class Cache:
             self._site_made = (self.site / MARKER).is_file() and not self.site.is_symlink()
         return self._site_made
 
-    def _published(self, name: str, record: dict[str, Any]) -> Path | None:
+    def _published(self, name: str, record: dict[str, Any]) -> str | None:
         """The published file at site path ``name`` when it is a plain file matching
         ``record``: its size and modification time as stamped (metadata only), else its hash."""
         if not self.stamps and not self._lends():
             return None
-        path = self.site / name
+        path = os.path.join(self.site, name)  # plain strings: thousands of files a build
         try:
             st = os.lstat(path)
         except (OSError, ValueError):
@@ -261,7 +265,8 @@ class Cache:
         if self.stamps.get(name) == [st.st_size, st.st_mtime_ns, record["sha256"]]:
             return path
         try:
-            return path if _matches(path.read_bytes(), record) else None
+            with open(path, "rb") as handle:
+                return path if _matches(handle.read(), record) else None
         except OSError:
             return None
 

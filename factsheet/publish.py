@@ -10,6 +10,7 @@ exists. A folder that factsheet did not make is never replaced unless the caller
 
 from __future__ import annotations
 
+import contextlib
 import ctypes
 import errno
 import hashlib
@@ -19,7 +20,7 @@ import re
 import shutil
 import tempfile
 from collections.abc import Iterator
-from pathlib import Path, PurePosixPath
+from pathlib import Path
 
 from factsheet.errors import BuildError
 
@@ -175,38 +176,46 @@ class Staging:
             tempfile.mkdtemp(prefix=f".factsheet-new-{self.out.name}-", dir=self.out.parent)
         )
         self.placed: dict[str, str] = {}  # site path to SHA-256 of every file written or linked
-        self._made: set[Path] = {self.folder}
+        self.linked: set[str] = set()  # the files taken from the site being replaced
+        self._made: set[str] = {str(self.folder)}
 
     def write(self, name: str, content: bytes) -> None:
         target = self._target(name)
-        target.unlink(missing_ok=True)  # never write through a link to the published site
-        target.write_bytes(content)
+        with contextlib.suppress(FileNotFoundError):
+            os.unlink(target)  # never write through a link to the published site
+        with open(target, "wb") as handle:
+            handle.write(content)
         self.placed[name] = hashlib.sha256(content).hexdigest()
+        self.linked.discard(name)
 
-    def link(self, source: Path, name: str, sha256: str) -> None:
+    def link(self, source: str | Path, name: str, sha256: str) -> None:
         """Place the published file ``source`` (known to hash to ``sha256``) at ``name``: a
         hard link, or a copy where the file system has none. The swap then removes the old
         site, so the file keeps one name."""
         target = self._target(name)
-        target.unlink(missing_ok=True)
+        with contextlib.suppress(FileNotFoundError):
+            os.unlink(target)
         try:
             os.link(source, target)
         except OSError:
             shutil.copyfile(source, target)
         self.placed[name] = sha256
+        self.linked.add(name)
 
-    def _target(self, name: str) -> Path:
-        target = self.folder / _safe_relative(name)
-        if target.parent not in self._made:
-            target.parent.mkdir(parents=True, exist_ok=True)
-            self._made.add(target.parent)
+    def _target(self, name: str) -> str:
+        """The path in the staging folder of the site path ``name`` (its folder made)."""
+        target = os.path.join(self.folder, _safe_relative(name))
+        parent = os.path.dirname(target)
+        if parent not in self._made:
+            os.makedirs(parent, exist_ok=True)
+            self._made.add(parent)
         return target
 
     def commit(self) -> None:
         """Check that every page's links resolve, then swap the staged site in."""
         if not (self.folder / PLACEHOLDER).exists():
             self.write(PLACEHOLDER, PLACEHOLDER_TEXT.encode())
-        missing = missing_links(self.folder)
+        missing = missing_links(self.folder, skip=self._checked_before())
         if missing:
             shown = "; ".join(f"{page} links {target}" for page, target in missing[:5])
             raise BuildError(
@@ -217,6 +226,16 @@ class Staging:
         self.folder.chmod(0o755)
         _swap_in(self.folder, self.out)
         self.committed = True
+
+    def _checked_before(self) -> set[str]:
+        """Pages taken unchanged from the site being replaced, whose links were checked when
+        it was published: they need no new check unless a file of that site is gone from the
+        new one (the only way one of their links could now miss)."""
+        pages = {name for name in self.linked if name.endswith(".html")}
+        if not pages or not self.out.is_dir():
+            return set()
+        kept = set(self.placed) | {MARKER, PLACEHOLDER}
+        return pages if all(name in kept for name in regular_files(self.out)) else set()
 
     def abort(self) -> None:
         if not self.committed:
@@ -232,15 +251,16 @@ class Staging:
 _LINK = re.compile(rb"""(?:href|src)="([^"#?]*)""")
 
 
-def missing_links(folder: Path) -> list[tuple[str, str]]:
-    """Every (page, target) where an HTML page of the site links a file that is not there.
+def missing_links(folder: Path, skip: set[str] | None = None) -> list[tuple[str, str]]:
+    """Every (page, target) where an HTML page of the site (but those in ``skip``) links a
+    file that is not there.
 
     Links with a scheme (``https:``, ``mailto:``, ``data:``) and fragments are not files of the
     site and are skipped.
     """
     files = set(regular_files(folder))
     found = []
-    for page in sorted(p for p in files if p.endswith(".html")):
+    for page in sorted(p for p in files if p.endswith(".html") and p not in (skip or ())):
         for match in _LINK.finditer((folder / page).read_bytes()):
             link = match.group(1).decode("utf-8", "replace")
             if not link or ":" in link.split("/")[0]:
@@ -268,11 +288,12 @@ def publish(files: dict[str, bytes], out: Path, force: bool = False) -> None:
         staging.commit()
 
 
-def _safe_relative(name: str) -> PurePosixPath:
-    path = PurePosixPath(name)
-    if path.is_absolute() or ".." in path.parts or not path.parts:
+def _safe_relative(name: str) -> str:
+    """``name`` as a relative path inside the output (refused if it would leave it)."""
+    parts = [part for part in name.split("/") if part not in ("", ".")]
+    if name.startswith("/") or ".." in parts or not parts:
         raise BuildError(f"refusing to write {name!r}: outside the output folder")
-    return path
+    return os.path.join(*parts)
 
 
 def replaceable(out: Path) -> bool:
