@@ -3,7 +3,14 @@
 import pytest
 
 from factsheet.errors import BuildError
-from factsheet.publish import MARKER, PLACEHOLDER, PLACEHOLDER_TEXT, publish, replaceable
+from factsheet.publish import (
+    MARKER,
+    PLACEHOLDER,
+    PLACEHOLDER_TEXT,
+    Staging,
+    publish,
+    replaceable,
+)
 
 
 def site(**files):
@@ -55,3 +62,26 @@ def test_tracked_placeholder_is_what_a_build_writes():
 
     tracked = Path(__file__).resolve().parents[1] / "site" / PLACEHOLDER
     assert tracked.read_text() == PLACEHOLDER_TEXT  # so a build leaves git status clean
+
+
+def test_pages_linked_from_the_old_site_are_checked_when_a_file_is_gone(tmp_path):
+    out = tmp_path / "site"
+    page = b'<a href="b.html">b</a> <img src="fig.svg">'
+    publish({"a.html": page, "b.html": b"b", "fig.svg": b"<svg/>"}, out)
+
+    def rebuild(keep_figure: bool) -> Staging:
+        staging = Staging(out)
+        staging.link(out / "a.html", "a.html", "x")  # taken unchanged from the old site
+        staging.write("b.html", b"b, again")
+        if keep_figure:
+            staging.link(out / "fig.svg", "fig.svg", "y")
+        return staging
+
+    with rebuild(keep_figure=True) as staging:
+        assert staging._checked_before() == {"a.html"}  # nothing gone: its links still hold
+        staging.commit()
+    with rebuild(keep_figure=False) as staging:
+        assert staging._checked_before() == set()  # a file is gone: every page is checked
+        with pytest.raises(BuildError, match=r"fig\.svg"):
+            staging.commit()
+    assert (out / "fig.svg").read_bytes() == b"<svg/>"
