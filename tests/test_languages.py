@@ -15,7 +15,7 @@ from pathlib import Path
 import pytest
 from helpers import VALID_EVENT
 
-from factsheet import build as build_module
+from factsheet import derive as derive_module
 from factsheet import i18n
 from factsheet.build import build
 
@@ -65,18 +65,18 @@ def two_languages(tmp_path_factory) -> tuple[Path, list]:
     (folder / "one.yaml").write_text(VALID_EVENT, encoding="utf-8")
     (folder / "two.yaml").write_text(VALID_EVENT.replace("TEST-1", "TEST-2"), encoding="utf-8")
     derived = []
-    original = build_module.derive_event
+    original = derive_module.derive_event
 
     def counting(*args, **kwargs):
         derived.append(args[0].id)
         return original(*args, **kwargs)
 
-    build_module.derive_event = counting
+    derive_module.derive_event = counting
     try:
         out = tmp_path_factory.mktemp("out") / "site"
         build(folder, out, jobs=1)
     finally:
-        build_module.derive_event = original
+        derive_module.derive_event = original
     return out, derived
 
 
