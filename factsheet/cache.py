@@ -158,14 +158,10 @@ class Cache:
         self.used.add(key)
         return True
 
-    def files(self, key: str) -> dict[str, bytes] | None:
-        """The files of an entry of plain files (read from the published site, checked), or
-        None when the entry or any of its files is missing or differs from its record."""
-        found = self.files_and_notes(key)
-        return None if found is None else found[0]
-
     def files_and_notes(self, key: str) -> tuple[dict[str, bytes], Any] | None:
-        """:meth:`files` and the notes (plain JSON) stored with them."""
+        """The files of an entry of plain files (read from the published site, checked) and
+        the notes stored with them, or None when the entry or any of its files is missing or
+        differs from its record."""
         entry = self._entry(key)
         if entry is None or entry.get("kind") != "files":
             return None
@@ -253,7 +249,7 @@ class Cache:
     def _published(self, name: str, record: dict[str, Any]) -> str | None:
         """The published file at site path ``name`` when it is a plain file matching
         ``record``: its size and modification time as stamped (metadata only), else its hash."""
-        if not self.stamps and not self._lends():
+        if not self._lends():
             return None
         path = os.path.join(self.site, name)  # plain strings: thousands of files a build
         try:
