@@ -30,7 +30,7 @@ DETECTOR = "detector"
 # -- values given in the input -------------------------------------------------------------
 
 
-@dataclass(frozen=True)
+@dataclass(frozen=True, slots=True)
 class Interval:
     """A given value: a median with the offsets to the bounds of its credible interval.
 
@@ -67,7 +67,7 @@ class Interval:
         return f"{self.median!r} +{self.plus!r} -{self.minus!r} {self.unit.to_string()}"
 
 
-@dataclass(frozen=True)
+@dataclass(frozen=True, slots=True)
 class Limits:
     """Guards against input that no real catalogue needs; raise them in catalogue.yaml."""
 
@@ -77,7 +77,7 @@ class Limits:
     max_sample_rows: int = 1_000_000
 
 
-@dataclass(frozen=True)
+@dataclass(frozen=True, slots=True)
 class Settings:
     """Catalogue-wide settings from ``catalogue.yaml``, with the documented defaults."""
 
@@ -132,7 +132,7 @@ class Settings:
 # -- one event ---------------------------------------------------------------------------------
 
 
-@dataclass(frozen=True)
+@dataclass(frozen=True, slots=True)
 class Body:
     """One of the two bodies of an estimate: its mass (absent when the estimate gives the chirp
     mass instead) and, when given, its spin as the aligned component (``spin``) or as a
@@ -161,7 +161,7 @@ ESTIMATE_PATHS = (
 )
 
 
-@dataclass(frozen=True)
+@dataclass(frozen=True, slots=True)
 class Estimate:
     """One set of parameter values of an event: the current one, or one in its history."""
 
@@ -204,7 +204,7 @@ class Estimate:
         return ";".join(f"{k}={v.canonical()}" for k, v in sorted(self.values().items()))
 
 
-@dataclass(frozen=True)
+@dataclass(frozen=True, slots=True)
 class SkyMapFile:
     """A HEALPix probability map as checked by the load stage: where it is and how it is laid
     out. The probabilities are read again where they are used (a map can hold 50 million
@@ -221,7 +221,7 @@ class SkyMapFile:
     column: str
 
 
-@dataclass(frozen=True)
+@dataclass(frozen=True, slots=True)
 class Detection:
     """What the search reported: the sites, the signal-to-noise ratio, significance, sky area
     and the sky map."""
@@ -233,7 +233,7 @@ class Detection:
     sky_map: SkyMapFile | None = None
 
 
-@dataclass(frozen=True)
+@dataclass(frozen=True, slots=True)
 class CounterpartCandidate:
     """A transient reported by observers: its name, position (equatorial, degrees), time and
     the editors' note."""
@@ -245,7 +245,7 @@ class CounterpartCandidate:
     note: str = ""
 
 
-@dataclass(frozen=True)
+@dataclass(frozen=True, slots=True)
 class Host:
     """Disk of an active galactic nucleus hosting the merger."""
 
@@ -254,7 +254,7 @@ class Host:
     disk_aspect_ratio: float | None = None
 
 
-@dataclass(frozen=True)
+@dataclass(frozen=True, slots=True)
 class HistoryEntry:
     """One dated step of the event's history: an earlier estimate, a change of status, or both.
 
@@ -268,7 +268,7 @@ class HistoryEntry:
     status: str | None = None  # the event's status from this date on (candidate, ...)
 
 
-@dataclass(frozen=True)
+@dataclass(frozen=True, slots=True)
 class SamplesFile:
     """A posterior-samples file as read and checked by the load stage.
 
@@ -281,7 +281,7 @@ class SamplesFile:
     values: Mapping[str, np.ndarray] = field(compare=False, repr=False)
 
 
-@dataclass(frozen=True)
+@dataclass(frozen=True, slots=True)
 class Event:
     """One validated event file.
 
@@ -328,7 +328,7 @@ class Event:
         return int.from_bytes(hashlib.sha256(text.encode()).digest()[:8], "little")
 
 
-@dataclass(frozen=True)
+@dataclass(frozen=True, slots=True)
 class Catalogue:
     """A validated catalogue: its settings and its events, sorted by merger time."""
 
@@ -342,7 +342,7 @@ class Catalogue:
 # -- packaged reference data -----------------------------------------------------------------
 
 
-@dataclass(frozen=True)
+@dataclass(frozen=True, slots=True)
 class Edge:
     """One mass-band edge with its source and the spread of the literature."""
 
@@ -354,7 +354,7 @@ class Edge:
     overridden: bool = False
 
 
-@dataclass(frozen=True)
+@dataclass(frozen=True, slots=True)
 class MassBands:
     """The mass-band edges in increasing order, plus the intermediate-mass threshold."""
 
@@ -373,7 +373,7 @@ class MassBands:
         return {edge.key: edge.value for edge in self.edges()}
 
 
-@dataclass(frozen=True)
+@dataclass(frozen=True, slots=True)
 class WindowSpec:
     """A rest-frame counterpart window: delays after the merger, band, scenario and basis."""
 
@@ -385,7 +385,7 @@ class WindowSpec:
     basis: str
 
 
-@dataclass(frozen=True)
+@dataclass(frozen=True, slots=True)
 class Comparison:
     """A comparison object: an energy (J) or a luminosity (W) with its source."""
 
@@ -399,7 +399,7 @@ class Comparison:
     overridden: bool = False
 
 
-@dataclass(frozen=True)
+@dataclass(frozen=True, slots=True)
 class Reference:
     """All reference data of one build."""
 
@@ -422,7 +422,7 @@ class Reference:
 # -- what derive finds ---------------------------------------------------------------------------
 
 
-@dataclass(frozen=True)
+@dataclass(frozen=True, slots=True)
 class Summary:
     """Median and the bounds of the credible interval at ``level`` of one quantity."""
 
@@ -460,7 +460,7 @@ class Summary:
         return data
 
 
-@dataclass(frozen=True)
+@dataclass(frozen=True, slots=True)
 class Caveat:
     """One caveat: a stable code, a level (info, notice, warning) and plain text.
 
@@ -488,7 +488,7 @@ class Caveat:
         return data
 
 
-@dataclass(frozen=True)
+@dataclass(frozen=True, slots=True)
 class Comparisons:
     """The median energy radiated and peak luminosity against the comparison objects."""
 
@@ -497,7 +497,7 @@ class Comparisons:
     sun_years: u.Quantity | None = None  # time the Sun needs to emit the energy radiated
 
 
-@dataclass(frozen=True)
+@dataclass(frozen=True, slots=True)
 class SecondGeneration:
     """A body compared with the remnants of first-generation mergers (a reasoning aid):
     their mass, spin magnitude and spin component along a new orbit, and the shares of the
@@ -537,7 +537,7 @@ class SecondGeneration:
         )
 
 
-@dataclass(frozen=True)
+@dataclass(frozen=True, slots=True)
 class LensedCase:
     """The source if a lens magnified the signal ``magnification`` times: true distance,
     redshift and source-frame masses summarised from the samples, and the mass-band
@@ -552,7 +552,7 @@ class LensedCase:
     mass_bands: Mapping[str, Mapping[str, float]]  # subject -> band -> probability
 
 
-@dataclass(frozen=True)
+@dataclass(frozen=True, slots=True)
 class Lensing:
     """The what-if-lensed panel: one case per magnification, and why it was made (``event``:
     the event's own list; ``automatic``: a body is probably in or above the pair-instability
@@ -564,7 +564,7 @@ class Lensing:
     beyond: tuple[float, ...] = ()
 
 
-@dataclass(frozen=True)
+@dataclass(frozen=True, slots=True)
 class SkyMapSummary:
     """What the sheet says of a sky map: the 50 % and 90 % credible areas, the area at the
     catalogue's credible level, and the most probable position.
@@ -584,7 +584,7 @@ class SkyMapSummary:
     levels: np.ndarray = field(default_factory=lambda: np.empty((0, 0)), compare=False, repr=False)
 
 
-@dataclass(frozen=True)
+@dataclass(frozen=True, slots=True)
 class CandidateReading:
     """A counterpart candidate read against the sheet: the sky map's credible level at its
     position (None without a map), its delay after the merger in the observer's frame and in
@@ -598,7 +598,7 @@ class CandidateReading:
     windows: tuple[str, ...] = ()
 
 
-@dataclass(frozen=True)
+@dataclass(frozen=True, slots=True)
 class Derived:
     """Everything derived for one event: summaries, classes, bands, windows and caveats.
 
@@ -638,7 +638,7 @@ class Derived:
 # -- what a build makes of an event ---------------------------------------------------------------
 
 
-@dataclass(frozen=True)
+@dataclass(frozen=True, slots=True)
 class FigureInfo:
     """What a page needs to show a figure: its site path, alt text and caption."""
 
@@ -647,7 +647,7 @@ class FigureInfo:
     caption: str
 
 
-@dataclass(frozen=True)
+@dataclass(frozen=True, slots=True)
 class SiteFigure:
     """One drawn figure: its site-relative path, SVG bytes, alt text and caption."""
 
@@ -662,7 +662,7 @@ class SiteFigure:
         return FigureInfo(self.path, self.alt, self.caption)
 
 
-@dataclass(frozen=True)
+@dataclass(frozen=True, slots=True)
 class Audio:
     """The chirp sound of a sheet: its site path, how it was made (in words, with the numbers as
     the sheet's table prints them) and its length in seconds (the shifted copy has the same);
@@ -676,7 +676,7 @@ class Audio:
     shifted_description: str = ""
 
 
-@dataclass(frozen=True)
+@dataclass(frozen=True, slots=True)
 class EventBundle:
     """A derived event (samples dropped) and its figure and sound files, ready for the pages.
 
