@@ -7,7 +7,10 @@ the converted value or raises :class:`Bad` with a message that says what was exp
 
 from __future__ import annotations
 
+import contextlib
 import difflib
+import functools
+import importlib.util
 import math
 import re
 import warnings
@@ -185,6 +188,23 @@ def number(raw: object, key: Key) -> float:
     return x
 
 
+@functools.cache
+def cosmology_names() -> tuple[str, ...]:
+    """The names of astropy's cosmology realisations, read from the data files astropy ships
+    for them (one ``<name>.ecsv`` each) without importing astropy.cosmology, which brings
+    scipy in: a build whose events are all unchanged never needs either. Where the files are
+    not found, astropy's own list."""
+    spec = importlib.util.find_spec("astropy.cosmology")
+    for folder in (spec.submodule_search_locations or []) if spec else []:
+        with contextlib.suppress(OSError):
+            found = sorted(p.stem for p in (Path(folder) / "data").glob("*.ecsv"))
+            if found:
+                return tuple(found)
+    from astropy.cosmology import realizations
+
+    return tuple(sorted(realizations.available))
+
+
 def count(raw: object, key: Key) -> int:
     if isinstance(raw, bool) or not isinstance(raw, int) or not 100 <= raw <= 1_000_000:
         raise Bad(f"expected a whole number from 100 to 1000000, got {show(raw)}")
@@ -192,9 +212,7 @@ def count(raw: object, key: Key) -> int:
 
 
 def cosmology(raw: object, key: Key) -> str:
-    from astropy.cosmology import realizations
-
-    names = list(realizations.available)
+    names = cosmology_names()
     if raw not in names:
         close = difflib.get_close_matches(str(raw), names, n=1)
         hint = f"did you mean '{close[0]}'? " if close else ""
