@@ -228,7 +228,8 @@ def make_bundles(
             continue
         for name, data in result.files.items():
             staging.write(name, data)
-        bundles[i] = cache.store(keys[i], result)  # drops the file bytes from memory
+        events[i] = without_sample_values(events[i])
+        bundles[i] = cache.store(keys[i], result, events[i], settings, reference)
         made.append(bundles[i])
         progress.step(done, len(todo), "events derived and drawn")
     if failures:
@@ -258,14 +259,18 @@ def _summaries_only(item: Derived) -> Derived:
     """The derived event without its samples (or its samples file's values) or its sky map's
     level grid: the pages need only the summaries, and the bundle is kept in the cache and in
     memory for every event."""
-    event = item.event
-    if event.samples is not None:
-        empty = {path: np.empty(0) for path in event.samples.values}  # keep which columns
-        event = replace(event, samples=replace(event.samples, values=empty))
     mapped = item.sky_map
     if mapped is not None:
         mapped = replace(mapped, levels=np.empty((0, 0), dtype=np.float32))
-    return replace(item, event=event, samples={}, sky_map=mapped)
+    return replace(item, event=without_sample_values(item.event), samples={}, sky_map=mapped)
+
+
+def without_sample_values(event: Event) -> Event:
+    """The event without its samples file's values (which columns it has are kept)."""
+    if event.samples is None or not any(v.size for v in event.samples.values.values()):
+        return event
+    empty = {path: np.empty(0) for path in event.samples.values}
+    return replace(event, samples=replace(event.samples, values=empty))
 
 
 def _work(args: tuple[Event, Settings, Reference]) -> EventBundle | BaseException:

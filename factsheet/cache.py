@@ -20,11 +20,13 @@ to delete.
 
 from __future__ import annotations
 
+import contextlib
 import hashlib
 import json
 import os
 import shutil
 import stat
+import sys
 import tempfile
 from collections.abc import Callable
 from dataclasses import asdict, replace
@@ -58,7 +60,7 @@ from factsheet.physics.counterparts import Window
 from factsheet.publish import MARKER
 from factsheet.resources import PACKAGE
 
-FORMAT = "7"
+FORMAT = "8"
 STAMPS = "site.json"
 RECORDS = "read.json"  # the events read by the last build (factsheet.load.remembered)
 ENTRY = "entry.json"
@@ -134,11 +136,16 @@ class Cache:
         self._files_of[key] = entry["files"]  # for place(): the entry is read once
         return replace(bundle, key=key)
 
-    def store(self, key: str, bundle: EventBundle) -> EventBundle:
-        """Record the bundle's JSON and its files' sizes and hashes under ``key``; return it
-        without file bytes (the caller writes the files into the new site)."""
-        self._write(key, bundle.files, {"kind": "event", "bundle": bundle_to_json(bundle)})
-        return replace(bundle, files={}, key=key)
+    def store(
+        self, key: str, bundle: EventBundle, event: Event, settings: Settings, reference: Reference
+    ) -> EventBundle:
+        """Record the bundle's JSON and its files' sizes and hashes under ``key``; return it as
+        a later build reads it back (for ``event``, without file bytes: the caller writes the
+        files into the new site). Every bundle a build holds is then in the same lean form,
+        sharing the build's settings, reference and event, whether made now or earlier."""
+        text = self._write(key, bundle.files, {"kind": "event", "bundle": bundle_to_json(bundle)})
+        data = json.loads(text, object_hook=_read_back)["bundle"]
+        return replace(bundle_from_json(data, event, settings, reference), key=key)
 
     def place(self, key: str, link: Callable[[str, str, str], None]) -> bool:
         """Place every file of the entry ``key`` from the published site into the new one with
@@ -191,25 +198,42 @@ class Cache:
             stamps[name] = [st.st_size, st.st_mtime_ns, sha]
         self._replace(STAMPS, {"format": FORMAT, "files": stamps})
 
-    def read_records(self) -> dict[str, Any]:
-        """The records of the events the last build read, by file ({} when none or unreadable)."""
+    def read_records(self) -> dict[str, str]:
+        """The records of the events the last build read, by file, each as its line of JSON
+        (read back only when its file is met: a record costs its text, not a tree of objects);
+        {} when there are none or they do not read back."""
         try:
-            data = json.loads((self.root / RECORDS).read_bytes())
+            lines = (self.root / RECORDS).read_text(encoding="utf-8").split("\n")
         except (OSError, ValueError):
             return {}
-        ok = isinstance(data, dict) and data.get("format") == FORMAT
-        return data["files"] if ok and isinstance(data.get("files"), dict) else {}
+        if lines[0] != _records_header():
+            return {}
+        records = {}
+        for line in lines[1:]:
+            name, tab, record = line.partition("\t")
+            if tab:
+                with contextlib.suppress(ValueError):
+                    records[json.loads(name)] = record
+        return records
 
-    def write_records(self, records: dict[str, Any]) -> None:
-        self._replace(RECORDS, {"format": FORMAT, "files": records})
+    def write_records(self, records: dict[str, str]) -> None:
+        """Write the records (one line each: the file's name as JSON, a tab, the record)."""
+        lines = [_records_header()]
+        lines += (f"{json.dumps(name)}\t{record}" for name, record in records.items())
+        self._replace_bytes(RECORDS, "\n".join(lines).encode("utf-8"))
 
     def _replace(self, name: str, data: Any) -> None:
         """Write one JSON file of the cache's root atomically."""
+        # dumps: the C encoder (dump is Python's)
+        self._replace_bytes(name, json.dumps(data, separators=(",", ":")).encode("utf-8"))
+
+    def _replace_bytes(self, name: str, data: bytes) -> None:
+        """Write one file of the cache's root atomically."""
         try:
             self.root.mkdir(parents=True, exist_ok=True)
             fd, temporary = tempfile.mkstemp(prefix=".new-", dir=self.root)
-            with os.fdopen(fd, "wb") as handle:  # dumps: the C encoder (dump is Python's)
-                handle.write(json.dumps(data, separators=(",", ":")).encode("utf-8"))
+            with os.fdopen(fd, "wb") as handle:
+                handle.write(data)
             os.replace(temporary, self.root / name)
         except OSError as exc:
             raise BuildError(f"{self.root}: cannot write the build cache ({exc.strerror})") from exc
@@ -275,7 +299,7 @@ class Cache:
             if path.is_symlink() or path.stat().st_size > MAX_ENTRY_BYTES:
                 return None
             # kept words are read back as the parser meets them (i18n.json_hook)
-            hook = i18n.json_hook if words else None
+            hook = _read_back if words else None
             entry = json.loads(path.read_bytes(), object_hook=hook)
         except (OSError, ValueError, TypeError, AttributeError):
             return None
@@ -288,8 +312,9 @@ class Cache:
             return None
         return entry
 
-    def _write(self, key: str, files: dict[str, bytes], entry: dict[str, Any]) -> None:
-        """Write an entry into a fresh folder, then move it into place (atomic per entry)."""
+    def _write(self, key: str, files: dict[str, bytes], entry: dict[str, Any]) -> str:
+        """Write an entry into a fresh folder, then move it into place (atomic per entry);
+        return its JSON."""
         try:
             self.root.mkdir(parents=True, exist_ok=True)
             staging = Path(tempfile.mkdtemp(prefix=".new-", dir=self.root))
@@ -301,13 +326,36 @@ class Cache:
             # keys stay in insertion order: a bundle read back must give the pages and the JSON
             # export the same bytes as the bundle it was made from (sorted keys reordered the
             # class probabilities and mass bands of an event's JSON)
-            (staging / ENTRY).write_text(json.dumps(entry), encoding="utf-8")
+            text = json.dumps(entry)
+            (staging / ENTRY).write_text(text, encoding="utf-8")
             final = self.root / key
             shutil.rmtree(final, ignore_errors=True)
             os.replace(staging, final)
         except OSError as exc:
             raise BuildError(f"{self.root}: cannot write the build cache ({exc.strerror})") from exc
         self.used.add(key)
+        return text
+
+
+SHORT = 48  # words at most this long (keys, units, method names) are shared between entries
+
+
+def _read_back(value: dict[str, Any]) -> Any:
+    """One object of an entry as the parser meets it: kept words read back
+    (:func:`~factsheet.i18n.json_hook`), and its keys and short words interned, so the same key
+    or unit in ten thousand entries held at once is one string, not ten thousand."""
+    shared = {}
+    for k, v in value.items():
+        if type(v) is str and len(v) <= SHORT:
+            v = sys.intern(v)
+        elif type(v) is list:
+            v = [sys.intern(x) if type(x) is str and len(x) <= SHORT else x for x in v]
+        shared[sys.intern(k)] = v
+    return i18n.json_hook(shared)
+
+
+def _records_header() -> str:
+    return json.dumps({"format": FORMAT, "records": "one per line: file name, tab, record"})
 
 
 def _recorded(record: object) -> bool:

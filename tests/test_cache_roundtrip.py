@@ -24,8 +24,11 @@ def test_a_cached_bundle_gives_the_same_json_bytes(catalogue, tmp_path):
     made = event_bundle(event, cat.settings, reference)
     cache = Cache(tmp_path / "site")
     key = event_key(event, cat.settings)
-    cache.store(key, made)
+    kept = cache.store(key, made, event, cat.settings, reference)
     read = Cache(tmp_path / "site").load(key, event, cat.settings, reference)
     assert read is not None
     fresh = json.dumps(event_json(_summaries_only(made.derived)), indent=2)
     assert json.dumps(event_json(read.derived), indent=2) == fresh
+    # what the build keeps of a bundle it just made is the bundle a later build reads back
+    assert json.dumps(event_json(kept.derived), indent=2) == fresh
+    assert kept.files == {} and kept.key == key

@@ -73,10 +73,10 @@ class Memory:
     """Records of the events a build read (:mod:`factsheet.load.remembered`), keyed by file,
     valid for one fingerprint of the settings and the code."""
 
-    def __init__(self, records: dict[str, Any], fingerprint: str):
-        self.records = records
+    def __init__(self, records: dict[str, str], fingerprint: str):
+        self.records = dict(records)  # as JSON text, read back when the file is met
         self.fingerprint = fingerprint  # the code's; the settings' is added by begin()
-        self.fresh: dict[str, Any] = {}
+        self.fresh: dict[str, str] = {}  # the records for next time, as JSON text
         self.recalled = 0
 
     def begin(self, settings: Settings, root: Path) -> None:
@@ -90,7 +90,11 @@ def _event(path, root, settings, problems, warnings, memory: Memory | None) -> E
     if memory is None:
         return load_event(path, root, settings, problems, warnings)
     name = str(path)
-    record = memory.records.get(name)
+    text = memory.records.pop(name, "")
+    try:
+        record = json.loads(text) if text else None
+    except ValueError:
+        record = None
     known = isinstance(record, dict) and record.get("fingerprint") == memory.fingerprint
     if known and record is not None and (found := recall(record)):
         event, noticed = found
@@ -98,14 +102,19 @@ def _event(path, root, settings, problems, warnings, memory: Memory | None) -> E
         memory.recalled += 1
         if record["files"][0][1] != stamp(path):  # touched, same bytes: stamp it anew
             record = {**(file_record(event, noticed) or {}), "fingerprint": memory.fingerprint}
-        memory.fresh[name] = record
+            text = _json_text(record)
+        memory.fresh[name] = text
         return event
     read: list[Problem] = []
     fresh = load_event(path, root, settings, problems, read)
     warnings.extend(read)
     if fresh is not None and (made := file_record(fresh, read)) is not None:
-        memory.fresh[name] = {**made, "fingerprint": memory.fingerprint}
+        memory.fresh[name] = _json_text({**made, "fingerprint": memory.fingerprint})
     return fresh
+
+
+def _json_text(record: dict[str, Any]) -> str:
+    return json.dumps(record, separators=(",", ":"))
 
 
 def _read_mapping(

@@ -17,6 +17,7 @@ from __future__ import annotations
 import dataclasses
 import hashlib
 import os
+import sys
 import time
 from collections.abc import Mapping
 from functools import cache
@@ -107,6 +108,8 @@ def _encode(value: Any) -> Any:
 
 
 def _decode(value: Any) -> Any:
+    if isinstance(value, str):  # the same key or unit in every event held is one string
+        return sys.intern(value) if len(value) <= 48 else value
     if isinstance(value, list):
         return [_decode(v) for v in value]
     if not isinstance(value, dict):
