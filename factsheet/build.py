@@ -10,6 +10,7 @@ from __future__ import annotations
 
 import contextlib
 import ctypes
+import functools
 import multiprocessing
 import os
 import signal
@@ -20,6 +21,7 @@ from concurrent.futures import ProcessPoolExecutor
 from dataclasses import dataclass, replace
 from pathlib import Path
 
+import jinja2
 import numpy as np
 from astropy.time import Time
 
@@ -44,7 +46,8 @@ from factsheet.progress import Progress
 from factsheet.publish import HELD, OutputLock, Staging, check_output
 from factsheet.render import Site, render_site
 from factsheet.render.assets import event_files, language_path
-from factsheet.render.site import plane_edges
+from factsheet.render.environment import make_environment, templates_fingerprint
+from factsheet.render.site import Renderer, event_page_files, event_page_key, plane_edges
 
 
 @dataclass(frozen=True)
@@ -149,23 +152,31 @@ def _build_locked(events, catalogue, cache, out, audience, force, jobs, progress
 
     Files an unchanged entry of the cache recorded are linked from the site being replaced;
     everything else is written afresh into the staging folder."""
-    settings = catalogue.settings
+    settings, templates = catalogue.settings, templates_fingerprint()
     with Staging(out, force) as staging:
-        bundles, made = make_bundles(
-            events, settings, cache, jobs or available_cores(), progress, staging, catalogue.root
+        bundles, made, premade = make_bundles(
+            events,
+            settings,
+            cache,
+            jobs or available_cores(),
+            progress,
+            staging,
+            catalogue.root,
+            audience,
+            templates,
         )
         index = _index_figures(bundles, settings, cache)
 
         def memo(parts: tuple, make) -> dict[str, bytes] | None:
             key = content_key("page", *parts)
-            if cache.place(key, staging.link):
+            if key in premade or cache.place(key, staging.link):
                 return None  # already in place
             files = make()
             cache.store_files(key, files)
             return files
 
         site = StagedSite(staging, progress)
-        render_site(bundles, settings, audience, index, site=site, memo=memo)
+        render_site(bundles, settings, audience, index, site=site, memo=memo, templates=templates)
         progress.step(site.written, site.written, "pages and files written")
         staging.commit()
         cache.stamp_site(staging.placed)
@@ -200,10 +211,14 @@ def make_bundles(
     progress: Progress,
     staging: Staging,
     root: Path | None = None,
-) -> tuple[list[EventBundle], list[EventBundle]]:
+    audience: str = "public",
+    templates: str = "",
+) -> tuple[list[EventBundle], list[EventBundle], set[str]]:
     """Every event's bundle, from the cache or made afresh, its files placed in ``staging``;
-    also the freshly made ones. A cached bundle whose files the published site no longer
-    holds as recorded is made again."""
+    also the freshly made ones, and the memo keys of the pages made with them (each event's
+    pages are rendered by the worker that drew it, and written into ``staging`` here). A
+    cached bundle whose files the published site no longer holds as recorded is made
+    again."""
     keys = [event_key(e, settings) for e in events]
     reference = reference_for(settings)
     bundles = [cache.load(k, e, settings, reference) for k, e in zip(keys, events, strict=True)]
@@ -214,8 +229,13 @@ def make_bundles(
     for i in todo:  # an event remembered from the last build keeps no sample values
         if needs_reading(events[i]):
             events[i] = _read_again(events[i], settings, root)
-    made, failures = [], []
-    for done, (i, result) in enumerate(_run(todo, events, settings, reference, jobs), 1):
+    made, failures, premade = [], [], set()
+    ids = [None, *(e.id for e in events), None]  # ids[i] and ids[i + 2]: the neighbours
+    tasks = [
+        (events[i], settings, reference, PageJob(keys[i], audience, ids[i], ids[i + 2], templates))
+        for i in todo
+    ]
+    for done, (i, result) in enumerate(_run(todo, tasks, jobs), 1):
         if isinstance(result, BaseException):
             failures.append(
                 Problem(
@@ -228,13 +248,18 @@ def make_bundles(
             continue
         for name, data in result.files.items():
             staging.write(name, data)
+        for key, files in result.pages.items():
+            for name, data in files.items():
+                staging.write(name, data)
+            cache.store_files(key, dict(files))
+            premade.add(key)
         events[i] = without_sample_values(events[i])
         bundles[i] = cache.store(keys[i], result, events[i], settings, reference)
         made.append(bundles[i])
         progress.step(done, len(todo), "events derived and drawn")
     if failures:
         raise BuildError(problems=failures)
-    return [b for b in bundles if b is not None], made
+    return [b for b in bundles if b is not None], made, premade
 
 
 def _read_again(event: Event, settings: Settings, root: Path | None) -> Event:
@@ -273,16 +298,49 @@ def without_sample_values(event: Event) -> Event:
     return replace(event, samples=replace(event.samples, values=empty))
 
 
-def _work(args: tuple[Event, Settings, Reference]) -> EventBundle | BaseException:
+@dataclass(frozen=True)
+class PageJob:
+    """What a worker needs to render the pages of the event it draws: the event's cache key,
+    the audience and the ids of its neighbours in the catalogue."""
+
+    key: str
+    audience: str
+    previous: str | None
+    following: str | None
+    templates: str  # the templates' fingerprint, taken once per build
+
+
+def _work(args: tuple[Event, Settings, Reference, PageJob]) -> EventBundle | BaseException:
+    event, settings, reference, job = args
     try:
-        return event_bundle(*args)
+        bundle = replace(event_bundle(event, settings, reference), key=job.key)
+        return replace(bundle, pages=_event_pages(bundle, settings, job))
     except Exception as exc:  # reported per event by the caller, nothing is published
         return exc
 
 
-def _run(todo: list[int], events: list[Event], settings: Settings, reference: Reference, jobs: int):
+def _event_pages(bundle: EventBundle, settings: Settings, job: PageJob) -> dict[str, dict]:
+    """The event's page (and JSON) in every language of the site, by memo key: rendered in the
+    worker, beside the drawing, so that the build's own process does not render them one
+    after another."""
+    pages = {}
+    for language in settings.languages:
+        r = Renderer(_environment(), settings, job.audience, job.templates, language)
+        with use_language(language):
+            files = event_page_files(r, bundle, job.previous, job.following)
+        key = event_page_key(r, bundle, job.previous, job.following)
+        pages[content_key("page", *key)] = files
+    return pages
+
+
+@functools.cache
+def _environment() -> jinja2.Environment:
+    """The templates' environment, made once per process (it reloads a template that changed)."""
+    return make_environment()
+
+
+def _run(todo: list[int], tasks: list[tuple], jobs: int):
     """Yield (index, bundle or exception) for each event to make, in input order."""
-    tasks = [(events[i], settings, reference) for i in todo]
     if jobs <= 1 or len(todo) <= 1:
         yield from zip(todo, map(_work, tasks), strict=True)
         return

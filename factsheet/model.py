@@ -693,3 +693,5 @@ class EventBundle:
     files: Mapping[str, bytes] = field(default_factory=dict, repr=False)
     figure_seconds: float = 0.0
     key: str = ""  # the build cache's key of this event, set by the cache
+    # the event's pages, made where it was drawn: memo key to files (see factsheet.build)
+    pages: Mapping[str, Mapping[str, bytes]] = field(default_factory=dict, repr=False)

@@ -69,10 +69,22 @@ def test_each_input_file_is_read_once_per_build(catalogue, tmp_path, monkeypatch
 def test_keys_and_fingerprints_are_computed_once(catalogue, tmp_path, monkeypatch):
     folder = _catalogue(catalogue)
     keys = _count_calls(monkeypatch, build_module, "event_key")
-    prints = _count_calls(monkeypatch, render_site_module, "templates_fingerprint")
+    prints = _count_calls(monkeypatch, build_module, "templates_fingerprint")
+    also = _count_calls(monkeypatch, render_site_module, "templates_fingerprint")
     build(folder, tmp_path / "site", jobs=1)
     assert len(keys) == 2
-    assert len(prints) == 1
+    assert len(prints) + len(also) == 1
+
+
+def test_each_event_page_is_rendered_once_where_its_event_is_drawn(
+    catalogue, tmp_path, monkeypatch
+):
+    folder = _catalogue(catalogue)
+    drawn = _count_calls(monkeypatch, build_module, "event_page_files")
+    again = _count_calls(monkeypatch, render_site_module, "event_page_files")
+    build(folder, tmp_path / "site", jobs=1)
+    assert len(drawn) == 2 and again == []  # two events, one language: rendered by the worker
+    assert (tmp_path / "site" / "data" / "TEST-2.json").is_file()
 
 
 def test_workers_default_to_the_cores_the_process_may_use(monkeypatch):

@@ -408,8 +408,8 @@ def opening(event: Event) -> tuple[str, ...]:
 
 def event_page(
     item: Derived,
-    previous: Derived | None,
-    following: Derived | None,
+    previous: str | None,
+    following: str | None,
     figures: tuple[FigureInfo, ...],
     audio: Audio,
 ) -> EventPage:
@@ -450,8 +450,8 @@ def event_page(
         share_image=share.path if share else "",
         share_alt=share.alt if share else "",
         description=" ".join([*opening(event)[:1], headline[0]]),
-        previous=previous and Link(previous.event.id, page_of(previous.event.id)),
-        next=following and Link(following.event.id, page_of(following.event.id)),
+        previous=previous and Link(previous, page_of(previous)),
+        next=following and Link(following, page_of(following)),
         json_path=f"data/{event.id}.json",
         samples_path=samples_path(event),
         estimate_date=estimate_date(event),

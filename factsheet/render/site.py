@@ -105,15 +105,17 @@ def render_site(
     index_figures: Mapping[str, Sequence[SiteFigure]] | Sequence[SiteFigure] = (),
     site: Site | None = None,
     memo: Memo | None = None,
+    templates: str = "",
 ) -> Site:
     """Every page and export of the catalogue, in every language of the site (event figures
     and sounds are placed separately).
 
     The exports (JSON, ECSV, CSV) are written once, in English, whatever the languages. With a
-    ``memo`` (the build cache), pages whose inputs are unchanged come from the last build.
+    ``memo`` (the build cache), pages whose inputs are unchanged come from the last build;
+    ``templates`` is the templates' fingerprint when the caller took it already.
     """
     site = Site() if site is None else site
-    env, fingerprint = make_environment(), templates_fingerprint()
+    env, fingerprint = make_environment(), templates or templates_fingerprint()
     if not isinstance(index_figures, Mapping):
         index_figures = {settings.languages[0]: list(index_figures)}
     derived = [b.derived for b in bundles]
@@ -128,8 +130,7 @@ def render_site(
         shown = tuple(index_figures.get(language, ()))
         with use_language(language):
             for i, bundle in enumerate(bundles):
-                previous = derived[i - 1] if i else None
-                following = derived[i + 1] if i + 1 < len(derived) else None
+                previous, following = neighbours(bundles, i)
                 render_event(r, site, bundle, previous, following, memo)
 
             def make(r: Renderer = r, shown: tuple[SiteFigure, ...] = shown) -> dict[str, bytes]:
@@ -145,6 +146,13 @@ def render_site(
     for path in sorted(p for p in static.rglob("*") if p.is_file()):
         site.add(f"static/{path.relative_to(static).as_posix()}", path.read_bytes())
     return site
+
+
+def neighbours(bundles: Sequence[EventBundle], i: int) -> tuple[str | None, str | None]:
+    """The ids of the events before and after the ``i``-th in the catalogue."""
+    previous = bundles[i - 1].derived.event.id if i else None
+    following = bundles[i + 1].derived.event.id if i + 1 < len(bundles) else None
+    return previous, following
 
 
 def catalogue_pages(
@@ -194,34 +202,60 @@ def render_event(
     r: Renderer,
     site: Site,
     bundle: EventBundle,
-    previous: Derived | None,
-    following: Derived | None,
+    previous: str | None,
+    following: str | None,
     memo: Memo | None = None,
 ) -> None:
-    """The sheet of one event and its JSON (its figures and sound are made by the build).
+    """The sheet of one event and its JSON (its figures and sound are made by the build);
+    ``previous`` and ``following`` are the ids of its neighbours in the catalogue.
 
     With a ``memo`` (the build cache), an unchanged event with unchanged neighbours, templates
     and audience reuses its page and JSON from the previous build.
     """
-    item = bundle.derived
-    path, data = contexts.page_of(item.event.id), f"data/{item.event.id}.json"
-    page = r.prefix + path
-    names = (page, data) if not r.prefix else (page,)
+    key, names = event_page_key(r, bundle, previous, following), event_page_names(r, bundle)
 
     def make() -> dict[str, bytes]:
-        figures = bundle.figures.get(r.language, ())
-        context = sheet.event_page(item, previous, following, figures, bundle.audio)
-        files = {page: r.page("event.html", path, context)}
-        if data in names:
-            with use_language(SOURCE):  # the export is language-neutral
-                files[data] = (json.dumps(event_json(item), indent=2) + "\n").encode("utf-8")
-        return files
+        return event_page_files(r, bundle, previous, following)
 
-    key = (
+    files = memo(key, make) if memo and bundle.key else make()
+    if files is not None:  # None: the memo placed them
+        for name in names:
+            site.add(name, files[name])
+
+
+def event_page_names(r: Renderer, bundle: EventBundle) -> tuple[str, ...]:
+    """The files of an event's page in the renderer's language: the sheet and, in the first
+    language only, the event's JSON (language-neutral)."""
+    event_id = bundle.derived.event.id
+    page = r.prefix + contexts.page_of(event_id)
+    return (page, f"data/{event_id}.json") if not r.prefix else (page,)
+
+
+def event_page_files(
+    r: Renderer, bundle: EventBundle, previous: str | None, following: str | None
+) -> dict[str, bytes]:
+    """An event's page (and JSON) in the renderer's language, by site path; the language in use
+    must be the renderer's."""
+    item = bundle.derived
+    names = event_page_names(r, bundle)
+    figures = bundle.figures.get(r.language, ())
+    context = sheet.event_page(item, previous, following, figures, bundle.audio)
+    files = {names[0]: r.page("event.html", contexts.page_of(item.event.id), context)}
+    if len(names) > 1:
+        with use_language(SOURCE):  # the export is language-neutral
+            files[names[1]] = (json.dumps(event_json(item), indent=2) + "\n").encode("utf-8")
+    return files
+
+
+def event_page_key(
+    r: Renderer, bundle: EventBundle, previous: str | None, following: str | None
+) -> tuple:
+    """What an event's page and JSON depend on: the memo's key for them."""
+    return (
         bundle.key,
-        item.event.source_digest,  # the page shows words the bundle's key leaves out
-        previous and previous.event.id,
-        following and following.event.id,
+        bundle.derived.event.source_digest,  # the page shows words the bundle's key leaves out
+        previous,
+        following,
         r.audience,
         r.settings.title,
         r.settings.base_url,
@@ -231,7 +265,3 @@ def render_event(
         r.settings.languages,
         r.language,
     )
-    files = memo(key, make) if memo and bundle.key else make()
-    if files is not None:  # None: the memo placed them
-        for name in names:
-            site.add(name, files[name])
