@@ -47,7 +47,13 @@ from factsheet.publish import HELD, OutputLock, Staging, check_output
 from factsheet.render import Site, render_site
 from factsheet.render.assets import event_files, language_path
 from factsheet.render.environment import make_environment, templates_fingerprint
-from factsheet.render.site import Renderer, event_page_files, event_page_key, plane_edges
+from factsheet.render.site import (
+    Renderer,
+    event_page_files,
+    event_page_key,
+    for_catalogue,
+    plane_edges,
+)
 
 
 @dataclass(frozen=True)
@@ -175,8 +181,27 @@ def _build_locked(events, catalogue, cache, out, audience, force, jobs, progress
             cache.store_files(key, files)
             return files
 
+        def whole(bundle: EventBundle) -> EventBundle:
+            event = bundle.derived.event
+            found = cache.load(bundle.key, event, settings, reference_for(settings), again=True)
+            if found is None:
+                raise BuildError(
+                    f"{cache.root}: the cache entry of {event.id} went away during the build; "
+                    "build again (the earlier site is unchanged)"
+                )
+            return found
+
         site = StagedSite(staging, progress)
-        render_site(bundles, settings, audience, index, site=site, memo=memo, templates=templates)
+        render_site(
+            bundles,
+            settings,
+            audience,
+            index,
+            site=site,
+            memo=memo,
+            templates=templates,
+            whole=whole,
+        )
         progress.step(site.written, site.written, "pages and files written")
         staging.commit()
         cache.stamp_site(staging.placed)
@@ -223,8 +248,9 @@ def make_bundles(
     reference = reference_for(settings)
     bundles = [cache.load(k, e, settings, reference) for k, e in zip(keys, events, strict=True)]
     for i, bundle in enumerate(bundles):
-        if bundle is not None and not cache.place(bundle.key, staging.link):
-            bundles[i] = None
+        if bundle is not None:
+            placed = cache.place(bundle.key, staging.link)
+            bundles[i] = for_catalogue(bundle) if placed else None
     todo = [i for i, b in enumerate(bundles) if b is None]
     for i in todo:  # an event remembered from the last build keeps no sample values
         if needs_reading(events[i]):
@@ -254,7 +280,7 @@ def make_bundles(
             cache.store_files(key, dict(files))
             premade.add(key)
         events[i] = without_sample_values(events[i])
-        bundles[i] = cache.store(keys[i], result, events[i], settings, reference)
+        bundles[i] = for_catalogue(cache.store(keys[i], result, events[i], settings, reference))
         made.append(bundles[i])
         progress.step(done, len(todo), "events derived and drawn")
     if failures:

@@ -121,10 +121,16 @@ class Cache:
         self._files_of: dict[str, dict[str, Any]] = {}  # file records of the entries loaded
 
     def load(
-        self, key: str, event: Event, settings: Settings, reference: Reference
+        self,
+        key: str,
+        event: Event,
+        settings: Settings,
+        reference: Reference,
+        again: bool = False,
     ) -> EventBundle | None:
         """The bundle stored under ``key`` for ``event``, or None when there is none or its JSON
-        does not check out. Its files are placed by :meth:`place`."""
+        does not check out. Its files are placed by :meth:`place` (unless it is read
+        ``again``, after its files were placed)."""
         entry = self._entry(key)
         if entry is None or entry.get("kind") != "event":
             return None
@@ -133,7 +139,8 @@ class Cache:
         except (KeyError, TypeError, ValueError, AttributeError, IndexError):
             return None
         self.used.add(key)
-        self._files_of[key] = entry["files"]  # for place(): the entry is read once
+        if not again:
+            self._files_of[key] = entry["files"]  # for place(): the entry is read once
         return replace(bundle, key=key)
 
     def store(

@@ -84,6 +84,20 @@ def test_editing_page_only_words_redraws_nothing(cat, tmp_path, key, monkeypatch
         and "Words written later" in (out / "events" / "B-2.html").read_text()
     )
     assert not any(k.startswith("events/B-2-") or k.endswith(".wav") for k in changed)
+    # the page rendered again from the cached bundle is the page a fresh build makes
+    monkeypatch.undo()
+    build(cat, tmp_path / "fresh", jobs=1, audience="internal")
+    assert after == hashes(tmp_path / "fresh")
+
+
+def test_a_new_neighbour_renders_the_pages_beside_it_as_a_fresh_build_does(cat, tmp_path):
+    out = tmp_path / "site"
+    build(cat, out, jobs=1)
+    (cat / "d.yaml").write_text(event("D-4").replace("2034-04-12", "2034-04-13"))
+    report = build(cat, out, jobs=1)
+    assert report.reused == 3 and report.built == 4
+    build(cat, tmp_path / "fresh", jobs=1)
+    assert hashes(out) == hashes(tmp_path / "fresh")
 
 
 def test_editing_the_samples_file_rebuilds_its_event(cat, tmp_path):

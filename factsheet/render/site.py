@@ -11,13 +11,13 @@ from __future__ import annotations
 
 import json
 from collections.abc import Callable, Mapping, Sequence
-from dataclasses import dataclass, field
+from dataclasses import dataclass, field, replace
 
 import jinja2
 
 from factsheet.i18n import SOURCE, language_name, use_language
 from factsheet.load.reference import reference_for
-from factsheet.model import Derived, EventBundle, Settings, SiteFigure
+from factsheet.model import Audio, Comparisons, Derived, EventBundle, Settings, SiteFigure
 from factsheet.render import contexts, history, sheet, tables
 from factsheet.render.contexts import Alternate, SiteContext, variables
 from factsheet.render.environment import (
@@ -98,6 +98,29 @@ def plane_edges(settings: Settings) -> dict[str, float]:
     return {edge.key: edge.value.to_value("solMass") for edge in bands.edges()}
 
 
+def for_catalogue(bundle: EventBundle) -> EventBundle:
+    """The part of a bundle that the catalogue pages and the index figures read (the event,
+    its numbers, class and bands, the methods used, its sky map's summary): what a build holds
+    for every event at once. The rest (caveats, windows, lensing, comparisons, figures, the
+    sound's words) is only for the event's own page, which reads the whole bundle again."""
+    derived = replace(
+        bundle.derived,
+        caveats=(),
+        windows=(),
+        no_window_reason="",
+        comparisons=_NO_COMPARISONS,
+        second_generation=(),
+        lensing=None,
+        candidates=(),
+        samples={},
+    )
+    return replace(bundle, derived=derived, figures={}, audio=_NO_AUDIO, files={}, pages={})
+
+
+_NO_COMPARISONS = Comparisons()
+_NO_AUDIO = Audio("", "", 0.0)
+
+
 def render_site(
     bundles: list[EventBundle],
     settings: Settings,
@@ -106,13 +129,16 @@ def render_site(
     site: Site | None = None,
     memo: Memo | None = None,
     templates: str = "",
+    whole: Callable[[EventBundle], EventBundle] | None = None,
 ) -> Site:
     """Every page and export of the catalogue, in every language of the site (event figures
     and sounds are placed separately).
 
     The exports (JSON, ECSV, CSV) are written once, in English, whatever the languages. With a
     ``memo`` (the build cache), pages whose inputs are unchanged come from the last build;
-    ``templates`` is the templates' fingerprint when the caller took it already.
+    ``templates`` is the templates' fingerprint when the caller took it already. With
+    ``whole``, the bundles are those :func:`for_catalogue` keeps, and ``whole(bundle)`` gives the
+    whole bundle for an event page that must be rendered.
     """
     site = Site() if site is None else site
     env, fingerprint = make_environment(), templates or templates_fingerprint()
@@ -131,7 +157,7 @@ def render_site(
         with use_language(language):
             for i, bundle in enumerate(bundles):
                 previous, following = neighbours(bundles, i)
-                render_event(r, site, bundle, previous, following, memo)
+                render_event(r, site, bundle, previous, following, memo, whole)
 
             def make(r: Renderer = r, shown: tuple[SiteFigure, ...] = shown) -> dict[str, bytes]:
                 return catalogue_pages(r, derived, list(shown))
@@ -205,9 +231,11 @@ def render_event(
     previous: str | None,
     following: str | None,
     memo: Memo | None = None,
+    whole: Callable[[EventBundle], EventBundle] | None = None,
 ) -> None:
     """The sheet of one event and its JSON (its figures and sound are made by the build);
-    ``previous`` and ``following`` are the ids of its neighbours in the catalogue.
+    ``previous`` and ``following`` are the ids of its neighbours in the catalogue, and
+    ``whole`` gives the whole bundle when ``bundle`` is the part the catalogue keeps.
 
     With a ``memo`` (the build cache), an unchanged event with unchanged neighbours, templates
     and audience reuses its page and JSON from the previous build.
@@ -215,7 +243,7 @@ def render_event(
     key, names = event_page_key(r, bundle, previous, following), event_page_names(r, bundle)
 
     def make() -> dict[str, bytes]:
-        return event_page_files(r, bundle, previous, following)
+        return event_page_files(r, whole(bundle) if whole else bundle, previous, following)
 
     files = memo(key, make) if memo and bundle.key else make()
     if files is not None:  # None: the memo placed them
