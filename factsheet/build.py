@@ -184,10 +184,11 @@ def _build_locked(events, catalogue, cache, out, audience, force, jobs, progress
         def whole(bundle: EventBundle) -> EventBundle:
             event = bundle.derived.event
             found = cache.load(bundle.key, event, settings, reference_for(settings), again=True)
-            if found is None:
+            if found is None:  # damaged since it was read lean: the next build makes it afresh
+                cache.forget(bundle.key)
                 raise BuildError(
-                    f"{cache.root}: the cache entry of {event.id} went away during the build; "
-                    "build again (the earlier site is unchanged)"
+                    f"{cache.root / bundle.key}: the cache entry of {event.id} does not read "
+                    "back whole; it was removed: build again (the earlier site is unchanged)"
                 )
             return found
 
@@ -246,7 +247,9 @@ def make_bundles(
     again."""
     keys = [event_key(e, settings) for e in events]
     reference = reference_for(settings)
-    bundles = [cache.load(k, e, settings, reference) for k, e in zip(keys, events, strict=True)]
+    bundles = [
+        cache.load(k, e, settings, reference, lean=True) for k, e in zip(keys, events, strict=True)
+    ]
     for i, bundle in enumerate(bundles):
         if bundle is not None:
             placed = cache.place(bundle.key, staging.link)

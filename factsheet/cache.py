@@ -127,15 +127,18 @@ class Cache:
         settings: Settings,
         reference: Reference,
         again: bool = False,
+        lean: bool = False,
     ) -> EventBundle | None:
         """The bundle stored under ``key`` for ``event``, or None when there is none or its JSON
         does not check out. Its files are placed by :meth:`place` (unless it is read
-        ``again``, after its files were placed)."""
-        entry = self._entry(key)
+        ``again``, after its files were placed). A ``lean`` bundle has only the numbers, class,
+        bands, methods and sky-map summary (what the catalogue pages read): its words are not
+        read back, which is most of the cost of reading an entry."""
+        entry = self._entry(key, words=not lean)
         if entry is None or entry.get("kind") != "event":
             return None
         try:
-            bundle = bundle_from_json(entry["bundle"], event, settings, reference)
+            bundle = bundle_from_json(entry["bundle"], event, settings, reference, lean)
         except (KeyError, TypeError, ValueError, AttributeError, IndexError):
             return None
         self.used.add(key)
@@ -171,6 +174,10 @@ class Cache:
             link(source, name, files[name]["sha256"])
         self.used.add(key)
         return True
+
+    def forget(self, key: str) -> None:
+        """Remove an entry (one that does not read back), so the next build makes it afresh."""
+        shutil.rmtree(self.root / key, ignore_errors=True)
 
     def files_and_notes(self, key: str) -> tuple[dict[str, bytes], Any] | None:
         """The files of an entry of plain files (read from the published site, checked) and
@@ -467,14 +474,39 @@ def _window_json(w: Window) -> dict[str, Any]:
 
 
 def bundle_from_json(
-    data: dict[str, Any], event: Event, settings: Settings, reference: Reference
+    data: dict[str, Any],
+    event: Event,
+    settings: Settings,
+    reference: Reference,
+    lean: bool = False,
 ) -> EventBundle:
     """A bundle from its JSON and the freshly loaded event it belongs to (same key, same
-    content); raises KeyError, TypeError or ValueError when the JSON is not a bundle."""
+    content); raises KeyError, TypeError or ValueError when the JSON is not a bundle. A
+    ``lean`` one has only the numbers, class, bands, methods and sky-map summary (its JSON was
+    read without its kept words)."""
     # kept words (caveats, the sound's description) were read back with the entry's JSON
-    quantities = {
-        k: Summary(**{**v, "methods": tuple(v["methods"])}) for k, v in data["quantities"].items()
-    }
+    quantities = {sys.intern(k): _summary(v) for k, v in data["quantities"].items()}
+    if lean:
+        return EventBundle(
+            Derived(
+                event=event,
+                settings=settings,
+                reference=reference,
+                quantities=quantities,
+                caveats=(),
+                source_class=sys.intern(str(data["source_class"])),
+                class_probabilities=_shared(data["class_probabilities"]),
+                mass_bands={sys.intern(k): _shared(v) for k, v in data["mass_bands"].items()},
+                intermediate_mass=_shared(data["intermediate_mass"]),
+                disruption_probability=data["disruption_probability"],
+                other_methods=tuple(map(sys.intern, data["other_methods"])),
+                sky_map=_sky(data["sky_map"]),
+            ),
+            {},
+            Audio("", "", 0.0),
+            {},
+            data["figure_seconds"],
+        )
     sun_years = data["sun_years"]
     derived = Derived(
         event=event,
@@ -518,7 +550,14 @@ def _words(value: Any) -> str:
 
 
 def _summary(v: dict[str, Any]) -> Summary:
-    return Summary(**{**v, "methods": tuple(v["methods"])})
+    shared = {k: sys.intern(x) if type(x) is str else x for k, x in v.items()}
+    methods = i18n.from_json(v["methods"])  # a tuple's JSON, when read without the words
+    return Summary(**{**shared, "methods": tuple(map(sys.intern, methods))})
+
+
+def _shared(probabilities: dict[str, float]) -> dict[str, float]:
+    """Probabilities by key, the keys interned (the same few in every entry)."""
+    return {sys.intern(k): v for k, v in probabilities.items()}
 
 
 def _lensing(data: dict[str, Any] | None) -> Lensing | None:

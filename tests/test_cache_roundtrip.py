@@ -15,6 +15,7 @@ from factsheet.cache import Cache, event_key
 from factsheet.load import load_catalogue
 from factsheet.load.reference import reference_for
 from factsheet.render.event_json import event_json
+from factsheet.render.site import for_catalogue
 
 
 def test_a_cached_bundle_gives_the_same_json_bytes(catalogue, tmp_path):
@@ -32,3 +33,16 @@ def test_a_cached_bundle_gives_the_same_json_bytes(catalogue, tmp_path):
     # what the build keeps of a bundle it just made is the bundle a later build reads back
     assert json.dumps(event_json(kept.derived), indent=2) == fresh
     assert kept.files == {} and kept.key == key
+
+
+def test_a_lean_bundle_is_the_part_the_catalogue_keeps(catalogue, tmp_path):
+    cat = load_catalogue(catalogue({"a.yaml": VALID_EVENT}))
+    (event,) = cat.events
+    reference = reference_for(cat.settings)
+    cache = Cache(tmp_path / "site")
+    key = event_key(event, cat.settings)
+    cache.store(key, event_bundle(event, cat.settings, reference), event, cat.settings, reference)
+    whole = Cache(tmp_path / "site").load(key, event, cat.settings, reference)
+    lean = Cache(tmp_path / "site").load(key, event, cat.settings, reference, lean=True)
+    assert whole is not None and lean is not None and whole.derived.caveats
+    assert lean == for_catalogue(whole)

@@ -272,6 +272,26 @@ def test_a_planted_entry_never_runs(cat, tmp_path):
     assert report.reused == 0 and (out / "events" / "TEST-1.html").is_file()
 
 
+def test_an_entry_with_damaged_words_is_removed_and_the_next_build_recovers(cat, tmp_path):
+    out = tmp_path / "site"
+    build(cat, out, jobs=1)
+    before = tree(out)
+    for path in _cache(tmp_path).glob("*/entry.json"):
+        entry = json.loads(path.read_text())
+        if entry.get("kind") == "event":  # its kept words damaged, its numbers intact
+            entry["bundle"]["caveats"] = [{"\u00a7text": ["not", "a", "message"], "params": {}}]
+            path.write_text(json.dumps(entry))
+    # page-only words changed: the page must be rendered from the whole (damaged) entry
+    (cat / "a.yaml").write_text(VALID_EVENT.replace("A *test* event.", "Words written later."))
+    with pytest.raises(BuildError, match="does not read back whole; it was removed"):
+        build(cat, out, jobs=1)
+    assert tree(out) == before  # the earlier site is unchanged
+    report = build(cat, out, jobs=1)
+    assert (
+        report.reused == 0 and "Words written later" in (out / "events" / "TEST-1.html").read_text()
+    )
+
+
 def test_entries_record_each_files_size_and_hash(cat, tmp_path):
     build(cat, tmp_path / "site", jobs=1)
     entries = list(_cache(tmp_path).glob("*/entry.json"))
