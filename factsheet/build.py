@@ -283,7 +283,8 @@ def make_bundles(
             cache.store_files(key, dict(files))
             premade.add(key)
         events[i] = without_sample_values(events[i])
-        bundles[i] = for_catalogue(cache.store(keys[i], result, events[i], settings, reference))
+        stored = cache.store(keys[i], result, events[i], settings, reference, lean=True)
+        bundles[i] = for_catalogue(stored)
         made.append(bundles[i])
         progress.step(done, len(todo), "events derived and drawn")
     if failures:

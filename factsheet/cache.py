@@ -116,7 +116,7 @@ class Cache:
             )
         self.site = out
         self.used: set[str] = {STAMPS, RECORDS}
-        self._stamps: dict[str, list] | None = None
+        self._stamps: dict[str, int] | None = None
         self._site_made: bool | None = None
         self._files_of: dict[str, dict[str, Any]] = {}  # file records of the entries loaded
 
@@ -147,15 +147,22 @@ class Cache:
         return replace(bundle, key=key)
 
     def store(
-        self, key: str, bundle: EventBundle, event: Event, settings: Settings, reference: Reference
+        self,
+        key: str,
+        bundle: EventBundle,
+        event: Event,
+        settings: Settings,
+        reference: Reference,
+        lean: bool = False,
     ) -> EventBundle:
         """Record the bundle's JSON and its files' sizes and hashes under ``key``; return it as
-        a later build reads it back (for ``event``, without file bytes: the caller writes the
-        files into the new site). Every bundle a build holds is then in the same lean form,
-        sharing the build's settings, reference and event, whether made now or earlier."""
+        a later build reads it back with :meth:`load` (for ``event``, without file bytes: the
+        caller writes the files into the new site). Every bundle a build holds is then in the
+        same form, sharing the build's settings, reference and event, whether made now or
+        earlier."""
         text = self._write(key, bundle.files, {"kind": "event", "bundle": bundle_to_json(bundle)})
-        data = json.loads(text, object_hook=_read_back)["bundle"]
-        return replace(bundle_from_json(data, event, settings, reference), key=key)
+        data = json.loads(text, object_hook=None if lean else _read_back)["bundle"]
+        return replace(bundle_from_json(data, event, settings, reference, lean), key=key)
 
     def place(self, key: str, link: Callable[[str, str, str], None]) -> bool:
         """Place every file of the entry ``key`` from the published site into the new one with
@@ -170,8 +177,8 @@ class Cache:
         sources = {name: self._published(name, record) for name, record in files.items()}
         if not all(sources.values()):
             return False
-        for name, source in sources.items():
-            link(source, name, files[name]["sha256"])
+        for name, source in sources.items():  # the name interned: the stamps hold it too
+            link(source, sys.intern(name), files[name]["sha256"])
         self.used.add(key)
         return True
 
@@ -265,16 +272,19 @@ class Cache:
 
     # -- the published files -------------------------------------------------------------------
     @property
-    def stamps(self) -> dict[str, list]:
-        """The stamps of the published site's files: site path to [size, mtime, sha256]."""
+    def stamps(self) -> dict[str, int]:
+        """The stamps of the published site's files, as a build holds them for every file at
+        once: site path (interned: the entries name the same files) to the hash of its
+        [size, mtime, sha256] (:func:`_stamp`)."""
         if self._stamps is None:
             self._stamps = {}
             if self._lends():
                 try:
                     data = json.loads((self.root / STAMPS).read_bytes())
                     if data.get("format") == FORMAT and isinstance(data.get("files"), dict):
-                        self._stamps = data["files"]
-                except (OSError, ValueError, AttributeError):
+                        found = data["files"].items()
+                        self._stamps = {sys.intern(name): _stamp(*st) for name, st in found}
+                except (OSError, ValueError, AttributeError, TypeError):
                     pass
         return self._stamps
 
@@ -296,7 +306,7 @@ class Cache:
             return None
         if not stat.S_ISREG(st.st_mode) or st.st_size != record["size"]:
             return None
-        if self.stamps.get(name) == [st.st_size, st.st_mtime_ns, record["sha256"]]:
+        if self.stamps.get(name) == _stamp(st.st_size, st.st_mtime_ns, record["sha256"]):
             return path
         try:
             with open(path, "rb") as handle:
@@ -366,6 +376,12 @@ def _read_back(value: dict[str, Any]) -> Any:
             v = [sys.intern(x) if type(x) is str and len(x) <= SHORT else x for x in v]
         shared[sys.intern(k)] = v
     return i18n.json_hook(shared)
+
+
+def _stamp(size: int, mtime_ns: int, sha256: str) -> int:
+    """A published file's stamp as held in memory: the hash of its size, time and SHA-256 (two
+    stamps that differ in any of them collide with a chance of one in 2**64)."""
+    return hash((size, mtime_ns, sha256))
 
 
 def _records_header() -> str:

@@ -7,6 +7,7 @@ build render those pages from the cached bundle; they must be the bytes a fresh 
 from __future__ import annotations
 
 import json
+from dataclasses import replace
 
 from helpers import VALID_EVENT
 
@@ -46,3 +47,6 @@ def test_a_lean_bundle_is_the_part_the_catalogue_keeps(catalogue, tmp_path):
     lean = Cache(tmp_path / "site").load(key, event, cat.settings, reference, lean=True)
     assert whole is not None and lean is not None and whole.derived.caveats
     assert lean == for_catalogue(whole)
+    made = event_bundle(event, cat.settings, reference)
+    kept = cache.store(key, made, event, cat.settings, reference, lean=True)
+    assert kept == replace(lean, figure_seconds=made.figure_seconds)
