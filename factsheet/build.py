@@ -1,9 +1,10 @@
-"""The build, stage by stage: load, select, derive and draw (per event, cached, in parallel),
-render, publish.
+"""The build, stage by stage: load, select, derive, draw and render each event's page (per
+event, cached, in parallel), render the catalogue pages, publish.
 
 Everything is loaded and checked before any work starts; each event's bundle (derived numbers,
-figures, sound) comes from the cache when its inputs are unchanged, else from a worker; pages
-are rendered from the bundles and the new site is swapped in whole at the end.
+figures, sound) comes from the cache when its inputs are unchanged, else from a worker, which
+also renders the event's page; the catalogue pages are rendered from the part of every bundle
+they read, and the new site is swapped in whole at the end.
 """
 
 from __future__ import annotations
