@@ -161,7 +161,7 @@ class Cache:
         same form, sharing the build's settings, reference and event, whether made now or
         earlier."""
         text = self._write(key, bundle.files, {"kind": "event", "bundle": bundle_to_json(bundle)})
-        data = json.loads(text, object_hook=None if lean else _read_back)["bundle"]
+        data = json.loads(text, object_hook=None if lean else i18n.json_hook)["bundle"]
         return replace(bundle_from_json(data, event, settings, reference, lean), key=key)
 
     def place(self, key: str, link: Callable[[str, str, str], None]) -> bool:
@@ -323,7 +323,7 @@ class Cache:
             if path.is_symlink() or path.stat().st_size > MAX_ENTRY_BYTES:
                 return None
             # kept words are read back as the parser meets them (i18n.json_hook)
-            hook = _read_back if words else None
+            hook = i18n.json_hook if words else None
             entry = json.loads(path.read_bytes(), object_hook=hook)
         except (OSError, ValueError, TypeError, AttributeError):
             return None
@@ -359,23 +359,6 @@ class Cache:
             raise BuildError(f"{self.root}: cannot write the build cache ({exc.strerror})") from exc
         self.used.add(key)
         return text
-
-
-SHORT = 48  # words at most this long (keys, units, method names) are shared between entries
-
-
-def _read_back(value: dict[str, Any]) -> Any:
-    """One object of an entry as the parser meets it: kept words read back
-    (:func:`~factsheet.i18n.json_hook`), and its keys and short words interned, so the same key
-    or unit in ten thousand entries held at once is one string, not ten thousand."""
-    shared = {}
-    for k, v in value.items():
-        if type(v) is str and len(v) <= SHORT:
-            v = sys.intern(v)
-        elif type(v) is list:
-            v = [sys.intern(x) if type(x) is str and len(x) <= SHORT else x for x in v]
-        shared[sys.intern(k)] = v
-    return i18n.json_hook(shared)
 
 
 def _stamp(size: int, mtime_ns: int, sha256: str) -> int:
