@@ -446,9 +446,9 @@ def distance_beyond_table(distance_mpc: float, cosmology: str) -> str:
 
     The redshift table ends at d_L(z = 1000) (:mod:`factsheet.physics.cosmology`).
     """
-    from factsheet.physics.cosmology import Z_MAX, distance_limit  # scipy loads when needed
+    from factsheet.physics.cosmology import Z_MAX, named_distance_limit
 
-    limit = distance_limit(cosmology).to_value("Mpc")
+    limit = named_distance_limit(cosmology)
     if distance_mpc <= limit:
         return ""
     return (

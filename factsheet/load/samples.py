@@ -333,9 +333,9 @@ def _check_values(path: Path, values: dict[str, np.ndarray], rows: Rows, cosmolo
             raise problem(path, line, name, f"{where}value {value:g} outside the physical range")
     distance = values["distance"]
     if cosmology is not None and distance_beyond_table(float(distance.max()), cosmology):
-        from factsheet.physics.cosmology import distance_limit
+        from factsheet.physics.cosmology import named_distance_limit
 
-        i = int(np.argmax(distance > distance_limit(cosmology).to_value("Mpc")))  # the first
+        i = int(np.argmax(distance > named_distance_limit(cosmology)))  # the first
         line, where = rows.where(i)
         why = distance_beyond_table(float(distance[i]), cosmology)
         raise problem(path, line, "distance", f"{where}{why}")

@@ -14,6 +14,7 @@ import astropy.units as u
 import numpy as np
 from astropy import constants as _constants
 
+from . import _distance_limits
 from ._checks import dimensionless, require
 from .registry import Method, register
 
@@ -77,6 +78,16 @@ def _table(cosmology) -> _Table:
 def distance_limit(cosmology) -> u.Quantity:
     """d_L(z = 1000) in ``cosmology``, in Mpc: the largest distance turned into a redshift."""
     return (_table(cosmology).high * u.m).to(u.Mpc)
+
+
+def named_distance_limit(name: str) -> float:
+    """d_L(z = 1000) in Mpc of the cosmology astropy ships as ``name``, from the table made
+    once by ``tools/make_distance_limits.py`` (no astropy cosmology or scipy is loaded); any
+    other name is computed (:func:`distance_limit`)."""
+    found = _distance_limits.LIMITS_M.get(name)
+    if found is None:
+        return float(distance_limit(name).to_value(u.Mpc))
+    return float((found * u.m).to_value(u.Mpc))
 
 
 def redshift_at_distance(distance, cosmology) -> np.ndarray:

@@ -111,3 +111,21 @@ def test_frames_round_trip():
     det = cosmology.to_detector_frame([30, 30] * u.Msun, z)
     assert np.allclose(det.to_value(u.Msun), [33, 60])
     assert np.allclose(cosmology.to_source_frame(det, z).to_value(u.Msun), 30)
+
+
+def test_named_limits_equal_astropys():
+    # astropy: d_L(z = 1000) of every cosmology it ships, against the table the loader reads
+    # (tools/make_distance_limits.py writes it; run it again when this fails after an upgrade)
+    from astropy.cosmology import realizations
+
+    from factsheet.physics import _distance_limits
+
+    assert sorted(_distance_limits.LIMITS_M) == sorted(realizations.available)
+    for name in realizations.available:
+        expected = getattr(realizations, name).luminosity_distance(cosmology.Z_MAX)
+        assert cosmology.named_distance_limit(name) == pytest.approx(
+            expected.to_value(u.Mpc), rel=1e-12
+        )
+        assert cosmology.named_distance_limit(name) == pytest.approx(
+            cosmology.distance_limit(name).to_value(u.Mpc), rel=1e-15
+        )
