@@ -160,19 +160,20 @@ def _build_locked(events, catalogue, cache, out, audience, force, jobs, progress
     Files an unchanged entry of the cache recorded are linked from the site being replaced;
     everything else is written afresh into the staging folder."""
     settings, templates = catalogue.settings, templates_fingerprint()
+    jobs = jobs or available_cores()
     with Staging(out, force) as staging:
         bundles, made, premade = make_bundles(
             events,
             settings,
             cache,
-            jobs or available_cores(),
+            jobs,
             progress,
             staging,
             catalogue.root,
             audience,
             templates,
         )
-        index = _index_figures(bundles, settings, cache)
+        index = _index_figures(bundles, settings, cache, jobs)
 
         def memo(parts: tuple, make) -> dict[str, bytes] | None:
             key = content_key("page", *parts)
@@ -375,14 +376,19 @@ def _run(todo: list[int], tasks: list[tuple], jobs: int):
     if jobs <= 1 or len(todo) <= 1:
         yield from zip(todo, map(_work, tasks), strict=True)
         return
+    with _pool(min(jobs, len(todo))) as pool:
+        yield from zip(todo, pool.map(_work, tasks, chunksize=1), strict=True)
+
+
+def _pool(workers: int) -> ProcessPoolExecutor:
+    """Worker processes, which end when the build does (:func:`_worker_started`)."""
     context = multiprocessing.get_context("fork" if sys.platform == "linux" else "spawn")
-    with ProcessPoolExecutor(
-        max_workers=min(jobs, len(todo)),
+    return ProcessPoolExecutor(
+        max_workers=workers,
         mp_context=context,
         initializer=_worker_started,
         initargs=(os.getpid(),),
-    ) as pool:
-        yield from zip(todo, pool.map(_work, tasks, chunksize=1), strict=True)
+    )
 
 
 _PR_SET_PDEATHSIG = 1
@@ -414,50 +420,61 @@ def _exit_when_orphaned(parent: int) -> None:
 
 
 def _index_figures(
-    bundles: list[EventBundle], settings: Settings, cache: Cache
+    bundles: list[EventBundle], settings: Settings, cache: Cache, jobs: int = 1
 ) -> dict[str, list[SiteFigure]]:
-    """The index's figures by language (drawn in each, published once where they agree)."""
-    derived = [b.derived for b in bundles]
+    """The index's figures by language (drawn in each, published once where they agree); with
+    more than one job they are drawn in a worker, like every other figure, so that the build's
+    own process never loads matplotlib."""
     edges = plane_edges(settings)
-    key = content_key(
-        "index",
-        edges,
-        settings.languages,
-        [
-            (
-                d.event.id,
-                d.event.status,
-                d.source_class,
-                d.quantities["heavier_mass"],
-                d.quantities["lighter_mass"],
-                d.quantities["distance"],
-                d.quantities["total_mass"],
-            )
-            for d in derived
-        ],
-    )
+    rows = [
+        (
+            d.event.id,
+            d.event.status,
+            d.source_class,
+            d.quantities["heavier_mass"],
+            d.quantities["lighter_mass"],
+            d.quantities["distance"],
+            d.quantities["total_mass"],
+        )
+        for d in (b.derived for b in bundles)
+    ]
+    key = content_key("index", edges, settings.languages, rows)
     found = cache.files_and_notes(key)
     if found is not None:
         files, meta = found
         try:
             return {
-                str(lang): [SiteFigure(p, files[p], alt, cap) for p, alt, cap in rows]
-                for lang, rows in meta.items()  # kept words read back with the entry
+                str(lang): [SiteFigure(p, files[p], alt, cap) for p, alt, cap in listed]
+                for lang, listed in meta.items()  # kept words read back with the entry
             }
         except (KeyError, TypeError, ValueError, AttributeError):
             pass  # not what this build stores: draw them again
+    task = (rows, edges, settings.languages)
+    if jobs <= 1:
+        files, stored = _draw_index(task)
+    else:
+        with _pool(1) as pool:
+            files, stored = pool.submit(_draw_index, task).result()
+    meta = {lang: [[f.path, f.alt, f.caption] for f in figs] for lang, figs in stored.items()}
+    cache.store_files(key, files, i18n.to_json(meta))
+    return stored
+
+
+def _draw_index(
+    task: tuple[list[tuple], dict[str, float], tuple[str, ...]],
+) -> tuple[dict[str, bytes], dict[str, list[SiteFigure]]]:
+    """The index's figures in each language, and their files by site path."""
     from factsheet.render import figures  # matplotlib loads only when drawing
 
+    rows, edges, languages = task
     files: dict[str, bytes] = {}
     stored: dict[str, list[SiteFigure]] = {}
-    for n, language in enumerate(settings.languages):
+    for n, language in enumerate(languages):
         with use_language(language):
-            drawn = figures.index_figures(derived, edges)
+            drawn = figures.index_figures(rows, edges)
         for fig in drawn:
             if n and files.get(fig.path) != fig.svg:
                 fig = replace(fig, path=language_path(language, fig.path))
             files[fig.path] = fig.svg
             stored.setdefault(language, []).append(fig)
-    meta = {lang: [[f.path, f.alt, f.caption] for f in figs] for lang, figs in stored.items()}
-    cache.store_files(key, files, i18n.to_json(meta))
-    return stored
+    return files, stored

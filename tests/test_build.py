@@ -4,6 +4,8 @@ key and the templates' fingerprint are computed once per build."""
 from __future__ import annotations
 
 import pathlib
+import subprocess
+import sys
 
 import numpy as np
 from helpers import VALID_EVENT
@@ -90,3 +92,19 @@ def test_each_event_page_is_rendered_once_where_its_event_is_drawn(
 def test_workers_default_to_the_cores_the_process_may_use(monkeypatch):
     monkeypatch.setattr(build_module.os, "sched_getaffinity", lambda pid: {0, 3, 5}, raising=False)
     assert build_module.available_cores() == 3
+
+
+def test_the_builds_own_process_loads_neither_matplotlib_nor_scipy(catalogue, tmp_path):
+    # with workers, everything that draws or derives happens in them, the index's figures
+    # included: the build's own process keeps its memory for the catalogue
+    folder = _catalogue(catalogue)
+    code = (
+        "import sys\n"
+        "from factsheet.build import build\n"
+        f"report = build({str(folder)!r}, {str(tmp_path / 'site')!r}, jobs=2)\n"
+        "assert report.built == 2\n"
+        "print(*(m in sys.modules for m in ('matplotlib', 'scipy', 'astropy.cosmology')))\n"
+    )
+    done = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True, check=True)
+    assert done.stdout.split() == ["False", "False", "False"]
+    assert (tmp_path / "site" / "figures" / "mass-plane.svg").is_file()

@@ -20,7 +20,6 @@ import math
 from collections.abc import Mapping
 
 import numpy as np
-from scipy.special import erf, ndtr, ndtri
 
 from factsheet.derive import masses
 from factsheet.load.samples import heavier_first
@@ -64,6 +63,8 @@ class _Half:
     """
 
     def __init__(self, spread: float, room: float, level: float):
+        from scipy.special import ndtri  # loads when drawing: the build's own process never does
+
         self.spread, self.room, self.level = spread, max(room, 0.0), level
         z = float(ndtri(0.5 + level / 2))
         self.scale = spread / z
@@ -78,6 +79,8 @@ class _Half:
         if self.spread == 0 or self.room == 0:
             return np.zeros_like(share)
         if self.normal:
+            from scipy.special import ndtr, ndtri
+
             with np.errstate(over="ignore"):  # a limit far beyond a tiny spread: ndtr(inf) = 1
                 top = float(ndtr(self.room / self.scale)) if math.isfinite(self.room) else 1.0
             tail = 1 - share if lower_tail is None else lower_tail
@@ -99,6 +102,8 @@ def _cut(spread: float, room: float, scale: float) -> float:
     the share of the half beyond the limit."""
     if math.isinf(room):
         return 0.0
+    from scipy.special import ndtr
+
     with np.errstate(over="ignore"):  # a limit far beyond a tiny spread: no share is cut
         return float(2 * ndtr(-room / scale))
 
@@ -106,6 +111,7 @@ def _cut(spread: float, room: float, scale: float) -> float:
 def _solve_scale(spread: float, room: float, level: float) -> float:
     """The scale of a half-normal cut off at ``room`` whose ``level`` quantile is ``spread``:
     solves ``erf(spread / (s sqrt 2)) / erf(room / (s sqrt 2)) = level`` for ``s``."""
+    from scipy.special import erf, ndtri
 
     def excess(t: float) -> float:  # t = room / s; the ratio rises from spread/room to 1
         return float(erf(spread / room * t / math.sqrt(2)) / erf(t / math.sqrt(2))) - level

@@ -9,7 +9,7 @@ uses it. Importing this module loads matplotlib.
 from __future__ import annotations
 
 import time
-from collections.abc import Callable
+from collections.abc import Callable, Sequence
 
 import astropy.units as u
 import numpy as np
@@ -363,30 +363,23 @@ def _history_points(item: Derived) -> list[fg.HistoryItem]:
     return points
 
 
-def index_figures(derived: list[Derived], edges: dict[str, float]) -> list[SiteFigure]:
-    """The catalogue-wide figures of the index page."""
-    if not derived:
+def index_figures(rows: Sequence[tuple], edges: dict[str, float]) -> list[SiteFigure]:
+    """The catalogue-wide figures of the index page, from one row per event: its id, status,
+    source class, and the summaries of its heavier and lighter masses, distance and total mass
+    (what ``factsheet.build`` hands over, so that the drawing may happen in a worker)."""
+    if not rows:
         return []
     plane, dist = [], []
-    for d in derived:
-        q = d.quantities
-        m1, m2, dl, mt = q["heavier_mass"], q["lighter_mass"], q["distance"], q["total_mass"]
+    for event_id, status, source_class, m1, m2, dl, mt in rows:
         plane.append(
             fg.PlaneItem(
-                d.event.id,
-                m1.median,
-                m1.low,
-                m1.high,
-                m2.median,
-                m2.low,
-                m2.high,
-                d.event.status,
-                d.source_class,
+                event_id, m1.median, m1.low, m1.high, m2.median, m2.low, m2.high, status,
+                source_class,
             )
-        )
+        )  # fmt: skip
         dist.append(
             fg.DistanceItem(
-                d.event.id, dl.median, dl.low, dl.high, mt.median, mt.low, mt.high, d.event.status
+                event_id, dl.median, dl.low, dl.high, mt.median, mt.low, mt.high, status
             )
         )
     return [
