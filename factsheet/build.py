@@ -175,13 +175,15 @@ def _build_locked(events, catalogue, cache, out, audience, force, jobs, progress
         )
         index = _index_figures(bundles, settings, cache, jobs)
 
-        def memo(parts: tuple, make) -> dict[str, bytes] | None:
+        def memo(parts: tuple, make):
             key = content_key("page", *parts)
             if key in premade or cache.place(key, staging.link):
                 return None  # already in place
             files = make()
-            cache.store_files(key, files)
-            return files
+            if isinstance(files, dict):
+                cache.store_files(key, files)
+                return files
+            return cache.recording(key, files)  # pairs, recorded as they pass
 
         def whole(bundle: EventBundle) -> EventBundle:
             event = bundle.derived.event

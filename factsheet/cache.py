@@ -28,7 +28,7 @@ import shutil
 import stat
 import sys
 import tempfile
-from collections.abc import Callable
+from collections.abc import Callable, Iterable, Iterator
 from dataclasses import asdict, replace
 from functools import cache
 from pathlib import Path
@@ -207,6 +207,18 @@ class Cache:
         """Record files the build publishes (and, if given, notes about them as plain JSON)."""
         self._write(key, files, {"kind": "files", "notes": notes})
 
+    def recording(
+        self, key: str, files: Iterable[tuple[str, bytes]]
+    ) -> Iterator[tuple[str, bytes]]:
+        """Hand on each (site path, content) of ``files`` as it comes, and record them all
+        (as :meth:`store_files` does) once the last has passed: the files are never all held
+        at once. Nothing is recorded when the files stop short."""
+        recorded = {}
+        for name, data in files:
+            recorded[name] = _record(data)
+            yield name, data
+        self._write_recorded(key, recorded, {"kind": "files", "notes": None})
+
     def stamp_site(self, placed: dict[str, str]) -> None:
         """After the swap: stamp each file of the new site (site path to SHA-256) with its
         size and modification time, so the next build knows it unchanged from its metadata."""
@@ -339,13 +351,14 @@ class Cache:
     def _write(self, key: str, files: dict[str, bytes], entry: dict[str, Any]) -> str:
         """Write an entry into a fresh folder, then move it into place (atomic per entry);
         return its JSON."""
+        recorded = {name: _record(data) for name, data in files.items()}
+        return self._write_recorded(key, recorded, entry)
+
+    def _write_recorded(self, key: str, recorded: dict[str, Any], entry: dict[str, Any]) -> str:
+        """:meth:`_write`, the files' sizes and hashes given."""
         try:
             self.root.mkdir(parents=True, exist_ok=True)
             staging = Path(tempfile.mkdtemp(prefix=".new-", dir=self.root))
-            recorded = {
-                name: {"size": len(data), "sha256": hashlib.sha256(data).hexdigest()}
-                for name, data in files.items()
-            }
             entry = {"format": FORMAT, **entry, "files": recorded}
             # keys stay in insertion order: a bundle read back must give the pages and the JSON
             # export the same bytes as the bundle it was made from (sorted keys reordered the
@@ -359,6 +372,11 @@ class Cache:
             raise BuildError(f"{self.root}: cannot write the build cache ({exc.strerror})") from exc
         self.used.add(key)
         return text
+
+
+def _record(data: bytes) -> dict[str, Any]:
+    """What an entry records of a file it lists: its size and SHA-256."""
+    return {"size": len(data), "sha256": hashlib.sha256(data).hexdigest()}
 
 
 def _stamp(size: int, mtime_ns: int, sha256: str) -> int:

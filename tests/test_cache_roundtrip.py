@@ -50,3 +50,21 @@ def test_a_lean_bundle_is_the_part_the_catalogue_keeps(catalogue, tmp_path):
     made = event_bundle(event, cat.settings, reference)
     kept = cache.store(key, made, event, cat.settings, reference, lean=True)
     assert kept == replace(lean, figure_seconds=made.figure_seconds)
+
+
+def test_files_handed_on_one_at_a_time_are_recorded_once_all_passed(tmp_path):
+    cache = Cache(tmp_path / "site")
+    pairs = [("a.html", b"first"), ("b.xml", b"second")]
+    passing = cache.recording("k1", iter(pairs))
+    assert next(passing) == pairs[0]
+    assert cache._entry("k1") is None  # nothing recorded before the last file has passed
+    assert list(passing) == pairs[1:]
+    recorded = cache._entry("k1")["files"]
+    assert recorded == Cache(tmp_path / "site")._entry("k1")["files"]
+    # what store_files records of the same files, to the byte
+    cache.store_files("k2", dict(pairs))
+    assert recorded == cache._entry("k2")["files"]
+    stopped = cache.recording("k3", iter(pairs))
+    next(stopped)
+    stopped.close()  # the files stopped short: no entry
+    assert cache._entry("k3") is None

@@ -324,8 +324,8 @@ class ChangesPage:
     undated: tuple[ChangeEntry, ...]
 
 
-def changes_page(derived: list[Derived]) -> ChangesPage:
-    entries = change_entries(derived)
+def changes_page(entries: list[ChangeEntry]) -> ChangesPage:
+    """The changes page of the catalogue's entries (:func:`change_entries`)."""
     return ChangesPage(
         tuple(e for e in entries if e.dated), tuple(e for e in entries if not e.dated)
     )

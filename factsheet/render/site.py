@@ -10,8 +10,9 @@ a page whose inputs did not change come from the previous build instead of being
 from __future__ import annotations
 
 import json
-from collections.abc import Callable, Mapping, Sequence
+from collections.abc import Callable, Iterator, Mapping, Sequence
 from dataclasses import dataclass, field, replace
+from typing import Any
 
 import jinja2
 
@@ -33,8 +34,10 @@ from factsheet.render.methods_page import methods_page
 from factsheet.resources import templates_dir
 
 # A memo: (key parts, make) -> the files ``make()`` gives, or None when the memo placed the
-# files of an earlier build itself; the build passes one backed by its cache.
-Memo = Callable[[tuple, Callable[[], dict[str, bytes]]], dict[str, bytes] | None]
+# files of an earlier build itself; the build passes one backed by its cache. ``make`` gives
+# a dict (an event's page), or (site path, content) pairs one at a time (the catalogue pages),
+# which the memo hands on as they come.
+Memo = Callable[[tuple, Callable[[], Any]], Any]
 
 
 @dataclass
@@ -159,14 +162,16 @@ def render_site(
                 previous, following = neighbours(bundles, i)
                 render_event(r, site, bundle, previous, following, memo, whole)
 
-            def make(r: Renderer = r, shown: tuple[SiteFigure, ...] = shown) -> dict[str, bytes]:
+            def make(
+                r: Renderer = r, shown: tuple[SiteFigure, ...] = shown
+            ) -> Iterator[tuple[str, bytes]]:
                 return catalogue_pages(r, derived, list(shown))
 
             keys = tuple((b.key, b.derived.event.source_digest) for b in bundles)
             figures = tuple((f.path, f.alt) for f in shown)
             key = ("catalogue", keys, settings, audience, r.templates, figures, language)
             made = memo(key, make) if memo and all(k for k, _ in keys) else make()
-            for name, content in (made or {}).items():  # None: the memo placed them
+            for name, content in made or ():  # None: the memo placed them
                 site.add(name, content)
     static = templates_dir() / "static"
     for path in sorted(p for p in static.rglob("*") if p.is_file()):
@@ -183,30 +188,34 @@ def neighbours(bundles: Sequence[EventBundle], i: int) -> tuple[str | None, str 
 
 def catalogue_pages(
     r: Renderer, derived: list[Derived], index_figures: list[SiteFigure]
-) -> dict[str, bytes]:
+) -> Iterator[tuple[str, bytes]]:
     """The catalogue-wide pages of one language (index, methods, changes, feed) and, with the
-    first language, the exports, in English."""
-    index = index_page(derived, r.settings.description, index_figures, r.audience)
+    first language, the exports, in English: each (site path, content) as soon as it is made,
+    so that a catalogue of thousands of events holds one page's making at a time."""
     prefix = r.prefix
+    yield from index_files(
+        r, index_page(derived, r.settings.description, index_figures, r.audience)
+    ).items()
+    methods = methods_page(derived, reference_for(r.settings))
+    yield prefix + "methods.html", r.page("methods.html", "methods.html", methods)
+    del methods
+    entries = history.change_entries(derived)
+    yield (
+        prefix + "changes.html",
+        r.page("changes.html", "changes.html", history.changes_page(entries)),
+    )
     base = r.settings.base_url and r.settings.base_url + prefix
-    pages = {
-        **index_files(r, index),
-        prefix + "methods.html": r.page(
-            "methods.html",
-            "methods.html",
-            methods_page(derived, reference_for(r.settings)),
-        ),
-        prefix + "changes.html": r.page(
-            "changes.html", "changes.html", history.changes_page(derived)
-        ),
-        prefix + "feed.xml": atom_feed(history.change_entries(derived), r.settings, base),
-    }
+    yield prefix + "feed.xml", atom_feed(entries, r.settings, base)
+    del entries
     if not prefix:
         with use_language(SOURCE):
             table = tables.catalogue_table(derived, r.audience)
-            pages["data/catalogue.ecsv"] = tables.write_ecsv(table)
-            pages["data/catalogue.csv"] = tables.write_csv(table)
-    return pages
+            ecsv = tables.write_ecsv(table)
+        yield "data/catalogue.ecsv", ecsv
+        del ecsv
+        with use_language(SOURCE):
+            csv = tables.write_csv(table)
+        yield "data/catalogue.csv", csv
 
 
 def index_files(r: Renderer, index: IndexPage) -> dict[str, bytes]:

@@ -274,7 +274,7 @@ class Page(HTMLParser):
 def test_changes_page(derived):
     entries = change_entries(derived)
     renderer = Renderer(make_environment(), derived[0].settings, "public", "")
-    html = renderer.page("changes.html", "changes.html", changes_page(derived))
+    html = renderer.page("changes.html", "changes.html", changes_page(change_entries(derived)))
     page = Page()
     page.feed(html.decode("utf-8"))
     assert "feed.xml" in page.links and "events/B-2.html" in page.links
@@ -369,7 +369,7 @@ def test_a_retraction_is_an_entry_of_its_own_on_its_own_date(retracted):
 
 
 def test_an_undated_addition_is_listed_apart_and_says_so(derived):
-    page = changes_page(derived)
+    page = changes_page(change_entries(derived))
     assert [e.event_id for e in page.undated] == ["A-1"]
     assert all(e.dated for e in page.entries)
     (added,) = page.undated

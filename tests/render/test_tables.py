@@ -16,6 +16,7 @@ from helpers import CONTRACT_QUANTITIES
 from factsheet.derive import derive_event
 from factsheet.load import load_catalogue
 from factsheet.load.samples import HEADER_CELL
+from factsheet.render import tables
 from factsheet.render.tables import MAIN_QUANTITIES, catalogue_table, write_csv, write_ecsv
 from factsheet.resources import demo_dir
 
@@ -284,3 +285,18 @@ def test_licence_and_citation_go_into_the_ecsv_meta_and_the_csv_stays_plain(deri
     assert len(lines) == 1 + len(derived)  # a header, then one line per event (RFC 4180)
     bare = catalogue_table([replace(d, settings=replace(settings, licence="")) for d in derived])
     assert "licence" not in bare.meta
+
+
+@pytest.mark.parametrize("hostile", ["", 'a "quoted" title', "two\nlines", "#hash", " lead"])
+def test_tables_written_in_blocks_equal_the_tables_written_at_once(derived, monkeypatch, hostile):
+    # astropy's own ECSV writer on the whole table is the reference; csv's writer on every row
+    items = list(derived) * 3
+    items[1] = replace(items[1], event=replace(items[1].event, title=hostile))
+    table = catalogue_table(items)
+    whole = io.StringIO()
+    table.write(whole, format="ascii.ecsv")
+    at_once = write_csv(table)
+    monkeypatch.setattr(tables, "BLOCK_ROWS", 2)
+    assert write_ecsv(table).decode("utf-8") == whole.getvalue()
+    assert write_csv(table) == at_once
+    assert len(table) > 2 * tables.BLOCK_ROWS  # several blocks, the last one short
