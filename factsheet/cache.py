@@ -568,8 +568,20 @@ def _words(value: Any) -> str:
 
 def _summary(v: dict[str, Any]) -> Summary:
     shared = {k: sys.intern(x) if type(x) is str else x for k, x in v.items()}
-    methods = i18n.from_json(v["methods"])  # a tuple's JSON, when read without the words
-    return Summary(**{**shared, "methods": tuple(map(sys.intern, methods))})
+    methods = tuple(i18n.from_json(v["methods"]))  # a list's JSON, read without the words
+    return Summary(**{**shared, "level": _once(shared["level"]), "methods": _once(methods)})
+
+
+#: Values that recur across every entry (the credible level, the same few tuples of methods),
+#: held once however many entries are read.
+_ONCE: dict[Any, Any] = {}
+
+
+def _once(value: Any) -> Any:
+    """``value``, or the equal value already held (as ``sys.intern`` does for strings)."""
+    if type(value) is tuple:
+        value = tuple(map(sys.intern, value))
+    return _ONCE.setdefault((type(value), value), value)
 
 
 def _shared(probabilities: dict[str, float]) -> dict[str, float]:

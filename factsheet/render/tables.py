@@ -180,26 +180,35 @@ BLOCK_ROWS = 1000
 
 
 def write_ecsv(table: Table) -> bytes:
-    """The table in astropy's ECSV format (units, descriptions and meta in the YAML header),
-    written by astropy: the header from the table without rows, then each block of rows
-    without the header (the same bytes as the table written at once; a test checks it)."""
+    """The table in astropy's ECSV format (units, descriptions and meta in the YAML header):
+    the header as astropy writes it for the table without rows, then the rows as astropy
+    writes them (space-separated, text quoted where it must be, masked cells ``""``), a block
+    at a time, column by column (a test checks the bytes equal astropy's own writing)."""
     out = io.StringIO()
     table[:0].write(out, format="ascii.ecsv")
     for start in range(0, len(table), BLOCK_ROWS):
-        block = io.StringIO()
-        table[start : start + BLOCK_ROWS].write(block, format="ascii.ecsv")
-        text = block.getvalue()
-        out.write(text[_ecsv_body(text) :])
+        block = table[start : start + BLOCK_ROWS]
+        cells = [_ecsv_cells(block[name]) for name in block.colnames]
+        out.writelines(" ".join(row) + "\n" for row in zip(*cells, strict=True))
     return out.getvalue().encode("utf-8")
 
 
-def _ecsv_body(text: str) -> int:
-    """Where the rows of an ECSV text start: after the header's comment lines and the line of
-    column names."""
-    at = 0
-    while text.startswith("#", at):
-        at = text.index("\n", at) + 1
-    return text.index("\n", at) + 1
+def _ecsv_cells(column: Column) -> list[str]:
+    """Every cell of one column as ECSV text: numbers in their shortest round-trip form."""
+    mask = np.ma.getmaskarray(column).tolist()
+    values = np.asarray(column).tolist()
+    if column.dtype.kind == "f":
+        return ['""' if hidden else repr(v) for v, hidden in zip(values, mask, strict=True)]
+    return ['""' if hidden else _ecsv_text(str(v)) for v, hidden in zip(values, mask, strict=True)]
+
+
+def _ecsv_text(value: str) -> str:
+    """A text cell of the ECSV as astropy writes one: without surrounding white space, and
+    quoted when empty or holding a space, a quote or a line break (a quote doubled inside)."""
+    value = value.strip()
+    if value and not any(c in value for c in ' "\n\r'):
+        return value
+    return '"' + value.replace('"', '""') + '"'
 
 
 #: First characters that make a spreadsheet read a cell as a formula (OWASP, CSV injection);

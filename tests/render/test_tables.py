@@ -287,7 +287,10 @@ def test_licence_and_citation_go_into_the_ecsv_meta_and_the_csv_stays_plain(deri
     assert "licence" not in bare.meta
 
 
-@pytest.mark.parametrize("hostile", ["", 'a "quoted" title', "two\nlines", "#hash", " lead"])
+@pytest.mark.parametrize(
+    "hostile",
+    ["", 'a "quoted" title', "two\nlines", "cr\rx", "#hash", " lead", "trail\t", "tab\tx", "é ü"],
+)
 def test_tables_written_in_blocks_equal_the_tables_written_at_once(derived, monkeypatch, hostile):
     # astropy's own ECSV writer on the whole table is the reference; csv's writer on every row
     items = list(derived) * 3
