@@ -9,6 +9,7 @@
 
 from __future__ import annotations
 
+import functools
 import hashlib
 from collections.abc import Mapping
 from dataclasses import dataclass, field, fields
@@ -28,6 +29,12 @@ DETECTOR = "detector"
 
 
 # -- values given in the input -------------------------------------------------------------
+
+
+@functools.cache
+def _unit(text: str) -> u.UnitBase:
+    """The astropy unit ``text`` names, parsed once (every event then shares it)."""
+    return u.Unit(text)
 
 
 @dataclass(frozen=True, slots=True)
@@ -59,8 +66,9 @@ class Interval:
         return self.median + self.plus
 
     def to(self, unit: u.UnitBase | str) -> Interval:
+        unit = _unit(unit) if isinstance(unit, str) else unit
         factor = self.unit.to(unit)
-        return Interval(self.median * factor, self.plus * factor, self.minus * factor, u.Unit(unit))
+        return Interval(self.median * factor, self.plus * factor, self.minus * factor, unit)
 
     def canonical(self) -> str:
         """A stable text form, used to seed the random draws from the content."""

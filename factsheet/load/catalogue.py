@@ -9,6 +9,8 @@ from __future__ import annotations
 
 import hashlib
 import json
+import zlib
+from collections.abc import Iterator, MutableMapping
 from math import inf
 from pathlib import Path
 from typing import Any
@@ -76,13 +78,36 @@ class Memory:
     def __init__(self, records: dict[str, str], fingerprint: str):
         self.records = dict(records)  # as JSON text, read back when the file is met
         self.fingerprint = fingerprint  # the code's; the settings' is added by begin()
-        self.fresh: dict[str, str] = {}  # the records for next time, as JSON text
+        self.fresh: MutableMapping[str, str] = Packed()  # the records for next time
         self.recalled = 0
 
     def begin(self, settings: Settings, root: Path) -> None:
         """Make the records valid only for these settings, this catalogue and this folder."""
         where = f"{root.resolve()}|{Path.cwd()}"  # records name files as the build found them
         self.fingerprint = f"{self.fingerprint}|{settings.fingerprint()}|{settings.limits}|{where}"
+
+
+class Packed(MutableMapping[str, str]):
+    """Texts by name, each held compressed (a record of ``read.json`` is a few kB of JSON that
+    only the end of the build writes out: a quarter of that while the build runs)."""
+
+    def __init__(self) -> None:
+        self._packed: dict[str, bytes] = {}
+
+    def __getitem__(self, name: str) -> str:
+        return zlib.decompress(self._packed[name]).decode("utf-8")
+
+    def __setitem__(self, name: str, text: str) -> None:
+        self._packed[name] = zlib.compress(text.encode("utf-8"), 1)
+
+    def __delitem__(self, name: str) -> None:
+        del self._packed[name]
+
+    def __iter__(self) -> Iterator[str]:
+        return iter(self._packed)
+
+    def __len__(self) -> int:
+        return len(self._packed)
 
 
 def _event(path, root, settings, problems, warnings, memory: Memory | None) -> Event | None:

@@ -15,6 +15,7 @@ the loader adds the file, line and key.
 
 from __future__ import annotations
 
+import functools
 import math
 import re
 
@@ -52,8 +53,10 @@ class ValueParseError(ValueError):
     """A value that does not follow the input syntax; the message says what was expected."""
 
 
+@functools.cache
 def parse_unit(text: str) -> u.UnitBase:
-    """Parse a unit string with astropy, after applying the project's aliases."""
+    """Parse a unit string with astropy, after applying the project's aliases (once per text:
+    every event of a catalogue then shares its units)."""
     text = (text or "").strip()
     if not text:
         return u.dimensionless_unscaled
@@ -66,6 +69,12 @@ def parse_unit(text: str) -> u.UnitBase:
     if not isinstance(unit, u.UnitBase):
         raise ValueParseError(f"{text[:60]!r} is a logarithmic unit (expected a plain unit)")
     return unit
+
+
+@functools.cache
+def _per(text: str) -> u.UnitBase:
+    """The unit of a rate per ``text`` (``yr`` gives ``1 / yr``), once per text."""
+    return parse_unit(text) ** -1
 
 
 def _finite(x: float | str, what: str) -> float:
@@ -117,7 +126,7 @@ def _parse_text(text: str) -> Interval:
         per = _finite(m.group(2) or 1.0, "time")
         if per == 0:
             raise ValueParseError(f"division by zero in {text[:80]!r}")
-        return Interval(_finite(count / per, "rate"), 0.0, 0.0, parse_unit(m.group(3)) ** -1)
+        return Interval(_finite(count / per, "rate"), 0.0, 0.0, _per(m.group(3)))
     if m := _EXACT.match(text):
         return Interval(_finite(m.group(1), "value"), 0.0, 0.0, parse_unit(m.group(2)))
     raise ValueParseError(f"cannot read {text[:80]!r}: {FORMS}")

@@ -1,5 +1,6 @@
 """Events remembered between builds: the JSON round trip and when a record may be used."""
 
+import json
 import os
 import time
 
@@ -8,7 +9,7 @@ from helpers import VALID_EVENT, write_catalogue
 
 from factsheet.errors import Problem
 from factsheet.load import load_catalogue
-from factsheet.load.catalogue import Memory
+from factsheet.load.catalogue import Memory, Packed
 from factsheet.load.remembered import event_from_json, event_to_json, file_record, recall
 from factsheet.resources import demo_dir
 
@@ -78,3 +79,17 @@ def test_loading_with_a_memory_reads_only_changed_files(tmp_path):
     other_code = Memory(second.fresh, "other code")
     load_catalogue(cat, other_code)
     assert other_code.recalled == 0
+
+
+def test_fresh_records_are_held_packed_and_read_back_whole():
+    memory = Memory({}, "code")
+    loaded = load_catalogue(demo_dir(), memory)
+    texts = memory.fresh
+    assert isinstance(texts, Packed) and len(texts) == len(loaded.events)
+    plain = {name: texts[name] for name in texts}
+    assert all(json.loads(text)["fingerprint"] == memory.fingerprint for text in plain.values())
+    packed = sum(map(len, texts._packed.values()))
+    assert packed < sum(len(t.encode()) for t in plain.values()) / 2  # held at under half
+    again = Memory(dict(texts), "code")
+    assert len(load_catalogue(demo_dir(), again).events) == len(loaded.events)
+    assert again.recalled == len(plain)
