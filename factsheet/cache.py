@@ -20,16 +20,18 @@ to delete.
 
 from __future__ import annotations
 
+import array
 import contextlib
 import hashlib
+import itertools
 import json
 import os
 import shutil
 import stat
 import sys
 import tempfile
-from collections.abc import Callable, Iterable, Iterator
-from dataclasses import asdict, replace
+from collections.abc import Callable, Iterable, Iterator, Mapping
+from dataclasses import asdict, dataclass, field, replace
 from functools import cache
 from pathlib import Path
 from typing import Any
@@ -221,15 +223,24 @@ class Cache:
 
     def stamp_site(self, placed: dict[str, str]) -> None:
         """After the swap: stamp each file of the new site (site path to SHA-256) with its
-        size and modification time, so the next build knows it unchanged from its metadata."""
-        stamps = {}
-        for name, sha in placed.items():
-            try:
-                st = os.lstat(self.site / name)
-            except OSError:
-                continue
-            stamps[name] = [st.st_size, st.st_mtime_ns, sha]
-        self._replace(STAMPS, {"format": FORMAT, "files": stamps})
+        size and modification time, so the next build knows it unchanged from its metadata.
+
+        The JSON (``{"format": ..., "files": {path: [size, mtime, sha256]}}``) is written a
+        file at a time, never held whole."""
+
+        def parts() -> Iterator[str]:
+            yield '{"format":' + json.dumps(FORMAT) + ',"files":{'
+            comma = ""
+            for name, sha in placed.items():
+                try:
+                    st = os.lstat(self.site / name)
+                except OSError:
+                    continue
+                yield f"{comma}{json.dumps(name)}:[{st.st_size},{st.st_mtime_ns},{json.dumps(sha)}]"
+                comma = ","
+            yield "}}"
+
+        self._replace_parts(STAMPS, parts())
 
     def read_records(self) -> dict[str, str]:
         """The records of the events the last build read, by file, each as its line of JSON
@@ -250,24 +261,29 @@ class Cache:
         return records
 
     def write_records(self, records: dict[str, str]) -> None:
-        """Write the records (one line each: the file's name as JSON, a tab, the record)."""
-        lines = [_records_header()]
-        lines += (f"{json.dumps(name)}\t{record}" for name, record in records.items())
-        self._replace_bytes(RECORDS, "\n".join(lines).encode("utf-8"))
+        """Write the records (one line each: the file's name as JSON, a tab, the record), a
+        line at a time."""
+        lines = (f"\n{json.dumps(name)}\t{record}" for name, record in records.items())
+        self._replace_parts(RECORDS, itertools.chain([_records_header()], lines))
 
     def _replace(self, name: str, data: Any) -> None:
         """Write one JSON file of the cache's root atomically."""
         # dumps: the C encoder (dump is Python's)
-        self._replace_bytes(name, json.dumps(data, separators=(",", ":")).encode("utf-8"))
+        self._replace_parts(name, [json.dumps(data, separators=(",", ":"))])
 
-    def _replace_bytes(self, name: str, data: bytes) -> None:
-        """Write one file of the cache's root atomically."""
+    def _replace_parts(self, name: str, parts: Iterable[str]) -> None:
+        """Write one file of the cache's root atomically, from its text's parts as they come."""
         try:
             self.root.mkdir(parents=True, exist_ok=True)
             fd, temporary = tempfile.mkstemp(prefix=".new-", dir=self.root)
-            with os.fdopen(fd, "wb") as handle:
-                handle.write(data)
-            os.replace(temporary, self.root / name)
+            try:
+                with os.fdopen(fd, "w", encoding="utf-8", newline="") as handle:
+                    handle.writelines(parts)
+                os.replace(temporary, self.root / name)
+            except BaseException:
+                with contextlib.suppress(OSError):
+                    os.unlink(temporary)
+                raise
         except OSError as exc:
             raise BuildError(f"{self.root}: cannot write the build cache ({exc.strerror})") from exc
 
@@ -502,14 +518,13 @@ def bundle_from_json(
     ``lean`` one has only the numbers, class, bands, methods and sky-map summary (its JSON was
     read without its kept words)."""
     # kept words (caveats, the sound's description) were read back with the entry's JSON
-    quantities = {sys.intern(k): _summary(v) for k, v in data["quantities"].items()}
     if lean:
         return EventBundle(
             Derived(
                 event=event,
                 settings=settings,
                 reference=reference,
-                quantities=quantities,
+                quantities=packed_summaries(data["quantities"]),
                 caveats=(),
                 source_class=sys.intern(str(data["source_class"])),
                 class_probabilities=_shared(data["class_probabilities"]),
@@ -524,6 +539,7 @@ def bundle_from_json(
             {},
             data["figure_seconds"],
         )
+    quantities = {sys.intern(k): _summary(v) for k, v in data["quantities"].items()}
     sun_years = data["sun_years"]
     derived = Derived(
         event=event,
@@ -570,6 +586,68 @@ def _summary(v: dict[str, Any]) -> Summary:
     shared = {k: sys.intern(x) if type(x) is str else x for k, x in v.items()}
     methods = tuple(i18n.from_json(v["methods"]))  # a list's JSON, read without the words
     return Summary(**{**shared, "level": _once(shared["level"]), "methods": _once(methods)})
+
+
+class PackedSummaries(Mapping[str, Summary]):
+    """The summaries of a lean bundle, by quantity: the numbers of each (median, bounds and fit
+    spread) in one array, and what every event of a catalogue shares (the names, units, levels,
+    frames and methods: :class:`_Shape`, held once). A :class:`~factsheet.model.Summary` is made
+    on each access; held, it costs about a tenth of the Summary objects it stands for (the
+    build holds one for every event at once)."""
+
+    __slots__ = ("_numbers", "_shape")
+
+    def __init__(self, shape: _Shape, numbers: array.array):
+        self._shape, self._numbers = shape, numbers
+
+    def __getitem__(self, name: str) -> Summary:
+        i = self._shape.index[name]
+        unit, level, frame, methods, spread = self._shape.words[i]
+        median, low, high, fit = self._numbers[4 * i : 4 * i + 4]
+        return Summary(median, low, high, unit, level, frame, fit if spread else None, methods)
+
+    def __iter__(self) -> Iterator[str]:
+        return iter(self._shape.names)
+
+    def __len__(self) -> int:
+        return len(self._shape.names)
+
+
+@dataclass(frozen=True)
+class _Shape:
+    """The quantity names of a lean bundle, in order, and each one's unit, level, frame,
+    methods and whether it has a fit spread."""
+
+    names: tuple[str, ...]
+    words: tuple[tuple[str, float, str | None, tuple[str, ...], bool], ...]
+    index: dict[str, int] = field(compare=False, hash=False)
+
+
+def packed_summaries(found: dict[str, dict[str, Any]]) -> Mapping[str, Summary]:
+    """The summaries of an entry's JSON as a lean bundle holds them (:class:`PackedSummaries`);
+    a plain dict of summaries when a number is not a float (it then keeps its exact type)."""
+    summaries = {sys.intern(k): _summary(v) for k, v in found.items()}
+    numbers = [
+        (s.median, s.low, s.high, 0.0 if s.fit_spread is None else s.fit_spread)
+        for s in summaries.values()
+    ]
+    if not all(type(x) is float for row in numbers for x in row[:3]) or not all(
+        type(s.fit_spread) in (float, type(None)) for s in summaries.values()
+    ):
+        return summaries
+    words = tuple(
+        (s.unit, s.level, s.frame, s.methods, s.fit_spread is not None) for s in summaries.values()
+    )
+    shape = _SHAPES.get((tuple(summaries), words))
+    if shape is None:
+        names = tuple(summaries)
+        shape = _Shape(names, words, {name: i for i, name in enumerate(names)})
+        _SHAPES[(names, words)] = shape
+    return PackedSummaries(shape, array.array("d", [x for row in numbers for x in row]))
+
+
+#: The shapes of the lean bundles read, each held once.
+_SHAPES: dict[tuple, _Shape] = {}
 
 
 #: Values that recur across every entry (the credible level, the same few tuples of methods),

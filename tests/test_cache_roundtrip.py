@@ -68,3 +68,58 @@ def test_files_handed_on_one_at_a_time_are_recorded_once_all_passed(tmp_path):
     next(stopped)
     stopped.close()  # the files stopped short: no entry
     assert cache._entry("k3") is None
+
+
+def test_stamps_and_records_written_a_part_at_a_time_are_plain_json(tmp_path):
+    from factsheet.cache import FORMAT, RECORDS, STAMPS
+
+    cache = Cache(tmp_path / "site")
+    names = ["events/a.html", 'odd "é" name.svg', "data/b.json"]
+    for name in names:
+        (tmp_path / "site" / name).parent.mkdir(parents=True, exist_ok=True)
+        (tmp_path / "site" / name).write_bytes(name.encode())
+    cache.stamp_site({name: "0" * 64 for name in [*names, "gone.svg"]})  # one file is gone
+    text = (cache.root / STAMPS).read_text(encoding="utf-8")
+    data = json.loads(text)
+    assert data["format"] == FORMAT and list(data["files"]) == names
+    assert text == json.dumps(data, separators=(",", ":"))  # as one json.dumps writes it
+    records = {"a.yaml": '{"n":1}', "tab\there.yaml": '{"n":2}'}
+    cache.write_records(records)
+    assert cache.read_records() == records
+    assert (cache.root / RECORDS).read_text(encoding="utf-8").count("\n") == len(records)
+
+
+def test_a_lean_bundle_packs_its_summaries_and_gives_them_back_equal(catalogue, tmp_path):
+    from factsheet.cache import PackedSummaries, packed_summaries
+
+    cat = load_catalogue(catalogue({"a.yaml": VALID_EVENT}))
+    (event,) = cat.events
+    reference = reference_for(cat.settings)
+    cache = Cache(tmp_path / "site")
+    key = event_key(event, cat.settings)
+    cache.store(key, event_bundle(event, cat.settings, reference), event, cat.settings, reference)
+    whole = cache.load(key, event, cat.settings, reference)
+    lean = Cache(tmp_path / "site").load(key, event, cat.settings, reference, lean=True)
+    assert whole is not None and lean is not None
+    packed = lean.derived.quantities
+    assert isinstance(packed, PackedSummaries)
+    assert dict(packed) == dict(whole.derived.quantities) and list(packed) == list(
+        whole.derived.quantities
+    )
+    spreads = [k for k, s in whole.derived.quantities.items() if s.fit_spread is not None]
+    assert spreads and all(
+        packed[k].fit_spread == whole.derived.quantities[k].fit_spread for k in spreads
+    )
+    assert "no_such_quantity" not in packed and packed.get("no_such_quantity") is None
+    # numbers that are not floats keep their exact type: a plain dict of summaries
+    odd = {
+        "distance": {
+            "median": 400,
+            "low": 300.0,
+            "high": 500.0,
+            "unit": "Mpc",
+            "level": 0.9,
+            "methods": [],
+        }
+    }
+    assert type(packed_summaries(odd)) is dict and packed_summaries(odd)["distance"].median == 400
