@@ -1,7 +1,8 @@
 """Every target of a large catalogue, measured from one run on synthetic catalogues.
 
 Usage: python bench/bench_scale.py [--sizes 200 1600] [--speedup-events 200]
-                                   [--skip-index] [--skip-figures] [--workdir DIR]
+                                   [--memory-events 10000] [--skip-index]
+                                   [--skip-figures] [--workdir DIR]
 
 For each size N (synthetic events of every class, bench/synthetic.py; files dated an hour back,
 as a catalogue edited earlier is), each build in a fresh process with the default number of
@@ -18,10 +19,12 @@ workers (the cores the process may run on), imports included, as a user runs it:
 
 Then: the speed-up of a full build of ``--speedup-events`` events with 2 workers and with all
 cores over 1 (target: at least 1.7 with 2), the main process's memory per event between the two
-sizes and what that extrapolates to at 10 000 events (target: under 400 MB; a measured 10 000-
-event build takes over an hour here, so this is a straight-line extrapolation and is printed as
-one), and the figure cost against its floor (``bench/bench_figures.py``) and the 10 000-row
-index (``bench/bench_index.py``), each run as its own script and its summary lines repeated.
+sizes and what that extrapolates to at 10 000 events, and the main process's peak measured in a
+full build of ``--memory-events`` events whose workers draw no figure and make no sound (target:
+under 400 MB at 10 000; a full 10 000-event build with figures takes over half an hour here, and
+what the main process holds does not depend on them), and the figure cost against its floor
+(``bench/bench_figures.py``) and the 10 000-row index (``bench/bench_index.py``), each run as
+its own script and its summary lines repeated.
 """
 
 from __future__ import annotations
@@ -57,10 +60,22 @@ print(json.dumps({"seconds": time.perf_counter() - start, "built": r.built, "reu
 """
 
 
-def run(catalogue: Path, out: Path, jobs: int = 0) -> dict:
+#: A build whose workers derive and render but draw no figure and make no sound: what the main
+#: process holds does not depend on them (they pass through it to disk one event at a time),
+#: so this measures its memory at a size whose full build would take hours here.
+UNDRAWN = """
+import factsheet.build
+from factsheet.model import Audio
+factsheet.build.event_files = lambda item, languages: (
+    {language: () for language in languages}, Audio("", "", 0.0), {}, 0.0)
+"""
+
+
+def run(catalogue: Path, out: Path, jobs: int = 0, drawn: bool = True) -> dict:
     """One build in a fresh process (0 jobs: the default)."""
+    code = RUNNER if drawn else UNDRAWN + RUNNER
     done = subprocess.run(
-        [sys.executable, "-c", RUNNER, str(catalogue), str(out), str(jobs)],
+        [sys.executable, "-c", code, str(catalogue), str(out), str(jobs)],
         capture_output=True,
         text=True,
         check=False,
@@ -192,6 +207,22 @@ def memory(results: list[dict]) -> None:
     )
 
 
+def measured_memory(work: Path, n: int) -> None:
+    """The main process's peak in a full build of ``n`` events whose workers draw nothing."""
+    cat = write_catalogue(work / f"catalogue-{n}", n)
+    age(cat)
+    out = work / f"site-{n}-undrawn"
+    clean(out)
+    found = run(cat, out, drawn=False)
+    print(
+        f"\n== memory, measured == a full build of {n} events whose workers draw no figure and "
+        f"no sound ({found['seconds']:.0f} s): main process peak {found['rss_main_mb']:.0f} MB "
+        f"(target < 400 MB at 10 000: {verdict(n < 10_000 or found['rss_main_mb'] < 400)}), "
+        f"largest worker {found['rss_worker_mb']:.0f} MB"
+    )
+    clean(out)
+
+
 def script(name: str, args: list[str]) -> None:
     path = HERE / name
     if not path.exists():
@@ -207,6 +238,12 @@ def main() -> None:
     parser.add_argument("--speedup-events", type=int, default=200)
     parser.add_argument("--skip-index", action="store_true")
     parser.add_argument("--skip-figures", action="store_true")
+    parser.add_argument(
+        "--memory-events",
+        type=int,
+        default=10_000,
+        help="events of the build whose main-process memory is measured (0: none)",
+    )
     parser.add_argument("--workdir", type=Path, default=None)
     args = parser.parse_args()
     work = args.workdir or Path(tempfile.mkdtemp(prefix="factsheet-scale-"))
@@ -214,6 +251,8 @@ def main() -> None:
     print(f"load average at start: {os.getloadavg()[0]:.1f}", flush=True)
     results = [one_size(work, n) for n in args.sizes]
     memory(results)
+    if args.memory_events:
+        measured_memory(work, args.memory_events)
     if args.speedup_events:
         speedup(work, args.speedup_events)
     if not args.skip_figures:
