@@ -17,6 +17,8 @@ import math
 from decimal import ROUND_HALF_UP, Decimal
 
 import astropy.units as u
+import erfa
+from astropy.time import Time
 
 from factsheet.i18n import N_, _, decimal_text, ngettext
 
@@ -258,3 +260,16 @@ def _plain(x: float) -> str:
     text = format_value(x)
     zero = decimal_text(0.0, 1)[1:]  # ".0" in the language's digits
     return text.removesuffix(zero)
+
+
+def utc_iso(time: Time) -> str:
+    """``time.utc.isot`` (``2034-05-11T09:14:36.520``, leap seconds included), without the
+    conversions astropy keeps on ``time`` once asked for them: a build formats the times of
+    every event of the catalogue, and those kept conversions (about a kilobyte a time) would
+    outlive the page that asked."""
+    if time.scale != "utc" or not time.isscalar:
+        return time.utc.isot
+    year, month, day, hmsf = erfa.d2dtf("UTC", time.precision, time.jd1, time.jd2)
+    h, m, s, f = (int(hmsf[k]) for k in ("h", "m", "s", "f"))
+    fraction = f".{f:0{time.precision}d}" if time.precision else ""
+    return f"{int(year):04d}-{int(month):02d}-{int(day):02d}T{h:02d}:{m:02d}:{s:02d}{fraction}"

@@ -76,3 +76,31 @@ def test_prose_rounds_to_the_digit_the_interval_supports():
     assert format_about(6.1, 4.4, 7.4) == "6"
     assert format_about(780, 480, 1040, "Mpc") == "800 Mpc"
     assert format_about(2.43, 1.9, 3.0) == "2.4"
+
+
+def test_utc_iso_is_astropys_isot_and_leaves_no_conversion_kept():
+    # astropy's Time.utc.isot is the reference: leap second, precisions, another scale
+    import warnings
+
+    import numpy as np
+    from astropy.time import Time
+
+    from factsheet.notation import utc_iso
+
+    rng = np.random.default_rng(5)
+    times = [
+        Time("2016-12-31T23:59:60.5", scale="utc"),
+        Time("2034-05-11T09:14:36.520", scale="utc"),
+        Time("2035-01-01", scale="utc"),
+        Time("2034-05-11T09:14:36.123456", scale="utc", precision=6),
+        Time("2034-05-11T09:14:36.7", scale="utc", precision=0),
+        Time("2034-05-11T09:14:36", scale="tt"),
+    ]
+    with warnings.catch_warnings():
+        warnings.simplefilter("ignore")  # dates beyond the leap-second table are "dubious"
+        times += [Time(jd, format="jd", scale="utc") for jd in rng.uniform(2.44e6, 2.48e6, 500)]
+        for time in times:
+            fresh = Time(time)  # a copy with nothing kept yet
+            assert utc_iso(fresh) == time.utc.isot
+            if fresh.scale == "utc":
+                assert "cache" not in fresh.__dict__

@@ -41,6 +41,7 @@ from factsheet.model import (
     Limits,
     SkyMapFile,
 )
+from factsheet.notation import utc_iso
 
 
 class Checker:
@@ -437,7 +438,7 @@ _VERSIONS = "e.g. {en: ..., es: ...}"
 
 def _day(time) -> str:
     """A date as given to the day or to the second (UTC)."""
-    text = time.utc.isot
+    text = utc_iso(time)
     return text[:10] if text.endswith("T00:00:00.000") else text[:19].replace("T", " ") + " UTC"
 
 

@@ -11,6 +11,7 @@ import numpy as np
 
 from factsheet.errors import Problem
 from factsheet.model import Estimate, Event
+from factsheet.notation import utc_iso
 from factsheet.physics import inspiral
 
 COMPARED = ("heavier.mass", "lighter.mass", "distance")
@@ -34,16 +35,16 @@ def _warn(event: Event, key: str, message: str) -> Problem:
 
 
 def _history_dates(event: Event) -> list[Problem]:
-    merger_day = event.time.utc.isot[:10]
+    merger_day = utc_iso(event.time)[:10]
     return [
         _warn(
             event,
             f"history[{i}].date",
             f"history entry '{h.label}' is dated "
-            f"{h.date.utc.isot[:10]}, before the merger ({merger_day})",
+            f"{utc_iso(h.date)[:10]}, before the merger ({merger_day})",
         )
         for i, h in enumerate(event.history)
-        if h.date.utc.isot[:10] < merger_day
+        if utc_iso(h.date)[:10] < merger_day
     ]
 
 

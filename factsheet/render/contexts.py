@@ -16,6 +16,7 @@ from factsheet.model import (
     Settings,
     Summary,
 )
+from factsheet.notation import utc_iso
 from factsheet.physics.comparisons import ENERGY_UNITS
 
 
@@ -56,7 +57,7 @@ class Link:
 
 
 def time_utc(event: Event) -> str:
-    return event.time.utc.isot
+    return utc_iso(event.time)
 
 
 def page_of(event_id: str) -> str:

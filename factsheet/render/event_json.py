@@ -14,6 +14,7 @@ import astropy.units as u
 
 from factsheet.labels import WINDOWS
 from factsheet.model import Derived, Detection, LensedCase
+from factsheet.notation import utc_iso
 from factsheet.physics.counterparts import Window
 
 #: The version of this contract (docs/json-export.md); it changes when a key is renamed or removed.
@@ -43,7 +44,7 @@ def event_json(item: Derived) -> dict[str, Any]:
         "id": event.id,
         "title": event.title,
         "status": event.status,
-        "time_utc": event.time.utc.isot,
+        "time_utc": utc_iso(event.time),
         "source_class": item.source_class,
         "source_class_probabilities": dict(item.class_probabilities),
         "disruption_probability": item.disruption_probability,
@@ -133,7 +134,7 @@ def sky_json(item: Derived) -> dict[str, Any]:
                 "name": r.candidate.name,
                 "ra": _degrees(r.candidate.ra),
                 "dec": _degrees(r.candidate.dec),
-                "time_utc": r.candidate.time.utc.isot,
+                "time_utc": utc_iso(r.candidate.time),
                 "note": r.candidate.note,
                 "credible_level": r.credible_level,
                 "delay": {"value": float(r.delay.to_value(u.d)), "unit": "d"},
@@ -152,8 +153,8 @@ def window_json(window: Window) -> dict[str, str]:
     return {
         "key": window.key,
         "name": WINDOWS[window.key].name,
-        "start_utc": window.start.utc.isot,
-        "end_utc": window.end.utc.isot,
+        "start_utc": utc_iso(window.start),
+        "end_utc": utc_iso(window.end),
         "band": window.band,
         "scenario": window.scenario,
         "basis": window.basis,

@@ -42,7 +42,7 @@ from factsheet import labels
 from factsheet.i18n import Text, _, pgettext
 from factsheet.load.schema import value_key
 from factsheet.model import Derived, Estimate, Event, Interval
-from factsheet.notation import format_given
+from factsheet.notation import format_given, utc_iso
 from factsheet.render.numbers import estimate_texts
 
 ADDED, REVISED = "added", "revised"
@@ -214,7 +214,7 @@ def history_steps(event: Event, shown: Mapping[str, str] | None = None) -> list[
         steps.append(Step(None, CURRENT_LABEL, "", "current", event.estimate))
     out, before = [], None
     for step in steps:
-        date = "" if step.date is None or step.origin == "current" else step.date.utc.isot[:10]
+        date = "" if step.date is None or step.origin == "current" else utc_iso(step.date)[:10]
         note = "" if step.origin == "current" else step.note
         if step.is_status_change:
             status = status_text(step.status)
@@ -262,11 +262,11 @@ class ChangeEntry:
     @property
     def timestamp(self) -> str:
         """The date as RFC 3339 text in UTC (``2034-05-11T09:14:36.520Z``)."""
-        return self.date.utc.isot + "Z"
+        return utc_iso(self.date) + "Z"
 
     @property
     def day(self) -> str:
-        return self.date.utc.isot[:10]
+        return utc_iso(self.date)[:10]
 
     @property
     def what(self) -> str:

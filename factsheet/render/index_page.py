@@ -22,7 +22,7 @@ import astropy.units as u
 from factsheet import labels
 from factsheet.i18n import _, decimal_text, grouping, localized, ngettext, pgettext
 from factsheet.model import Derived, SiteFigure
-from factsheet.notation import format_value
+from factsheet.notation import format_value, utc_iso
 from factsheet.render.contexts import page_of
 from factsheet.render.numbers import quantity_text, shown
 
@@ -203,12 +203,12 @@ def index_row(item: Derived, audience: str = "public") -> IndexRow:
     only in an internal build (a public build's page carries no trace of them)."""
     event = item.event
     internal = audience == "internal"
-    embargo = event.embargo_until.utc.isot[:16].replace("T", " ") if event.embargo_until else ""
+    embargo = utc_iso(event.embargo_until)[:16].replace("T", " ") if event.embargo_until else ""
     return IndexRow(
         id=event.id,
         title=event.title,
         page=page_of(event.id),
-        date=event.time.utc.isot[:10],
+        date=utc_iso(event.time)[:10],
         status=event.status,
         source_class=item.source_class,
         visibility=event.visibility if internal else "public",

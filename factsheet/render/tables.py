@@ -37,6 +37,7 @@ from astropy.table import Column, MaskedColumn, Table
 
 from factsheet.labels import QUANTITIES
 from factsheet.model import Derived, Settings
+from factsheet.notation import utc_iso
 from factsheet.render.event_json import CONTRACT_QUANTITIES
 
 MAIN_QUANTITIES = CONTRACT_QUANTITIES  # every quantity of the JSON contract
@@ -81,9 +82,9 @@ def catalogue_table(derived: list[Derived], audience: str = "public") -> Table:
 
 def _text(item: Derived, name: str) -> str:
     event = item.event
-    embargo = event.embargo_until.utc.isot if event.embargo_until is not None else ""
+    embargo = utc_iso(event.embargo_until) if event.embargo_until is not None else ""
     values = {
-        "time_utc": event.time.utc.isot,
+        "time_utc": utc_iso(event.time),
         "source_class": item.source_class,
         "embargo_until": embargo,
     }
