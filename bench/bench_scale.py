@@ -66,8 +66,12 @@ print(json.dumps({"seconds": time.perf_counter() - start, "built": r.built, "reu
 UNDRAWN = """
 import factsheet.build
 from factsheet.model import Audio
-factsheet.build.event_files = lambda item, languages: (
-    {language: () for language in languages}, Audio("", "", 0.0), {}, 0.0)
+
+def undrawn(item, languages):
+    sound = f"events/{item.event.id}.wav"  # an empty file where the sound would be
+    return {language: () for language in languages}, Audio(sound, "", 0.0), {sound: b""}, 0.0
+
+factsheet.build.event_files = undrawn
 """
 
 
