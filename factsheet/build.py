@@ -12,12 +12,14 @@ from __future__ import annotations
 import contextlib
 import ctypes
 import functools
+import gc
 import multiprocessing
 import os
 import signal
 import sys
 import threading
 import time as clock
+from collections.abc import Iterator
 from concurrent.futures import ProcessPoolExecutor
 from dataclasses import dataclass, replace
 from pathlib import Path
@@ -382,15 +384,28 @@ def _run(todo: list[int], tasks: list[tuple], jobs: int):
         yield from zip(todo, pool.map(_work, tasks, chunksize=1), strict=True)
 
 
-def _pool(workers: int) -> ProcessPoolExecutor:
-    """Worker processes, which end when the build does (:func:`_worker_started`)."""
+@contextlib.contextmanager
+def _pool(workers: int) -> Iterator[ProcessPoolExecutor]:
+    """Worker processes, which end when the build does (:func:`_worker_started`).
+
+    Forked workers share the build's memory until they write to it, and a garbage collection
+    in a worker writes to every object it walks: each worker would soon hold its own copy of
+    everything the build holds for every event. The build's objects are therefore frozen out of
+    the collector's reach (``gc.freeze``) while the workers are forked and run, so that a
+    worker's own memory does not grow with the catalogue (measured: 77 MB at 800 and 78 MB at
+    1600 events, against 90 and 97 MB unfrozen)."""
     context = multiprocessing.get_context("fork" if sys.platform == "linux" else "spawn")
-    return ProcessPoolExecutor(
-        max_workers=workers,
-        mp_context=context,
-        initializer=_worker_started,
-        initargs=(os.getpid(),),
-    )
+    gc.freeze()
+    try:
+        with ProcessPoolExecutor(
+            max_workers=workers,
+            mp_context=context,
+            initializer=_worker_started,
+            initargs=(os.getpid(),),
+        ) as pool:
+            yield pool
+    finally:
+        gc.unfreeze()
 
 
 _PR_SET_PDEATHSIG = 1

@@ -108,3 +108,20 @@ def test_the_builds_own_process_loads_neither_matplotlib_nor_scipy(catalogue, tm
     done = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True, check=True)
     assert done.stdout.split() == ["False", "False", "False"]
     assert (tmp_path / "site" / "figures" / "mass-plane.svg").is_file()
+
+
+def _frozen_objects() -> int:
+    import gc
+
+    return gc.get_freeze_count()
+
+
+def test_workers_run_with_the_builds_objects_out_of_the_collectors_reach():
+    # a collection in a forked worker would copy every page it shares with the build
+    import gc
+
+    with build_module._pool(1) as pool:
+        in_worker = pool.submit(_frozen_objects).result()
+    assert gc.get_freeze_count() == 0  # the build's own collector is itself again
+    if sys.platform == "linux":  # forked: the worker inherits the frozen objects
+        assert in_worker > 1000
