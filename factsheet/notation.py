@@ -266,10 +266,11 @@ def utc_iso(time: Time) -> str:
     """``time.utc.isot`` (``2034-05-11T09:14:36.520``, leap seconds included), without the
     conversions astropy keeps on ``time`` once asked for them: a build formats the times of
     every event of the catalogue, and those kept conversions (about a kilobyte a time) would
-    outlive the page that asked."""
+    outlive the page that asked. erfa's ``d2dtf``, which astropy itself calls, does the work."""
     if time.scale != "utc" or not time.isscalar:
         return time.utc.isot
-    year, month, day, hmsf = erfa.d2dtf("UTC", time.precision, time.jd1, time.jd2)
-    h, m, s, f = (int(hmsf[k]) for k in ("h", "m", "s", "f"))
-    fraction = f".{f:0{time.precision}d}" if time.precision else ""
+    places = time.precision
+    year, month, day, hmsf, _ = erfa.ufunc.d2dtf(b"UTC", places, time.jd1, time.jd2)
+    h, m, s, f = hmsf.item()
+    fraction = f".{f:0{places}d}" if places else ""
     return f"{int(year):04d}-{int(month):02d}-{int(day):02d}T{h:02d}:{m:02d}:{s:02d}{fraction}"

@@ -34,7 +34,7 @@ The words are in the language in use when the sheet, the changes page or the fee
 from __future__ import annotations
 
 from collections.abc import Mapping
-from dataclasses import dataclass
+from dataclasses import dataclass, field
 
 from astropy.time import Time
 
@@ -254,19 +254,20 @@ class ChangeEntry:
     origin: str  # "history" or "current": which input the step comes from
     sequence: int  # position of the step in the event's story, oldest first
     dated: bool = True  # False: the inputs give no date; ``date`` is the merger time
+    # the date as RFC 3339 text in UTC (``2034-05-11T09:14:36.520Z``), made once: the changes
+    # are sorted by it and the feed writes it
+    timestamp: str = field(init=False, repr=False)
+
+    def __post_init__(self) -> None:
+        object.__setattr__(self, "timestamp", utc_iso(self.date) + "Z")
 
     @property
     def page(self) -> str:
         return f"events/{self.event_id}.html"
 
     @property
-    def timestamp(self) -> str:
-        """The date as RFC 3339 text in UTC (``2034-05-11T09:14:36.520Z``)."""
-        return utc_iso(self.date) + "Z"
-
-    @property
     def day(self) -> str:
-        return utc_iso(self.date)[:10]
+        return self.timestamp[:10]
 
     @property
     def what(self) -> str:
