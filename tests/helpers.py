@@ -179,3 +179,14 @@ def check_compact(make_figure, monkeypatch) -> None:
             assert kept[key] == pytest.approx(numbers, abs=0.0051), key
     text = small.decode()
     assert set(REFERENCE.findall(text)) <= set(re.findall(r' id="([^"]+)"', text))
+
+
+def loaded_after(code: str, modules: tuple[str, ...]) -> list[str]:
+    """Run ``code`` in a fresh interpreter and say, for each of ``modules``, whether it was
+    imported by then ("True" or "False")."""
+    import subprocess
+    import sys
+
+    probe = f"{code}\nimport sys\nprint(*(m in sys.modules for m in {modules!r}))\n"
+    done = subprocess.run([sys.executable, "-c", probe], capture_output=True, text=True, check=True)
+    return done.stdout.split()

@@ -36,7 +36,8 @@ def test_a_cached_bundle_gives_the_same_json_bytes(catalogue, tmp_path):
     assert kept.files == {} and kept.key == key
 
 
-def test_a_lean_bundle_is_the_part_the_catalogue_keeps(catalogue, tmp_path):
+def _stored(catalogue, tmp_path):
+    """One event made and stored, then read back whole and lean by later builds."""
     cat = load_catalogue(catalogue({"a.yaml": VALID_EVENT}))
     (event,) = cat.events
     reference = reference_for(cat.settings)
@@ -45,6 +46,11 @@ def test_a_lean_bundle_is_the_part_the_catalogue_keeps(catalogue, tmp_path):
     cache.store(key, event_bundle(event, cat.settings, reference), event, cat.settings, reference)
     whole = Cache(tmp_path / "site").load(key, event, cat.settings, reference)
     lean = Cache(tmp_path / "site").load(key, event, cat.settings, reference, lean=True)
+    return cat, event, reference, cache, key, whole, lean
+
+
+def test_a_lean_bundle_is_the_part_the_catalogue_keeps(catalogue, tmp_path):
+    cat, event, reference, cache, key, whole, lean = _stored(catalogue, tmp_path)
     assert whole is not None and lean is not None and whole.derived.caveats
     assert lean == for_catalogue(whole)
     made = event_bundle(event, cat.settings, reference)
@@ -92,14 +98,7 @@ def test_stamps_and_records_written_a_part_at_a_time_are_plain_json(tmp_path):
 def test_a_lean_bundle_packs_its_summaries_and_gives_them_back_equal(catalogue, tmp_path):
     from factsheet.cache import PackedSummaries, packed_summaries
 
-    cat = load_catalogue(catalogue({"a.yaml": VALID_EVENT}))
-    (event,) = cat.events
-    reference = reference_for(cat.settings)
-    cache = Cache(tmp_path / "site")
-    key = event_key(event, cat.settings)
-    cache.store(key, event_bundle(event, cat.settings, reference), event, cat.settings, reference)
-    whole = cache.load(key, event, cat.settings, reference)
-    lean = Cache(tmp_path / "site").load(key, event, cat.settings, reference, lean=True)
+    *_, whole, lean = _stored(catalogue, tmp_path)
     assert whole is not None and lean is not None
     packed = lean.derived.quantities
     assert isinstance(packed, PackedSummaries)

@@ -30,6 +30,7 @@ import csv
 import functools
 import io
 import math
+from collections.abc import Callable, Iterator
 
 import astropy.units as u
 import numpy as np
@@ -187,11 +188,17 @@ def write_ecsv(table: Table) -> bytes:
     at a time, column by column (a test checks the bytes equal astropy's own writing)."""
     out = io.StringIO()
     table[:0].write(out, format="ascii.ecsv")
+    out.writelines(" ".join(row) + "\n" for row in _rows(table, _ecsv_cells))
+    return out.getvalue().encode("utf-8")
+
+
+def _rows(table: Table, cells: Callable[[Column], list[str]]) -> Iterator[tuple[str, ...]]:
+    """Every row of the table as its cells' texts: column by column (the cells of one column
+    made in one pass; walking the table row by row cost ~1.7 ms a row), a block of
+    :data:`BLOCK_ROWS` rows at a time."""
     for start in range(0, len(table), BLOCK_ROWS):
         block = table[start : start + BLOCK_ROWS]
-        cells = [_ecsv_cells(block[name]) for name in block.colnames]
-        out.writelines(" ".join(row) + "\n" for row in zip(*cells, strict=True))
-    return out.getvalue().encode("utf-8")
+        yield from zip(*(cells(block[name]) for name in block.colnames), strict=True)
 
 
 def _ecsv_cells(column: Column) -> list[str]:
@@ -223,11 +230,7 @@ def write_csv(table: Table) -> bytes:
     out = io.StringIO()
     writer = csv.writer(out, lineterminator="\n")
     writer.writerow([_header(table[name]) for name in table.colnames])
-    # column by column (the cells of one column made in one pass), then the block's rows at
-    # once: walking the table row by row cost ~1.7 ms a row
-    for start in range(0, len(table), BLOCK_ROWS):
-        block = table[start : start + BLOCK_ROWS]
-        writer.writerows(zip(*(_cells(block[name]) for name in block.colnames), strict=True))
+    writer.writerows(_rows(table, _cells))
     return out.getvalue().encode("utf-8")
 
 
